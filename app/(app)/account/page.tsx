@@ -1,0 +1,36 @@
+import type { Metadata } from 'next';
+import { getDb } from '@/db';
+import { ApiTokens } from '@/components/account/api-tokens';
+import { PageHeader } from '@/components/ui/page-header';
+import { pageRoles } from '@/lib/auth/roles';
+import { requirePageUser } from '@/lib/auth/session';
+
+export const metadata: Metadata = { title: 'Account' };
+
+export default async function AccountPage() {
+  const user = await requirePageUser(pageRoles['/account'], '/account');
+  const db = getDb();
+  const org = user.organizationId
+    ? await db.selectFrom('organizations').select(['name', 'license_number']).where('id', '=', user.organizationId).executeTakeFirst()
+    : null;
+  const jur = user.jurisdictionId
+    ? await db.selectFrom('jurisdictions').select(['name']).where('id', '=', user.jurisdictionId).executeTakeFirst()
+    : null;
+  return (
+    <>
+      <PageHeader kicker="Your account" title={user.name} />
+      <div className="grid gap-6 lg:grid-cols-[1fr_2fr]">
+        <section className="card p-6 text-sm" aria-labelledby="profile-heading">
+          <h2 id="profile-heading" className="text-lg font-bold">Profile</h2>
+          <dl className="mt-3 space-y-2">
+            <div><dt className="text-ink-faint">E-mail</dt><dd className="font-mono">{user.email}</dd></div>
+            <div><dt className="text-ink-faint">Role</dt><dd className="capitalize">{user.role}</dd></div>
+            {org && <div><dt className="text-ink-faint">Company</dt><dd>{org.name}{org.license_number ? ` · licence ${org.license_number}` : ''}</dd></div>}
+            {jur && <div><dt className="text-ink-faint">Jurisdiction</dt><dd>{jur.name}</dd></div>}
+          </dl>
+        </section>
+        <ApiTokens />
+      </div>
+    </>
+  );
+}

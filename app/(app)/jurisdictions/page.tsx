@@ -1,0 +1,55 @@
+import type { Metadata } from 'next';
+import { getDb } from '@/db';
+import { listJurisdictions } from '@/db/jurisdictions';
+import { EmptyState } from '@/components/ui/empty-state';
+import { PageHeader } from '@/components/ui/page-header';
+import { pageRoles } from '@/lib/auth/roles';
+import { requirePageUser } from '@/lib/auth/session';
+
+export const metadata: Metadata = { title: 'Jurisdictions' };
+
+export default async function JurisdictionsPage() {
+  await requirePageUser(pageRoles['/jurisdictions'], '/jurisdictions');
+  const list = await listJurisdictions(getDb());
+  return (
+    <>
+      <PageHeader kicker="Administration" title="Jurisdictions" />
+      {list.length === 0 ? (
+        <EmptyState title="No jurisdictions yet">
+          <p>Add the first jurisdiction with the code editions it adopted; its rule set follows from those editions.</p>
+        </EmptyState>
+      ) : (
+        <div className="card overflow-x-auto">
+          <table className="min-w-full text-sm">
+            <caption className="sr-only">Jurisdictions and their adopted code editions</caption>
+            <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-ink-soft">
+              <tr>
+                <th scope="col" className="px-4 py-3">Jurisdiction</th>
+                <th scope="col" className="px-4 py-3">Building</th>
+                <th scope="col" className="px-4 py-3">Electrical</th>
+                <th scope="col" className="px-4 py-3">Plumbing</th>
+                <th scope="col" className="px-4 py-3">Mechanical</th>
+                <th scope="col" className="px-4 py-3">Fuel gas</th>
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-rule">
+              {list.map((j) => (
+                <tr key={j.id}>
+                  <td className="px-4 py-3">
+                    <div className="font-semibold">{j.name} {j.isDemo && <span className="ml-1 rounded bg-brass-soft px-1.5 text-xs">demo</span>}</div>
+                    <div className="text-xs text-ink-faint">{j.region} · <code className="font-mono">{j.slug}</code></div>
+                  </td>
+                  <td className="px-4 py-3">{j.editions.building}</td>
+                  <td className="px-4 py-3">{j.editions.electrical}</td>
+                  <td className="px-4 py-3">{j.editions.plumbing} <span className="text-ink-faint">({j.editions.plumbingFamily})</span></td>
+                  <td className="px-4 py-3">{j.editions.mechanical}</td>
+                  <td className="px-4 py-3">{j.editions.fuelGas}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}

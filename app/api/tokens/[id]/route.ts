@@ -1,0 +1,17 @@
+import { z } from 'zod';
+import { getDb } from '@/db';
+import { revokeApiToken } from '@/db/api-tokens';
+import { requireUser } from '@/lib/auth/session';
+import { NotFoundError } from '@/lib/errors';
+import { json, route } from '@/lib/http';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export const DELETE = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request);
+  const id = z.uuid().safeParse((await params).id);
+  if (!id.success || !(await revokeApiToken(getDb(), user.id, id.data))) {
+    throw new NotFoundError('No live token with that id on your account.');
+  }
+  return json({ revoked: true });
+});

@@ -1,0 +1,9 @@
+import { getDb } from '@/db';
+import { listUsers } from '@/db/users';
+import { requireUser } from '@/lib/auth/session';
+import { json, route } from '@/lib/http';
+
+export const GET = route(async (request) => {
+  await requireUser(request, ['admin']);
+  return json({ users: await listUsers(getDb()) });
+});

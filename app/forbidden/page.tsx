@@ -1,0 +1,16 @@
+import Link from 'next/link';
+
+export default async function ForbiddenPage({ searchParams }: { searchParams: Promise<{ from?: string }> }) {
+  const { from } = await searchParams;
+  return (
+    <main id="main" className="mx-auto max-w-lg px-4 py-20 text-center">
+      <p className="kicker">403</p>
+      <h1 className="mt-2 text-2xl font-bold">Your role cannot open this page</h1>
+      <p className="mt-3 text-ink-soft">
+        {from ? <>The page <code className="font-mono">{from}</code> belongs to another role. </> : null}
+        Ask your administrator if you need access.
+      </p>
+      <Link href="/home" className="btn-primary mt-6">Back to your start page</Link>
+    </main>
+  );
+}

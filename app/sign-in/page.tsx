@@ -1,0 +1,38 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { SignInForm } from '@/components/auth/sign-in-form';
+import { Wordmark } from '@/components/ui/logo';
+import { demoUsers } from '@/db/demo';
+
+export const metadata: Metadata = { title: 'Sign in' };
+export const dynamic = 'force-dynamic';
+
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string; error?: string }> }) {
+  const { callbackUrl } = await searchParams;
+  const isDemo = process.env.NOOKPASS_DEMO === '1';
+  return (
+    <main id="main" className="mx-auto flex min-h-screen max-w-md flex-col justify-center px-4 py-10">
+      <Link href="/" className="self-start"><Wordmark /></Link>
+      <div className="card mt-6 p-6">
+        <h1 className="text-2xl font-bold">Sign in</h1>
+        <p className="mt-1 text-sm text-ink-soft">Use the e-mail your company or jurisdiction registered.</p>
+        <div className="mt-6">
+          <SignInForm callbackUrl={callbackUrl} />
+        </div>
+      </div>
+      {isDemo && (
+        <section aria-labelledby="demo-heading" className="mt-6 rounded-lg border border-dashed border-brass bg-brass-soft/40 p-4 text-sm">
+          <h2 id="demo-heading" className="font-semibold">Demo data</h2>
+          <p className="mt-1 text-ink-soft">
+            This server runs the invented demo scenario. Password: <code className="font-mono">{process.env.NOOKPASS_DEMO_PASSWORD ? '(set by NOOKPASS_DEMO_PASSWORD)' : 'demo-password'}</code>
+          </p>
+          <ul className="mt-2 space-y-1 font-mono text-xs">
+            {demoUsers.map((u) => (
+              <li key={u.email}>{u.email} <span className="text-ink-faint">— {u.role}</span></li>
+            ))}
+          </ul>
+        </section>
+      )}
+    </main>
+  );
+}

@@ -1,0 +1,84 @@
+import type { DB } from './index';
+import { toAppUser } from './users';
+import type { AppUser } from '@/lib/auth/roles';
+
+export type ApiTokenSummary = {
+  id: string;
+  name: string;
+  prefix: string;
+  createdAt: Date;
+  lastUsedAt: Date | null;
+  revokedAt: Date | null;
+};
+
+export async function createApiToken(db: DB, userId: string, name: string, tokenHash: string, prefix: string): Promise<ApiTokenSummary> {
+  return db.transaction().execute(async (trx) => {
+    const row = await trx
+      .insertInto('api_tokens')
+      .values({ user_id: userId, name, token_hash: tokenHash, token_prefix: prefix })
+      .returningAll()
+      .executeTakeFirstOrThrow();
+    await trx
+      .insertInto('audit_log')
+      .values({ actor_user_id: userId, action: 'api-token.create', entity_type: 'api_token', entity_id: row.id, details: JSON.stringify({ name }) })
+      .execute();
+    return { id: row.id, name: row.name, prefix: row.token_prefix, createdAt: row.created_at, lastUsedAt: null, revokedAt: null };
+  });
+}
+
+export async function listApiTokens(db: DB, userId: string): Promise<ApiTokenSummary[]> {
+  const rows = await db.selectFrom('api_tokens').selectAll().where('user_id', '=', userId).orderBy('created_at', 'desc').execute();
+  return rows.map((r) => ({
+    id: r.id,
+    name: r.name,
+    prefix: r.token_prefix,
+    createdAt: r.created_at,
+    lastUsedAt: r.last_used_at,
+    revokedAt: r.revoked_at,
+  }));
+}
+
+/** Revokes one of the user's own tokens; false when it is not theirs or does not exist. */
+export async function revokeApiToken(db: DB, userId: string, tokenId: string): Promise<boolean> {
+  return db.transaction().execute(async (trx) => {
+    const res = await trx
+      .updateTable('api_tokens')
+      .set({ revoked_at: new Date() })
+      .where('id', '=', tokenId)
+      .where('user_id', '=', userId)
+      .where('revoked_at', 'is', null)
+      .executeTakeFirst();
+    if (Number(res.numUpdatedRows) === 0) return false;
+    await trx
+      .insertInto('audit_log')
+      .values({ actor_user_id: userId, action: 'api-token.revoke', entity_type: 'api_token', entity_id: tokenId, details: '{}' })
+      .execute();
+    return true;
+  });
+}
+
+export async function countRecentTokens(db: DB, userId: string, sinceMs: number): Promise<number> {
+  const row = await db
+    .selectFrom('api_tokens')
+    .select(db.fn.countAll<number>().as('n'))
+    .where('user_id', '=', userId)
+    .where('created_at', '>', new Date(Date.now() - sinceMs))
+    .executeTakeFirstOrThrow();
+  return Number(row.n);
+}
+
+/** The live (not revoked) token's user, touching its last-used time. */
+export async function userForTokenHash(db: DB, tokenHash: string): Promise<AppUser | null> {
+  const row = await db
+    .updateTable('api_tokens')
+    .set({ last_used_at: new Date() })
+    .from('users')
+    .whereRef('users.id', '=', 'api_tokens.user_id')
+    .where('api_tokens.token_hash', '=', tokenHash)
+    .where('api_tokens.revoked_at', 'is', null)
+    .returning([
+      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo',
+    ])
+    .executeTakeFirst();
+  return row ? toAppUser(row) : null;
+}

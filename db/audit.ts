@@ -1,0 +1,41 @@
+import type { DB } from './index';
+
+export type AuditEntry = {
+  actorUserId: string | null;
+  action: string;
+  entityType: string;
+  entityId?: string | null;
+  details?: Record<string, unknown>;
+};
+
+export async function writeAudit(db: DB, entry: AuditEntry): Promise<void> {
+  await db
+    .insertInto('audit_log')
+    .values({
+      actor_user_id: entry.actorUserId,
+      action: entry.action,
+      entity_type: entry.entityType,
+      entity_id: entry.entityId ?? null,
+      details: JSON.stringify(entry.details ?? {}),
+    })
+    .execute();
+}
+
+export async function listAudit(db: DB, limit = 100) {
+  const rows = await db
+    .selectFrom('audit_log as a')
+    .leftJoin('users as u', 'u.id', 'a.actor_user_id')
+    .select(['a.id', 'a.at', 'a.action', 'a.entity_type', 'a.entity_id', 'a.details', 'u.email as actor_email'])
+    .orderBy('a.id', 'desc')
+    .limit(limit)
+    .execute();
+  return rows.map((r) => ({
+    id: r.id,
+    at: r.at,
+    action: r.action,
+    entityType: r.entity_type,
+    entityId: r.entity_id,
+    details: r.details,
+    actorEmail: r.actor_email,
+  }));
+}

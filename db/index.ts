@@ -1,0 +1,28 @@
+import { Kysely, PostgresDialect } from 'kysely';
+import pg from 'pg';
+import type { Database } from './types';
+
+// pg returns int8 and numeric as strings; our bigints (audit ids, counts) fit in a double.
+pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));
+pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => Number(v));
+
+export type DB = Kysely<Database>;
+
+export function createDb(connectionString: string, max = 10): DB {
+  const pool = new pg.Pool({ connectionString, max, connectionTimeoutMillis: 5_000, idleTimeoutMillis: 30_000 });
+  // An idle client losing its connection (database restart) must not crash the process.
+  pool.on('error', (err) => console.error('[db] idle client error:', err.message));
+  return new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+}
+
+const globalForDb = globalThis as unknown as { nookpassDb?: DB };
+
+/** The app's one Kysely instance, created on first use so builds never connect. */
+export function getDb(): DB {
+  if (!globalForDb.nookpassDb) {
+    const url = process.env.DATABASE_URL;
+    if (!url) throw new Error('DATABASE_URL is not set; start NookPass with npm start.');
+    globalForDb.nookpassDb = createDb(url);
+  }
+  return globalForDb.nookpassDb;
+}

@@ -1,0 +1,93 @@
+import bcrypt from 'bcryptjs';
+import { createDb, type DB } from './index';
+import { demoJurisdictions, demoOrganizations, demoPassword, demoUsers } from './demo';
+
+/** Seeds the invented demo scenario. Idempotent: a second run changes no rows. */
+export async function seedDemo(db: DB): Promise<void> {
+  const password = demoPassword();
+  await db.transaction().execute(async (trx) => {
+    const orgIds = new Map<string, string>();
+    for (const org of demoOrganizations) {
+      const row = await trx
+        .insertInto('organizations')
+        .values({ name: org.name, license_number: org.license_number, is_demo: true })
+        .onConflict((oc) => oc.column('name').doUpdateSet({ license_number: org.license_number, is_demo: true }))
+        .returning('id')
+        .executeTakeFirstOrThrow();
+      orgIds.set(org.key, row.id);
+    }
+
+    const jurIds = new Map<string, string>();
+    for (const j of demoJurisdictions) {
+      const existing = await trx.selectFrom('jurisdictions').select('id').where('slug', '=', j.slug).executeTakeFirst();
+      // An admin may have edited a demo jurisdiction; the seed only creates it.
+      const id = existing?.id ?? (await trx.insertInto('jurisdictions').values(j).returning('id').executeTakeFirstOrThrow()).id;
+      jurIds.set(j.slug, id);
+    }
+
+    for (const u of demoUsers) {
+      const organization_id = u.organization ? orgIds.get(u.organization)! : null;
+      const jurisdiction_id = u.jurisdiction ? jurIds.get(u.jurisdiction)! : null;
+      const existing = await trx.selectFrom('users').selectAll().where('email', '=', u.email).executeTakeFirst();
+      if (!existing) {
+        await trx
+          .insertInto('users')
+          .values({
+            email: u.email,
+            name: u.name,
+            role: u.role,
+            organization_id,
+            jurisdiction_id,
+            password_hash: await bcrypt.hash(password, 10),
+            is_demo: true,
+          })
+          .execute();
+        continue;
+      }
+      const passwordOk = await bcrypt.compare(password, existing.password_hash);
+      const same =
+        passwordOk && existing.name === u.name && existing.role === u.role &&
+        existing.organization_id === organization_id && existing.jurisdiction_id === jurisdiction_id && existing.is_demo;
+      if (same) continue;
+      await trx
+        .updateTable('users')
+        .set({
+          name: u.name,
+          role: u.role,
+          organization_id,
+          jurisdiction_id,
+          is_demo: true,
+          updated_at: new Date(),
+          ...(passwordOk ? {} : { password_hash: await bcrypt.hash(password, 10) }),
+        })
+        .where('id', '=', existing.id)
+        .execute();
+    }
+  });
+}
+
+async function main() {
+  if (process.env.NOOKPASS_DEMO !== '1') {
+    console.error('[seed] refusing to seed: the demo data is for local use and tests (set NOOKPASS_DEMO=1).');
+    process.exit(1);
+  }
+  const url = process.env.DATABASE_URL;
+  if (!url) {
+    console.error('[seed] DATABASE_URL is not set.');
+    process.exit(1);
+  }
+  const db = createDb(url, 1);
+  try {
+    await seedDemo(db);
+    console.log('[seed] demo scenario is in place');
+  } finally {
+    await db.destroy();
+  }
+}
+
+if (process.argv[1] && /seed\.ts$/.test(process.argv[1])) {
+  main().catch((err) => {
+    console.error('[seed]', err);
+    process.exit(1);
+  });
+}

@@ -1,0 +1,58 @@
+import type { DB } from './index';
+import type { Role, UserRow } from './types';
+import type { AppUser } from '@/lib/auth/roles';
+
+export function toAppUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'organization_id' | 'jurisdiction_id' | 'is_demo'>): AppUser {
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    organizationId: row.organization_id,
+    jurisdictionId: row.jurisdiction_id,
+    isDemo: row.is_demo,
+  };
+}
+
+export function normalizeEmail(email: string): string {
+  return email.trim().toLowerCase();
+}
+
+export async function findUserForSignIn(db: DB, email: string) {
+  const row = await db.selectFrom('users').selectAll().where('email', '=', normalizeEmail(email)).executeTakeFirst();
+  return row ? { user: toAppUser(row), passwordHash: row.password_hash } : null;
+}
+
+export async function findUserById(db: DB, id: string): Promise<AppUser | null> {
+  const row = await db.selectFrom('users').selectAll().where('id', '=', id).executeTakeFirst();
+  return row ? toAppUser(row) : null;
+}
+
+export type UserListItem = AppUser & { organizationName: string | null; jurisdictionName: string | null; createdAt: Date };
+
+export async function listUsers(db: DB): Promise<UserListItem[]> {
+  const rows = await db
+    .selectFrom('users as u')
+    .leftJoin('organizations as o', 'o.id', 'u.organization_id')
+    .leftJoin('jurisdictions as j', 'j.id', 'u.jurisdiction_id')
+    .select([
+      'u.id', 'u.email', 'u.name', 'u.role', 'u.organization_id', 'u.jurisdiction_id', 'u.is_demo', 'u.created_at',
+      'o.name as organization_name', 'j.name as jurisdiction_name',
+    ])
+    .orderBy('u.role')
+    .orderBy('u.email')
+    .execute();
+  return rows.map((r) => ({
+    ...toAppUser(r),
+    organizationName: r.organization_name,
+    jurisdictionName: r.jurisdiction_name,
+    createdAt: r.created_at,
+  }));
+}
+
+export async function countUsersByRole(db: DB): Promise<Record<Role, number>> {
+  const rows = await db.selectFrom('users').select(['role', db.fn.countAll<number>().as('n')]).groupBy('role').execute();
+  const out: Record<Role, number> = { installer: 0, inspector: 0, admin: 0 };
+  for (const r of rows) out[r.role] = Number(r.n);
+  return out;
+}

@@ -1,0 +1,35 @@
+/** Typed domain errors; lib/http.ts maps each to one HTTP status in one place. */
+export type FieldError = { path: string; message: string };
+
+export class DomainError extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = new.target.name;
+  }
+}
+export class UnauthorizedError extends DomainError {
+  constructor(message = 'Sign in to continue.') {
+    super(message);
+  }
+}
+export class ForbiddenError extends DomainError {
+  constructor(message = 'Your role does not allow this.') {
+    super(message);
+  }
+}
+export class NotFoundError extends DomainError {
+  constructor(message = 'Not found.') {
+    super(message);
+  }
+}
+export class ConflictError extends DomainError {}
+export class ValidationError extends DomainError {
+  constructor(
+    public readonly errors: FieldError[],
+    message = 'The request has invalid fields.',
+  ) {
+    super(message);
+  }
+}
+export class PayloadTooLargeError extends DomainError {}
+export class ServiceUnavailableError extends DomainError {}

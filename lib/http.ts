@@ -1,0 +1,85 @@
+import 'server-only';
+import { randomUUID } from 'node:crypto';
+import type { z } from 'zod';
+import {
+  ConflictError,
+  DomainError,
+  ForbiddenError,
+  NotFoundError,
+  PayloadTooLargeError,
+  ServiceUnavailableError,
+  UnauthorizedError,
+  ValidationError,
+  type FieldError,
+} from './errors';
+
+const MAX_JSON_BYTES = 512 * 1024;
+
+export function json(body: unknown, init?: number | ResponseInit): Response {
+  const opts = typeof init === 'number' ? { status: init } : init;
+  return Response.json(body, { ...opts, headers: { 'cache-control': 'no-store', ...(opts?.headers ?? {}) } });
+}
+
+export function zodErrors(error: z.ZodError): FieldError[] {
+  return error.issues.map((issue) => ({
+    path: issue.path.map(String).join('.') || '(body)',
+    message: issue.message,
+  }));
+}
+
+/** Reads a JSON body: wrong content type, oversize or malformed JSON become a 400/413, never a 500. */
+export async function readJson(request: Request): Promise<unknown> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!/^application\/(.+\+)?json\b/i.test(type)) {
+    throw new ValidationError([{ path: '(body)', message: 'Send the body as JSON with Content-Type: application/json.' }]);
+  }
+  const declared = Number(request.headers.get('content-length') ?? '0');
+  if (declared > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
+  const text = await request.text();
+  if (Buffer.byteLength(text) > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new ValidationError([{ path: '(body)', message: 'The body is not valid JSON.' }]);
+  }
+}
+
+export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
+  const result = schema.safeParse(await readJson(request));
+  if (!result.success) throw new ValidationError(zodErrors(result.error));
+  return result.data;
+}
+
+function isDatabaseDown(err: unknown): boolean {
+  const code = (err as { code?: string })?.code;
+  return ['ECONNREFUSED', 'ECONNRESET', '57P01', '57P03', 'ETIMEDOUT'].includes(code ?? '') ||
+    /Connection terminated|timeout exceeded when trying to connect/i.test((err as Error)?.message ?? '');
+}
+
+export function errorResponse(err: unknown): Response {
+  if (err instanceof ValidationError) return json({ error: err.message, errors: err.errors }, 400);
+  if (err instanceof UnauthorizedError) return json({ error: err.message }, 401);
+  if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
+  if (err instanceof NotFoundError) return json({ error: err.message }, 404);
+  if (err instanceof ConflictError) return json({ error: err.message }, 409);
+  if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
+  if (err instanceof ServiceUnavailableError || isDatabaseDown(err)) {
+    return json({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);
+  }
+  const requestId = randomUUID();
+  console.error(`[api] request ${requestId} failed:`, err instanceof DomainError ? err.message : err);
+  return json({ error: 'Something went wrong on our side.', requestId }, 500);
+}
+
+type Handler<C> = (request: Request, context: C) => Promise<Response>;
+
+/** Wraps a route handler so every thrown domain error becomes its status, in one place. */
+export function route<C = unknown>(handler: Handler<C>): Handler<C> {
+  return async (request, context) => {
+    try {
+      return await handler(request, context);
+    } catch (err) {
+      return errorResponse(err);
+    }
+  };
+}

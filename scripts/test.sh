@@ -1,0 +1,64 @@
+#!/usr/bin/env bash
+# npm test: the same bootstrap into a throwaway database, then unit, integration and end-to-end tests.
+source "$(dirname "$0")/lib.sh"
+
+TEST_PORT="${NOOKPASS_TEST_PORT:-3100}"
+DB_NAME="nookpass_test_$(date +%s)_$$"
+
+ensure_node_modules
+ensure_postgres_installed
+ensure_chromium
+if port_busy "$TEST_PORT"; then
+  die "Port $TEST_PORT on 127.0.0.1 is in use by another program; the tests serve the app there. Stop it, or set NOOKPASS_TEST_PORT."
+fi
+
+WAS_RUNNING=0
+if pg_running; then WAS_RUNNING=1; fi
+start_cluster
+
+APP_PID=""
+cleanup() {
+  local rc=$?
+  trap - INT TERM EXIT
+  if [ -n "$APP_PID" ] && kill -0 "$APP_PID" 2>/dev/null; then kill -TERM "$APP_PID" 2>/dev/null || true; wait "$APP_PID" 2>/dev/null || true; fi
+  drop_database "$DB_NAME"
+  # Leave a cluster that 'npm start' was already running; stop the one we started.
+  if [ "$WAS_RUNNING" = "0" ]; then stop_cluster; fi
+  exit $rc
+}
+trap cleanup INT TERM EXIT
+
+ensure_database "$DB_NAME"
+export DATABASE_URL="$(database_url "$DB_NAME")"
+export NOOKPASS_ADMIN_DATABASE_URL="$(database_url postgres)"
+export NOOKPASS_DEMO=1
+export NEXTAUTH_SECRET="test-secret-$(date +%s)-$$"
+export NEXTAUTH_URL="http://127.0.0.1:$TEST_PORT"
+export NOOKPASS_BASE_URL="$NEXTAUTH_URL"
+export NEXT_TELEMETRY_DISABLED=1
+
+say "Unit tests…"
+npx vitest run tests/unit
+
+npx tsx db/migrate.ts
+npx tsx db/seed.ts
+
+say "Building the app for the end-to-end tests…"
+npx next build
+
+say "Serving the built app on 127.0.0.1:$TEST_PORT…"
+npx next start -H 127.0.0.1 -p "$TEST_PORT" > "$NP_DATA/test-app.log" 2>&1 &
+APP_PID=$!
+for _ in $(seq 1 120); do
+  if port_busy "$TEST_PORT"; then break; fi
+  kill -0 "$APP_PID" 2>/dev/null || { cat "$NP_DATA/test-app.log" >&2; die "The app exited during start-up."; }
+  sleep 0.5
+done
+
+say "Integration tests (real PostgreSQL, the served app)…"
+npx vitest run tests/integration
+
+say "End-to-end tests (Playwright in Debian Chromium)…"
+npx playwright test
+
+say "All tests passed."

@@ -1,0 +1,29 @@
+import type { Config } from 'tailwindcss';
+
+// NookPass's own palette: drafting-paper neutrals, an ink blue for structure, and one signal colour per finding status.
+export default {
+  content: ['./app/**/*.{ts,tsx}', './components/**/*.{ts,tsx}'],
+  theme: {
+    extend: {
+      colors: {
+        paper: { DEFAULT: '#f6f4ee', deep: '#ece8dd' },
+        ink: { DEFAULT: '#1c2a3a', soft: '#3d4d60', faint: '#6b7785' },
+        rule: '#d6d0c2',
+        brass: { DEFAULT: '#a8741a', soft: '#f3e6c8' },
+        status: {
+          pass: '#2e7d5b',
+          fail: '#b23a2a',
+          caution: '#b8860b',
+          info: '#4a58b8',
+          na: '#7a7f86',
+        },
+      },
+      fontFamily: {
+        sans: ['var(--font-sans)', 'system-ui', 'sans-serif'],
+        mono: ['var(--font-mono)', 'ui-monospace', 'monospace'],
+      },
+      boxShadow: { card: '0 1px 0 rgba(28,42,58,0.08), 0 1px 3px rgba(28,42,58,0.06)' },
+    },
+  },
+  plugins: [],
+} satisfies Config;
