@@ -1,0 +1,222 @@
+import convert from 'convert-units';
+
+/** How a plan enters bare numbers: inches / sq in (imperial) or millimetres / cm² (metric). */
+export type UnitSystem = 'imperial' | 'metric';
+
+export type LengthUnit = 'in' | 'ft' | 'mm' | 'cm' | 'm';
+export type AreaUnit = 'in2' | 'ft2' | 'mm2' | 'cm2' | 'm2';
+
+export interface UnitError {
+  path: string;
+  message: string;
+}
+
+export type UnitResult = { ok: true; value: number } | { ok: false; error: UnitError };
+
+// convert-units 2.3.4 crosses between systems through truncated anchors (3.28084 ft per m,
+// 10.7639 sq ft per m²), so its results carry a relative error of about 3e-8 for lengths and
+// 1e-6 for areas. Rounding to 7 and 5 significant digits removes that noise and gives back
+// the exact NIST SP 811 values (30 in -> 762 mm, 10668 mm -> 420 in) for trade-sized numbers.
+const LENGTH_SIGNIFICANT_DIGITS = 7;
+const AREA_SIGNIFICANT_DIGITS = 5;
+
+function roundSignificant(value: number, digits: number): number {
+  if (value === 0 || !Number.isFinite(value)) return value;
+  return Number(value.toPrecision(digits));
+}
+
+export function convertLength(value: number, from: LengthUnit, to: LengthUnit): number {
+  if (from === to) return value;
+  return roundSignificant(convert(value).from(from).to(to), LENGTH_SIGNIFICANT_DIGITS);
+}
+
+export function convertArea(value: number, from: AreaUnit, to: AreaUnit): number {
+  if (from === to) return value;
+  return roundSignificant(convert(value).from(from).to(to), AREA_SIGNIFICANT_DIGITS);
+}
+
+export const inchesToMm = (inches: number): number => convertLength(inches, 'in', 'mm');
+export const mmToInches = (mm: number): number => convertLength(mm, 'mm', 'in');
+export const feetToInches = (feet: number): number => convertLength(feet, 'ft', 'in');
+export const inchesToFeet = (inches: number): number => convertLength(inches, 'in', 'ft');
+export const sqInToCm2 = (sqIn: number): number => convertArea(sqIn, 'in2', 'cm2');
+export const cm2ToSqIn = (cm2: number): number => convertArea(cm2, 'cm2', 'in2');
+
+/** Turns a field path such as `exhaust.run.2.straight` into "Exhaust run item 3 straight". */
+export function labelForPath(path: string): string {
+  if (!path) return 'Value';
+  const words = path.split('.').map((part) => {
+    if (/^\d+$/.test(part)) return `item ${Number(part) + 1}`;
+    return part.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
+  });
+  const text = words.join(' ');
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+const NUMBER = String.raw`(?:\d+(?:\.\d*)?|\.\d+)`;
+// A whole or decimal number optionally followed by a fraction ("6 1/2", "6-1/2"), or a bare fraction.
+const MIXED = String.raw`(?:(${NUMBER})(?:[\s-]+(\d+)\/(\d+))?|(\d+)\/(\d+))`;
+const FEET_MARK = String.raw`(?:'|ft\.?|feet|foot)`;
+const INCH_MARK = String.raw`(?:"|''|in\.?|inch|inches)`;
+const IMPERIAL_LENGTH = new RegExp(
+  String.raw`^(?:(${NUMBER})\s*${FEET_MARK})?\s*-?\s*(?:${MIXED}\s*(${INCH_MARK})?)?$`,
+);
+const METRIC_LENGTH = new RegExp(String.raw`^(${NUMBER})\s*(mm|cm|m)$`);
+const AREA = new RegExp(
+  String.raw`^(${NUMBER})\s*(sq\.?\s*in\.?|square\s+inch(?:es)?|in²|in2|sq\.?\s*ft\.?|square\s+f(?:ee|oo)t|ft²|ft2|sq\.?\s*cm|cm²|cm2|sq\.?\s*mm|mm²|mm2|sq\.?\s*m|m²|m2)?$`,
+);
+
+function normalizeText(input: string): string {
+  return input
+    .trim()
+    .toLowerCase()
+    .replace(/[″“”]/g, '"')
+    .replace(/[′‘’]/g, "'")
+    .replace(/\s+/g, ' ');
+}
+
+function fail(path: string, message: string): UnitResult {
+  return { ok: false, error: { path, message } };
+}
+
+function checkNumber(value: number, path: string, kind: 'length' | 'area'): UnitResult {
+  if (!Number.isFinite(value)) return fail(path, `${labelForPath(path)}: must be a finite ${kind}.`);
+  if (value < 0) return fail(path, `${labelForPath(path)}: a ${kind} cannot be negative.`);
+  return { ok: true, value };
+}
+
+function mixedToNumber(whole?: string, num?: string, den?: string, bareNum?: string, bareDen?: string): number | null {
+  if (bareNum !== undefined && bareDen !== undefined) {
+    const d = Number(bareDen);
+    return d === 0 ? null : Number(bareNum) / d;
+  }
+  if (whole === undefined) return 0;
+  let value = Number(whole);
+  if (num !== undefined && den !== undefined) {
+    const d = Number(den);
+    if (d === 0) return null;
+    value += Number(num) / d;
+  }
+  return value;
+}
+
+const LENGTH_EXAMPLE = `use e.g. 30 in, 2' 6", 762 mm`;
+const AREA_EXAMPLE = 'use e.g. 60 sq in, 0.5 sq ft, 387 cm²';
+
+/**
+ * Parses a length into canonical inches. A number, or a string without a unit, is read in the
+ * plan's units (inches for imperial, millimetres for metric).
+ */
+export function parseLength(input: unknown, units: UnitSystem, path: string): UnitResult {
+  if (typeof input === 'number') {
+    const checked = checkNumber(input, path, 'length');
+    if (!checked.ok) return checked;
+    return { ok: true, value: units === 'metric' ? mmToInches(input) : input };
+  }
+  if (typeof input !== 'string') {
+    return fail(path, `${labelForPath(path)}: expected a length; ${LENGTH_EXAMPLE}.`);
+  }
+  const text = normalizeText(input);
+  const notALength = fail(path, `${labelForPath(path)}: '${input}' is not a length; ${LENGTH_EXAMPLE}.`);
+  if (text.startsWith('-')) return fail(path, `${labelForPath(path)}: a length cannot be negative ('${input}').`);
+  if (text === '') return notALength;
+
+  const metric = METRIC_LENGTH.exec(text);
+  if (metric) {
+    const value = Number(metric[1]);
+    const unit = metric[2] as LengthUnit;
+    return { ok: true, value: convertLength(value, unit, 'in') };
+  }
+
+  const imperial = IMPERIAL_LENGTH.exec(text);
+  if (!imperial) return notALength;
+  const [, feetText, whole, num, den, bareNum, bareDen, inchMark] = imperial;
+  const hasInchPart = whole !== undefined || bareNum !== undefined;
+  if (feetText === undefined && !hasInchPart) return notALength;
+  const inchPart = mixedToNumber(whole, num, den, bareNum, bareDen);
+  if (inchPart === null) return notALength;
+
+  if (feetText === undefined && inchMark === undefined) {
+    // No unit given: the plan's units apply, as for a bare number.
+    return { ok: true, value: units === 'metric' ? mmToInches(inchPart) : inchPart };
+  }
+  const feet = feetText === undefined ? 0 : Number(feetText);
+  const inches = feet === 0 ? inchPart : feetToInches(feet) + inchPart;
+  return checkNumber(inches, path, 'length');
+}
+
+const AREA_UNITS: Array<[RegExp, AreaUnit]> = [
+  [/^(sq\.?\s*in\.?|square\s+inch(es)?|in²|in2)$/, 'in2'],
+  [/^(sq\.?\s*ft\.?|square\s+f(ee|oo)t|ft²|ft2)$/, 'ft2'],
+  [/^(sq\.?\s*cm|cm²|cm2)$/, 'cm2'],
+  [/^(sq\.?\s*mm|mm²|mm2)$/, 'mm2'],
+  [/^(sq\.?\s*m|m²|m2)$/, 'm2'],
+];
+
+/** Parses an area into canonical square inches; bare values are sq in (imperial) or cm² (metric). */
+export function parseArea(input: unknown, units: UnitSystem, path: string): UnitResult {
+  const bareUnit: AreaUnit = units === 'metric' ? 'cm2' : 'in2';
+  if (typeof input === 'number') {
+    const checked = checkNumber(input, path, 'area');
+    if (!checked.ok) return checked;
+    return { ok: true, value: convertArea(input, bareUnit, 'in2') };
+  }
+  if (typeof input !== 'string') {
+    return fail(path, `${labelForPath(path)}: expected an area; ${AREA_EXAMPLE}.`);
+  }
+  const text = normalizeText(input);
+  if (text.startsWith('-')) return fail(path, `${labelForPath(path)}: an area cannot be negative ('${input}').`);
+  const match = AREA.exec(text);
+  if (!match) return fail(path, `${labelForPath(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
+  const value = Number(match[1]);
+  const unitText = match[2];
+  const unit = unitText === undefined ? bareUnit : AREA_UNITS.find(([re]) => re.test(unitText))?.[1];
+  if (!unit) return fail(path, `${labelForPath(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
+  return checkNumber(convertArea(value, unit, 'in2'), path, 'area');
+}
+
+export type LengthStyle = 'feet-inches' | 'inches' | 'decimal';
+
+function trimDecimal(value: number, places: number): string {
+  return value.toFixed(places).replace(/\.?0+$/, '');
+}
+
+function gcd(a: number, b: number): number {
+  return b === 0 ? a : gcd(b, a % b);
+}
+
+function inchesWithFraction(sixteenths: number): string {
+  const whole = Math.floor(sixteenths / 16);
+  const rest = sixteenths % 16;
+  if (rest === 0) return `${whole}`;
+  const divisor = gcd(rest, 16);
+  const fraction = `${rest / divisor}/${16 / divisor}`;
+  return whole === 0 ? fraction : `${whole}-${fraction}`;
+}
+
+/**
+ * Formats canonical inches for display. Imperial: feet-inches to the nearest 1/16 in
+ * (`2' 6-1/2"`, `7-1/4"` under a foot), plain inches (`30-1/2"`) or decimal inches for thin
+ * material (`0.0157 in`). Metric: millimetres to 0.1 mm (`762 mm`).
+ */
+export function formatLength(inches: number, units: UnitSystem, style: LengthStyle = 'feet-inches'): string {
+  if (!Number.isFinite(inches)) return String(inches);
+  const sign = inches < 0 ? '-' : '';
+  const magnitude = Math.abs(inches);
+  if (units === 'metric') {
+    const mm = inchesToMm(magnitude);
+    return `${sign}${trimDecimal(mm, style === 'decimal' ? 2 : 1)} mm`;
+  }
+  if (style === 'decimal') return `${sign}${trimDecimal(magnitude, 4)} in`;
+  const sixteenths = Math.round(magnitude * 16);
+  if (style === 'inches' || sixteenths < 12 * 16) return `${sign}${inchesWithFraction(sixteenths)}"`;
+  const feet = Math.floor(sixteenths / (12 * 16));
+  return `${sign}${feet}' ${inchesWithFraction(sixteenths - feet * 12 * 16)}"`;
+}
+
+/** Formats canonical square inches: `60 sq in` (imperial) or `387 cm²` (metric), to 0.1. */
+export function formatArea(sqIn: number, units: UnitSystem): string {
+  if (!Number.isFinite(sqIn)) return String(sqIn);
+  if (units === 'metric') return `${trimDecimal(sqInToCm2(sqIn), 1)} cm²`;
+  return `${trimDecimal(sqIn, 1)} sq in`;
+}

@@ -1,0 +1,149 @@
+import { describe, expect, it } from 'vitest';
+import {
+  cm2ToSqIn,
+  convertLength,
+  formatArea,
+  formatLength,
+  inchesToMm,
+  mmToInches,
+  parseArea,
+  parseLength,
+  sqInToCm2,
+} from '@/lib/units';
+
+// Tolerance for comparisons with the exact NIST SP 811 factors: 1e-9 relative. convert-units 2.3.4
+// alone is off by about 3e-8 (lengths) and 1e-6 (areas), so these checks fail without our rounding.
+const REL = 1e-9;
+const close = (actual: number, expected: number) =>
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(Math.abs(expected) * REL + 1e-12);
+
+const ok = (r: ReturnType<typeof parseLength>) => {
+  if (!r.ok) throw new Error(r.error.message);
+  return r.value;
+};
+
+describe('conversions against NIST SP 811 exact factors', () => {
+  it('1 in = 25.4 mm exactly', () => {
+    close(inchesToMm(1), 25.4); // NIST SP 811 Appendix B: inch = 2.54 E-02 m (exact)
+    close(inchesToMm(30), 762); // convert-units alone gives 761.99997
+    close(mmToInches(762), 30);
+    close(mmToInches(10668), 420); // 35 ft, the IRC developed-length limit, entered in mm
+  });
+  it('1 ft = 0.3048 m exactly', () => {
+    close(convertLength(1, 'ft', 'm'), 0.3048); // NIST SP 811 Appendix B: foot = 3.048 E-01 m (exact)
+    close(convertLength(0.3048, 'm', 'in'), 12);
+  });
+  it('1 sq in = 6.4516 cm² exactly (to the 5 significant digits areas keep)', () => {
+    // NIST SP 811 Appendix B: square inch = 6.4516 E-04 m² (exact); areas keep 5 significant digits.
+    expect(Math.abs(sqInToCm2(1) - 6.4516)).toBeLessThanOrEqual(6.4516 * 5e-5);
+    expect(sqInToCm2(100)).toBe(645.16);
+    expect(cm2ToSqIn(645.16)).toBe(100);
+  });
+});
+
+describe('parseLength', () => {
+  const cases: Array<[string | number, 'imperial' | 'metric', number]> = [
+    [30, 'imperial', 30],
+    ['30', 'imperial', 30],
+    ['30 in', 'imperial', 30],
+    ['30"', 'imperial', 30],
+    [`2' 6"`, 'imperial', 30],
+    [`2'-6 1/2"`, 'imperial', 30.5],
+    ['2 ft 6-1/2 in', 'imperial', 30.5],
+    ['29 1/2', 'imperial', 29.5],
+    ['29-1/2', 'imperial', 29.5],
+    ['29.5', 'imperial', 29.5],
+    ['5 ft', 'imperial', 60],
+    [`4'`, 'imperial', 48],
+    ['3/4', 'imperial', 0.75],
+    ['762 mm', 'imperial', 30],
+    ['76.2 cm', 'imperial', 30],
+    ['0.762 m', 'imperial', 30],
+    [762, 'metric', 30], // bare numbers follow the plan's units
+    ['762', 'metric', 30],
+    ['30 in', 'metric', 30],
+  ];
+  it.each(cases)('%s (%s) = %d in', (input, units, expected) => {
+    close(ok(parseLength(input, units, 'enclosure.width')), expected);
+  });
+  it('rejects negative and non-finite values with the field path', () => {
+    for (const bad of [-1, Number.NaN, Number.POSITIVE_INFINITY, '-3 in']) {
+      const r = parseLength(bad, 'imperial', 'enclosure.width');
+      expect(r.ok).toBe(false);
+      if (!r.ok) expect(r.error.path).toBe('enclosure.width');
+    }
+  });
+  it('names the field and gives examples for text that is not a length', () => {
+    const r = parseLength('30 furlongs', 'imperial', 'enclosure.width');
+    expect(r).toEqual({
+      ok: false,
+      error: {
+        path: 'enclosure.width',
+        message: `Enclosure width: '30 furlongs' is not a length; use e.g. 30 in, 2' 6", 762 mm.`,
+      },
+    });
+    expect(parseLength('', 'imperial', 'x').ok).toBe(false);
+    expect(parseLength('1/0', 'imperial', 'x').ok).toBe(false);
+    expect(parseLength('60 sq in', 'imperial', 'x').ok).toBe(false);
+  });
+});
+
+describe('parseArea', () => {
+  const cases: Array<[string | number, 'imperial' | 'metric', number]> = [
+    [60, 'imperial', 60],
+    ['60', 'imperial', 60],
+    ['60 sq in', 'imperial', 60],
+    ['60 in²', 'imperial', 60],
+    ['0.5 sq ft', 'imperial', 72], // 1 sq ft = 144 sq in, exact
+    ['645.16 cm²', 'imperial', 100], // NIST SP 811: 1 sq in = 6.4516 cm²
+    ['645.16 cm2', 'imperial', 100],
+    [645.16, 'metric', 100],
+    ['0.064516 m²', 'imperial', 100],
+  ];
+  it.each(cases)('%s (%s) = %d sq in', (input, units, expected) => {
+    const r = parseArea(input, units, 'makeupAir.openings.0.netFreeArea');
+    if (!r.ok) throw new Error(r.error.message);
+    expect(Math.abs(r.value - expected)).toBeLessThanOrEqual(expected * 5e-5);
+  });
+  it('387 cm² and 0.04 m² agree with 6.4516 cm² per sq in to 5 significant digits', () => {
+    const a = parseArea('387 cm²', 'imperial', 'a');
+    const b = parseArea('0.04 m²', 'imperial', 'b');
+    expect(a.ok && Math.abs(a.value - 387 / 6.4516) < 387 / 6.4516 * 5e-5).toBe(true);
+    expect(b.ok && Math.abs(b.value - 400 / 6.4516) < 400 / 6.4516 * 5e-5).toBe(true);
+  });
+  it('rejects lengths, negatives and junk', () => {
+    expect(parseArea('30 in', 'imperial', 'a').ok).toBe(false);
+    expect(parseArea(-5, 'imperial', 'a').ok).toBe(false);
+    expect(parseArea('lots', 'imperial', 'a').ok).toBe(false);
+  });
+});
+
+describe('formatLength and formatArea', () => {
+  it('formats feet-inches to 1/16 in', () => {
+    expect(formatLength(30.5, 'imperial')).toBe(`2' 6-1/2"`);
+    expect(formatLength(7.25, 'imperial')).toBe(`7-1/4"`);
+    expect(formatLength(42, 'imperial')).toBe(`3' 6"`);
+    expect(formatLength(24, 'imperial')).toBe(`2' 0"`);
+    expect(formatLength(0.5, 'imperial')).toBe(`1/2"`);
+    expect(formatLength(1 / 16, 'imperial')).toBe(`1/16"`);
+    expect(formatLength(11.94, 'imperial')).toBe(`11-15/16"`);
+    expect(formatLength(11.99, 'imperial')).toBe(`1' 0"`);
+  });
+  it('has a plain-inch and a decimal variant', () => {
+    expect(formatLength(30.5, 'imperial', 'inches')).toBe(`30-1/2"`);
+    expect(formatLength(0.0157, 'imperial', 'decimal')).toBe('0.0157 in');
+  });
+  it('formats metric lengths in mm (1 in = 25.4 mm, NIST SP 811)', () => {
+    expect(formatLength(30, 'metric')).toBe('762 mm');
+    expect(formatLength(0.0157, 'metric')).toBe('0.4 mm');
+  });
+  it('formats areas', () => {
+    expect(formatArea(60, 'imperial')).toBe('60 sq in');
+    expect(formatArea(60, 'metric')).toBe('387.1 cm²'); // 60 × 6.4516 = 387.096
+  });
+  it('round-trips what it prints', () => {
+    for (const inches of [0.0625, 7.25, 29.5, 30.5, 84, 419.9375]) {
+      close(ok(parseLength(formatLength(inches, 'imperial'), 'imperial', 'x')), inches);
+    }
+  });
+});
