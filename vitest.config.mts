@@ -15,5 +15,7 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     fileParallelism: true,
+    // Kysely's FileMigrationProvider import()s migrations/*.ts; inlining it routes that through vite's transform.
+    server: { deps: { inline: ['kysely'] } },
   },
 });

@@ -34,7 +34,7 @@ cleanup() {
 }
 trap cleanup INT TERM EXIT
 
-NEXT_TELEMETRY_DISABLED=1 npx next start -H 127.0.0.1 -p "$APP_PORT" &
+NEXT_TELEMETRY_DISABLED=1 node_modules/.bin/next start -H 127.0.0.1 -p "$APP_PORT" &
 APP_PID=$!
 echo "$APP_PID" > "$NP_DATA/app.pid"
 echo "$$" > "$NP_DATA/start.pid"

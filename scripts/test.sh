@@ -47,7 +47,7 @@ say "Building the app for the end-to-end tests…"
 npx next build
 
 say "Serving the built app on 127.0.0.1:$TEST_PORT…"
-npx next start -H 127.0.0.1 -p "$TEST_PORT" > "$NP_DATA/test-app.log" 2>&1 &
+node_modules/.bin/next start -H 127.0.0.1 -p "$TEST_PORT" > "$NP_DATA/test-app.log" 2>&1 &
 APP_PID=$!
 for _ in $(seq 1 120); do
   if port_busy "$TEST_PORT"; then break; fi

@@ -4,7 +4,7 @@ import bcrypt from 'bcryptjs';
 const COST = 12;
 export const MIN_PASSWORD_LENGTH = 10;
 
-export function hashPassword(plain: string, cost = COST): Promise<string> {
+export async function hashPassword(plain: string, cost = COST): Promise<string> {
   if (plain.length < MIN_PASSWORD_LENGTH) {
     throw new Error(`A password needs at least ${MIN_PASSWORD_LENGTH} characters.`);
   }

@@ -1,0 +1,77 @@
+import { expect, test } from '@playwright/test';
+import { signInAs } from './helpers';
+
+const roles = [
+  { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Account'], lands: '/projects' },
+  { email: 'inspector@nookpass.demo', role: 'Inspector', nav: ['Inspections', 'Account'], lands: '/inspections' },
+  { email: 'admin@nookpass.demo', role: 'Admin', nav: ['Rules', 'Jurisdictions', 'Users', 'Account'], lands: '/rules' },
+];
+
+for (const r of roles) {
+  test(`${r.role.toLowerCase()} signs in and sees their navigation`, async ({ page }) => {
+    await signInAs(page, r.email);
+    await expect(page).toHaveURL(new RegExp(`${r.lands}$`));
+    await expect(page.getByTestId('shell-role')).toHaveText(r.role);
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    await expect(nav.getByRole('link')).toHaveText(r.nav);
+    await expect(page.getByText('Demo account')).toBeVisible();
+  });
+}
+
+test('a wrong password and an unknown e-mail get the same generic error', async ({ page }) => {
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill('installer2@nookpass.demo');
+  await page.getByLabel('Password').fill('not-the-password');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  const alert = page.locator('#sign-in-error');
+  await expect(alert).toHaveText('That e-mail and password do not match an account.');
+
+  await page.getByLabel('E-mail').fill('nobody@nookpass.demo');
+  await page.getByLabel('Password').fill('not-the-password');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(alert).toHaveText('That e-mail and password do not match an account.');
+  await expect(page).toHaveURL(/\/sign-in/);
+});
+
+test('an anonymous visit to /projects lands on sign-in and returns after it', async ({ page }) => {
+  await page.goto('/projects');
+  await expect(page).toHaveURL(/\/sign-in\?callbackUrl=%2Fprojects/);
+  await expect(page.getByRole('heading', { name: 'Sign in' })).toBeVisible();
+  await page.getByLabel('E-mail').fill('installer@nookpass.demo');
+  await page.getByLabel('Password').fill(process.env.NOOKPASS_DEMO_PASSWORD || 'demo-password');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page).toHaveURL(/\/projects$/);
+});
+
+test('an installer cannot open admin pages', async ({ page }) => {
+  await signInAs(page, 'installer@nookpass.demo');
+  await page.goto('/users');
+  await expect(page).toHaveURL(/\/forbidden/);
+  await expect(page.getByRole('heading', { name: /cannot open this page/ })).toBeVisible();
+});
+
+test('a user creates an API token, sees it once, and revokes it', async ({ page, request }) => {
+  await signInAs(page, 'installer2@nookpass.demo');
+  await page.getByRole('link', { name: 'Account' }).click();
+  await page.getByLabel('Token name').fill('e2e laptop');
+  await page.getByRole('button', { name: 'Create token' }).click();
+  const token = (await page.getByTestId('new-token').textContent())!.trim();
+  expect(token).toMatch(/^np_/);
+
+  const me = await request.get('/api/me', { headers: { authorization: `Bearer ${token}` } });
+  expect(me.status()).toBe(200);
+
+  await page.getByRole('button', { name: 'Revoke token e2e laptop' }).click();
+  await expect(page.getByRole('button', { name: 'Revoke token e2e laptop' })).toHaveCount(0);
+  const after = await request.get('/api/me', { headers: { authorization: `Bearer ${token}` } });
+  expect(after.status()).toBe(401);
+});
+
+test('signing out ends the session', async ({ page }) => {
+  await signInAs(page, 'admin@nookpass.demo');
+  await page.getByRole('link', { name: 'Sign out' }).click();
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await expect(page).toHaveURL(/\/sign-in/);
+  await page.goto('/rules');
+  await expect(page).toHaveURL(/\/sign-in/);
+});

@@ -1,0 +1,56 @@
+import { sql } from 'kysely';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { migrateToLatest } from '@/db/migrator';
+import { seedDemo } from '@/db/seed';
+import { createScratchDb } from './helpers';
+
+let scratch: Awaited<ReturnType<typeof createScratchDb>>;
+beforeAll(async () => {
+  scratch = await createScratchDb();
+  const { error } = await migrateToLatest(scratch.db);
+  if (error) throw error;
+});
+afterAll(async () => {
+  await scratch?.drop();
+});
+
+async function snapshot() {
+  const out: Record<string, unknown[]> = {};
+  const tables = await sql<{ table_name: string }>`
+    SELECT table_name FROM information_schema.tables
+    WHERE table_schema = 'public' AND table_name NOT LIKE 'kysely_%' ORDER BY table_name`.execute(scratch.db);
+  for (const { table_name } of tables.rows) {
+    const rows = await sql.raw(`SELECT * FROM "${table_name}" ORDER BY 1`).execute(scratch.db);
+    out[table_name] = rows.rows;
+  }
+  return out;
+}
+
+describe('demo seed', () => {
+  it('creates the demo scenario', async () => {
+    await seedDemo(scratch.db);
+    const users = await scratch.db.selectFrom('users').select(['email', 'role']).orderBy('email').execute();
+    expect(users.map((u) => u.email)).toEqual([
+      'admin@nookpass.demo',
+      'inspector@nookpass.demo',
+      'installer2@nookpass.demo',
+      'installer@nookpass.demo',
+      'other-installer@nookpass.demo',
+    ]);
+    const orgs = await scratch.db.selectFrom('organizations').select('name').execute();
+    expect(orgs).toHaveLength(2);
+    const jur = await scratch.db.selectFrom('jurisdictions').selectAll().orderBy('slug').execute();
+    expect(jur.map((j) => [j.slug, j.building_edition, j.electrical_edition, j.plumbing_family])).toEqual([
+      ['demo-city', 'IRC 2021', 'NEC 2023', 'UPC'],
+      ['demo-county', 'IRC 2018', 'NEC 2017', 'IPC'],
+    ]);
+    expect(jur.every((j) => j.is_demo)).toBe(true);
+  });
+
+  it('leaves exactly the same rows when run twice', async () => {
+    const before = await snapshot();
+    await seedDemo(scratch.db);
+    const after = await snapshot();
+    expect(after).toEqual(before);
+  });
+});
