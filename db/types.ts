@@ -74,6 +74,80 @@ export interface AuditLogTable {
   details: Json<Record<string, unknown>>;
 }
 
+export type RuleSetStatus = 'draft' | 'published' | 'retired';
+
+export interface RuleSetsTable {
+  id: Generated<string>;
+  jurisdiction_id: string;
+  version: number;
+  status: Generated<RuleSetStatus>;
+  parameters: Json<unknown>;
+  changelog: Generated<string>;
+  based_on_id: string | null;
+  revision: Generated<number>;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+  published_at: Timestamp | null;
+  published_by: string | null;
+  retired_at: Timestamp | null;
+}
+
+export interface RulesTable {
+  id: Generated<string>;
+  rule_set_id: string;
+  key: string;
+  position: number;
+  title: string;
+  area: string;
+  enabled: Generated<boolean>;
+  conditions: Json<unknown>;
+  definition: Json<Record<string, unknown>>;
+}
+
+export interface ProjectsTable {
+  id: Generated<string>;
+  organization_id: string;
+  jurisdiction_id: string;
+  name: string;
+  site_address: string;
+  permit_number: string | null;
+  notes: Generated<string>;
+  is_demo: Generated<boolean>;
+  archived_at: Timestamp | null;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+}
+
+export interface PlanRevisionsTable {
+  id: Generated<string>;
+  project_id: string;
+  number: number;
+  plan: Json<unknown>;
+  canonical: Json<unknown>;
+  change_summary: Generated<string>;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
+export type CheckOutcome = 'pass' | 'fail' | 'incomplete';
+
+export interface ChecksTable {
+  id: Generated<string>;
+  project_id: string;
+  plan_revision_id: string;
+  rule_set_id: string;
+  inputs: Json<unknown>;
+  facts: Json<unknown>;
+  findings: Json<unknown>;
+  summary: Json<unknown>;
+  outcome: CheckOutcome;
+  duration_ms: number;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -81,6 +155,11 @@ export interface Database {
   api_tokens: ApiTokensTable;
   sign_in_throttle: SignInThrottleTable;
   audit_log: AuditLogTable;
+  rule_sets: RuleSetsTable;
+  rules: RulesTable;
+  projects: ProjectsTable;
+  plan_revisions: PlanRevisionsTable;
+  checks: ChecksTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;
@@ -95,3 +174,11 @@ export type ApiTokenRow = Selectable<ApiTokensTable>;
 export type NewApiToken = Insertable<ApiTokensTable>;
 export type AuditLogRow = Selectable<AuditLogTable>;
 export type NewAuditLogEntry = Insertable<AuditLogTable>;
+export type RuleSetRow = Selectable<RuleSetsTable>;
+export type RuleRow = Selectable<RulesTable>;
+export type NewRule = Insertable<RulesTable>;
+export type ProjectRow = Selectable<ProjectsTable>;
+export type NewProject = Insertable<ProjectsTable>;
+export type ProjectUpdate = Updateable<ProjectsTable>;
+export type PlanRevisionRow = Selectable<PlanRevisionsTable>;
+export type CheckRow = Selectable<ChecksTable>;

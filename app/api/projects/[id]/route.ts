@@ -1,0 +1,18 @@
+import { getDb } from '@/db';
+import { getProject, updateProject } from '@/db/projects';
+import { requireUser } from '@/lib/auth/session';
+import { json, parseBody, route } from '@/lib/http';
+import { projectUpdateSchema } from '@/lib/projects/schema';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export const GET = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer', 'admin']);
+  return json(await getProject(getDb(), user, (await params).id));
+});
+
+export const PATCH = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer', 'admin']);
+  const input = await parseBody(request, projectUpdateSchema);
+  return json(await updateProject(getDb(), user, (await params).id, input));
+});

@@ -1,0 +1,10 @@
+import { z } from 'zod';
+import { json } from '@/lib/http';
+import { planInputSchema } from '@/lib/plan';
+
+// Public and static: integrators build against it before they have an account.
+const schema = z.toJSONSchema(planInputSchema, { io: 'input', unrepresentable: 'any' });
+
+export function GET() {
+  return json(schema, { headers: { 'cache-control': 'public, max-age=300' } });
+}

@@ -1,0 +1,140 @@
+'use client';
+
+import Link from 'next/link';
+import { useEffect, useState } from 'react';
+import useSWR from 'swr';
+import { swrFetcher } from '@/lib/client/fetch-json';
+import { StatusBadge } from '@/components/ui/status-badge';
+
+type Item = {
+  id: string;
+  name: string;
+  siteAddress: string;
+  jurisdiction: { slug: string; name: string };
+  latestCheck: { outcome: 'pass' | 'fail' | 'incomplete'; createdAt: string } | null;
+  updatedAt: string;
+  archivedAt: string | null;
+  isDemo: boolean;
+};
+type Page = { items: Item[]; total: number; page: number; pageSize: number };
+type Sort = 'updated' | 'name' | 'jurisdiction' | 'created';
+
+function Outcome({ check }: { check: Item['latestCheck'] }) {
+  if (!check) return <span className="text-sm text-ink-faint">Not checked yet</span>;
+  if (check.outcome === 'pass') return <StatusBadge status="pass" label="Passes" />;
+  if (check.outcome === 'fail') return <StatusBadge status="fail" label="Has failures" />;
+  return <StatusBadge status="needs-info" label="Incomplete" />;
+}
+
+export function ProjectsTable() {
+  const [search, setSearch] = useState('');
+  const [q, setQ] = useState('');
+  const [sort, setSort] = useState<Sort>('updated');
+  const [dir, setDir] = useState<'asc' | 'desc'>('desc');
+  const [page, setPage] = useState(1);
+  const [archived, setArchived] = useState(false);
+
+  useEffect(() => {
+    const t = setTimeout(() => {
+      setQ(search);
+      setPage(1);
+    }, 250);
+    return () => clearTimeout(t);
+  }, [search]);
+
+  const params = new URLSearchParams({ q, sort, dir, page: String(page), pageSize: '20', archived: archived ? 'all' : '0' });
+  const { data, error, isLoading } = useSWR<Page>(`/api/projects?${params}`, swrFetcher, { keepPreviousData: true });
+
+  function sortBy(column: Sort) {
+    if (sort === column) setDir(dir === 'asc' ? 'desc' : 'asc');
+    else {
+      setSort(column);
+      setDir(column === 'name' || column === 'jurisdiction' ? 'asc' : 'desc');
+    }
+    setPage(1);
+  }
+
+  const header = (column: Sort, label: string) => (
+    <th scope="col" className="px-4 py-3" aria-sort={sort === column ? (dir === 'asc' ? 'ascending' : 'descending') : 'none'}>
+      <button type="button" onClick={() => sortBy(column)} className="inline-flex items-center gap-1 font-semibold uppercase tracking-wide">
+        {label}
+        <span aria-hidden="true">{sort === column ? (dir === 'asc' ? '▲' : '▼') : '↕'}</span>
+      </button>
+    </th>
+  );
+
+  const pages = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap items-end gap-4">
+        <div className="min-w-[16rem] flex-1">
+          <label htmlFor="project-search" className="field-label">Search projects</label>
+          <input
+            id="project-search"
+            type="search"
+            className="field-input"
+            placeholder="Name, address, jurisdiction or permit"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+          />
+        </div>
+        <label className="inline-flex items-center gap-2 pb-2 text-sm">
+          <input type="checkbox" checked={archived} onChange={(e) => { setArchived(e.target.checked); setPage(1); }} className="h-4 w-4" />
+          Show archived
+        </label>
+      </div>
+
+      {error && <p role="alert" className="rounded-md bg-status-fail/10 px-4 py-3 text-sm text-status-fail">Projects could not be loaded: {(error as Error).message}</p>}
+      {isLoading && !data && <p className="text-sm text-ink-soft" role="status">Loading projects…</p>}
+
+      {data && data.items.length === 0 && (
+        <div className="card border-dashed p-8 text-sm text-ink-soft">
+          {q || archived ? 'No project matches. Clear the search or include archived projects.' : 'No projects yet. Start one for your next laundry-closet job with “New project”.'}
+        </div>
+      )}
+
+      {data && data.items.length > 0 && (
+        <div className="card overflow-x-auto">
+          <table className="min-w-full text-sm">
+            <caption className="sr-only">Your company’s projects</caption>
+            <thead className="bg-paper-deep text-left text-xs text-ink-soft">
+              <tr>
+                {header('name', 'Project')}
+                <th scope="col" className="px-4 py-3 font-semibold uppercase tracking-wide">Site address</th>
+                {header('jurisdiction', 'Jurisdiction')}
+                <th scope="col" className="px-4 py-3 font-semibold uppercase tracking-wide">Latest check</th>
+                {header('updated', 'Updated')}
+              </tr>
+            </thead>
+            <tbody className="divide-y divide-rule">
+              {data.items.map((p) => (
+                <tr key={p.id} className={p.archivedAt ? 'opacity-60' : undefined}>
+                  <td className="px-4 py-3">
+                    <Link href={`/projects/${p.id}`} className="font-semibold text-ink underline-offset-2 hover:underline">{p.name}</Link>
+                    {p.isDemo && <span className="ml-2 rounded bg-brass-soft px-1.5 text-xs">demo</span>}
+                    {p.archivedAt && <span className="ml-2 rounded bg-paper-deep px-1.5 text-xs">archived</span>}
+                  </td>
+                  <td className="px-4 py-3 text-ink-soft">{p.siteAddress}</td>
+                  <td className="px-4 py-3">{p.jurisdiction.name}</td>
+                  <td className="px-4 py-3"><Outcome check={p.latestCheck} /></td>
+                  <td className="px-4 py-3 text-ink-soft"><time dateTime={p.updatedAt}>{new Date(p.updatedAt).toLocaleDateString()}</time></td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+
+      {data && data.total > data.pageSize && (
+        <nav aria-label="Pages" className="flex items-center justify-between text-sm">
+          <span className="text-ink-soft">{data.total} projects · page {data.page} of {pages}</span>
+          <span className="flex gap-2">
+            <button type="button" className="btn-secondary" disabled={page <= 1} onClick={() => setPage(page - 1)}>Previous</button>
+            <button type="button" className="btn-secondary" disabled={page >= pages} onClick={() => setPage(page + 1)}>Next</button>
+          </span>
+        </nav>
+      )}
+    </div>
+  );
+}

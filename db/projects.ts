@@ -1,0 +1,172 @@
+import { sql } from 'kysely';
+import type { DB } from './index';
+import type { CheckOutcome } from './types';
+import type { ProjectInput, ProjectListQuery, ProjectUpdateInput } from '@/lib/projects/schema';
+import type { AppUser } from '@/lib/auth/roles';
+import { ForbiddenError, NotFoundError, ValidationError } from '@/lib/errors';
+
+export type Project = {
+  id: string;
+  organizationId: string;
+  organizationName: string;
+  jurisdiction: { id: string; slug: string; name: string };
+  name: string;
+  siteAddress: string;
+  permitNumber: string | null;
+  notes: string;
+  isDemo: boolean;
+  archivedAt: Date | null;
+  createdAt: Date;
+  updatedAt: Date;
+  latestCheck: { id: string; outcome: CheckOutcome; summary: unknown; createdAt: Date } | null;
+  latestRevision: number | null;
+};
+
+function baseQuery(db: DB) {
+  return db
+    .selectFrom('projects as p')
+    .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
+    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom('checks as c')
+          .select(['c.id as check_id', 'c.outcome', 'c.summary', 'c.created_at as checked_at'])
+          .whereRef('c.project_id', '=', 'p.id')
+          .orderBy('c.created_at', 'desc')
+          .limit(1)
+          .as('lc'),
+      (join) => join.onTrue(),
+    )
+    .leftJoinLateral(
+      (eb) =>
+        eb.selectFrom('plan_revisions as r').select((e) => e.fn.max('r.number').as('latest_revision')).whereRef('r.project_id', '=', 'p.id').as('lr'),
+      (join) => join.onTrue(),
+    )
+    .select([
+      'p.id', 'p.organization_id', 'o.name as organization_name', 'p.name', 'p.site_address', 'p.permit_number', 'p.notes',
+      'p.is_demo', 'p.archived_at', 'p.created_at', 'p.updated_at',
+      'j.id as jurisdiction_id', 'j.slug as jurisdiction_slug', 'j.name as jurisdiction_name',
+      'lc.check_id', 'lc.outcome', 'lc.summary', 'lc.checked_at', 'lr.latest_revision',
+    ]);
+}
+
+type Row = Awaited<ReturnType<ReturnType<typeof baseQuery>['executeTakeFirstOrThrow']>>;
+
+function toProject(r: Row): Project {
+  return {
+    id: r.id,
+    organizationId: r.organization_id,
+    organizationName: r.organization_name,
+    jurisdiction: { id: r.jurisdiction_id, slug: r.jurisdiction_slug, name: r.jurisdiction_name },
+    name: r.name,
+    siteAddress: r.site_address,
+    permitNumber: r.permit_number,
+    notes: r.notes,
+    isDemo: r.is_demo,
+    archivedAt: r.archived_at,
+    createdAt: r.created_at,
+    updatedAt: r.updated_at,
+    latestCheck: r.check_id ? { id: r.check_id, outcome: r.outcome as CheckOutcome, summary: r.summary, createdAt: r.checked_at as Date } : null,
+    latestRevision: r.latest_revision == null ? null : Number(r.latest_revision),
+  };
+}
+
+/** Who may see a project: its own company's installers and admins. Others get a 404, not a hint that it exists. */
+export function scopeForUser(user: AppUser): { organizationId: string | null } {
+  if (user.role === 'admin') return { organizationId: null };
+  if (user.role === 'installer' && user.organizationId) return { organizationId: user.organizationId };
+  throw new ForbiddenError('Projects belong to installers’ companies.');
+}
+
+export async function listProjects(db: DB, user: AppUser, q: ProjectListQuery): Promise<{ items: Project[]; total: number }> {
+  const scope = scopeForUser(user);
+  let query = baseQuery(db);
+  if (scope.organizationId) query = query.where('p.organization_id', '=', scope.organizationId);
+  if (q.archived === '0') query = query.where('p.archived_at', 'is', null);
+  if (q.archived === '1') query = query.where('p.archived_at', 'is not', null);
+  if (q.q) {
+    const like = `%${q.q.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+    query = query.where((eb) =>
+      eb.or([eb('p.name', 'ilike', like), eb('p.site_address', 'ilike', like), eb('j.name', 'ilike', like), eb('p.permit_number', 'ilike', like)]),
+    );
+  }
+  const sortColumn = { updated: 'p.updated_at', name: 'p.name', jurisdiction: 'j.name', created: 'p.created_at' } as const;
+  const [rows, count] = await Promise.all([
+    query
+      .orderBy(sortColumn[q.sort], q.dir)
+      .orderBy('p.id')
+      .limit(q.pageSize)
+      .offset((q.page - 1) * q.pageSize)
+      .execute(),
+    query.clearSelect().clearOrderBy().select(sql<number>`count(*)`.as('n')).executeTakeFirstOrThrow(),
+  ]);
+  return { items: rows.map(toProject), total: Number(count.n) };
+}
+
+export async function getProject(db: DB, user: AppUser, id: string): Promise<Project> {
+  const scope = scopeForUser(user);
+  if (!/^[0-9a-f-]{36}$/i.test(id)) throw new NotFoundError('No such project.');
+  let query = baseQuery(db).where('p.id', '=', id);
+  if (scope.organizationId) query = query.where('p.organization_id', '=', scope.organizationId);
+  const row = await query.executeTakeFirst();
+  if (!row) throw new NotFoundError('No such project, or it belongs to another company.');
+  return toProject(row);
+}
+
+async function jurisdictionIdForSlug(db: DB, slug: string): Promise<string> {
+  const j = await db.selectFrom('jurisdictions').select('id').where('slug', '=', slug).executeTakeFirst();
+  if (!j) throw new ValidationError([{ path: 'jurisdiction', message: `Jurisdiction: no jurisdiction '${slug}'.` }]);
+  return j.id;
+}
+
+export async function createProject(db: DB, user: AppUser, input: ProjectInput): Promise<Project> {
+  if (user.role !== 'installer' || !user.organizationId) throw new ForbiddenError('Only installers create projects, for their own company.');
+  const organizationId = user.organizationId;
+  const id = await db.transaction().execute(async (trx) => {
+    const jurisdictionId = await jurisdictionIdForSlug(trx, input.jurisdiction);
+    const row = await trx
+      .insertInto('projects')
+      .values({
+        organization_id: organizationId,
+        jurisdiction_id: jurisdictionId,
+        name: input.name,
+        site_address: input.siteAddress,
+        permit_number: input.permitNumber || null,
+        notes: input.notes ?? '',
+        created_by: user.id,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await trx
+      .insertInto('audit_log')
+      .values({ actor_user_id: user.id, action: 'project.create', entity_type: 'project', entity_id: row.id, details: JSON.stringify({ name: input.name }) })
+      .execute();
+    return row.id;
+  });
+  return getProject(db, user, id);
+}
+
+export async function updateProject(db: DB, user: AppUser, id: string, input: ProjectUpdateInput): Promise<Project> {
+  const current = await getProject(db, user, id);
+  await db.transaction().execute(async (trx) => {
+    const set: Record<string, unknown> = { updated_at: new Date() };
+    if (input.name !== undefined) set.name = input.name;
+    if (input.siteAddress !== undefined) set.site_address = input.siteAddress;
+    if (input.permitNumber !== undefined) set.permit_number = input.permitNumber || null;
+    if (input.notes !== undefined) set.notes = input.notes;
+    if (input.jurisdiction !== undefined) set.jurisdiction_id = await jurisdictionIdForSlug(trx, input.jurisdiction);
+    if (input.archived !== undefined) set.archived_at = input.archived ? (current.archivedAt ?? new Date()) : null;
+    await trx.updateTable('projects').set(set).where('id', '=', current.id).execute();
+    const action = input.archived === true ? 'project.archive' : input.archived === false ? 'project.restore' : 'project.update';
+    await trx
+      .insertInto('audit_log')
+      .values({ actor_user_id: user.id, action, entity_type: 'project', entity_id: current.id, details: JSON.stringify({ fields: Object.keys(input) }) })
+      .execute();
+  });
+  return getProject(db, user, id);
+}
+
+export async function touchProject(db: DB, projectId: string): Promise<void> {
+  await db.updateTable('projects').set({ updated_at: new Date() }).where('id', '=', projectId).execute();
+}
