@@ -13,26 +13,36 @@ export interface UnitError {
 
 export type UnitResult = { ok: true; value: number } | { ok: false; error: UnitError };
 
-// convert-units 2.3.4 crosses between systems through truncated anchors (3.28084 ft per m,
-// 10.7639 sq ft per m²), so its results carry a relative error of about 3e-8 for lengths and
-// 1e-6 for areas. Rounding to 7 and 5 significant digits removes that noise and gives back
-// the exact NIST SP 811 values (30 in -> 762 mm, 10668 mm -> 420 in) for trade-sized numbers.
-const LENGTH_SIGNIFICANT_DIGITS = 7;
-const AREA_SIGNIFICANT_DIGITS = 5;
+// convert-units 2.3.4 crosses between systems through truncated anchors: 3.28084 ft per m and
+// 10.7639 sq ft per m², where NIST SP 811 gives exactly 1/0.3048 and 1/0.09290304. Its results
+// are off by about 3e-8 (lengths) and 1e-6 (areas) relative, enough to fail 10668 mm against a
+// 35 ft limit. We let it convert, then scale out its anchor error and trim float noise.
+const METRIC_LENGTHS: ReadonlySet<LengthUnit> = new Set(['mm', 'cm', 'm']);
+const METRIC_AREAS: ReadonlySet<AreaUnit> = new Set(['mm2', 'cm2', 'm2']);
+const LENGTH_ANCHOR_FIX = 1 / 0.3048 / 3.28084; // exact ft per m over convert-units' ft per m
+const AREA_ANCHOR_FIX = 1 / 0.09290304 / 10.7639;
+const SIGNIFICANT_DIGITS = 12;
 
-function roundSignificant(value: number, digits: number): number {
+function roundSignificant(value: number): number {
   if (value === 0 || !Number.isFinite(value)) return value;
-  return Number(value.toPrecision(digits));
+  return Number(value.toPrecision(SIGNIFICANT_DIGITS));
+}
+
+function anchorFix(fromMetric: boolean, toMetric: boolean, factor: number): number {
+  if (fromMetric === toMetric) return 1;
+  return fromMetric ? factor : 1 / factor;
 }
 
 export function convertLength(value: number, from: LengthUnit, to: LengthUnit): number {
   if (from === to) return value;
-  return roundSignificant(convert(value).from(from).to(to), LENGTH_SIGNIFICANT_DIGITS);
+  const raw = convert(value).from(from).to(to);
+  return roundSignificant(raw * anchorFix(METRIC_LENGTHS.has(from), METRIC_LENGTHS.has(to), LENGTH_ANCHOR_FIX));
 }
 
 export function convertArea(value: number, from: AreaUnit, to: AreaUnit): number {
   if (from === to) return value;
-  return roundSignificant(convert(value).from(from).to(to), AREA_SIGNIFICANT_DIGITS);
+  const raw = convert(value).from(from).to(to);
+  return roundSignificant(raw * anchorFix(METRIC_AREAS.has(from), METRIC_AREAS.has(to), AREA_ANCHOR_FIX));
 }
 
 export const inchesToMm = (inches: number): number => convertLength(inches, 'in', 'mm');
@@ -185,13 +195,13 @@ function gcd(a: number, b: number): number {
   return b === 0 ? a : gcd(b, a % b);
 }
 
-function inchesWithFraction(sixteenths: number): string {
+function inchesWithFraction(sixteenths: number, keepZero = false): string {
   const whole = Math.floor(sixteenths / 16);
   const rest = sixteenths % 16;
   if (rest === 0) return `${whole}`;
   const divisor = gcd(rest, 16);
   const fraction = `${rest / divisor}/${16 / divisor}`;
-  return whole === 0 ? fraction : `${whole}-${fraction}`;
+  return whole === 0 && !keepZero ? fraction : `${whole}-${fraction}`;
 }
 
 /**
@@ -211,7 +221,7 @@ export function formatLength(inches: number, units: UnitSystem, style: LengthSty
   const sixteenths = Math.round(magnitude * 16);
   if (style === 'inches' || sixteenths < 12 * 16) return `${sign}${inchesWithFraction(sixteenths)}"`;
   const feet = Math.floor(sixteenths / (12 * 16));
-  return `${sign}${feet}' ${inchesWithFraction(sixteenths - feet * 12 * 16)}"`;
+  return `${sign}${feet}' ${inchesWithFraction(sixteenths - feet * 12 * 16, true)}"`;
 }
 
 /** Formats canonical square inches: `60 sq in` (imperial) or `387 cm²` (metric), to 0.1. */
