@@ -1,0 +1,87 @@
+import { all, commonPractice, cond, param, type RuleDefinition } from './define';
+
+const HINGED = all('hinged-doors', cond('has-hinged-doors', 'doors.hingedDoorCount', 'greaterThan', 0));
+
+export const doorHardwareRules: RuleDefinition[] = [
+  {
+    key: 'door-hardware.hinge-arm-room',
+    title: 'Room for hinge arms behind the closed doors',
+    area: 'door-hardware',
+    severity: 'caution',
+    citations: [commonPractice()],
+    applicability: HINGED,
+    conditions: all('room-for-arms', cond('front-gap-at-least', 'doors.frontGapIn', 'greaterThanInclusive', param('doors.hingeArmDepthIn'))),
+    requires: ['doors.frontGapIn'],
+    measured: 'doors.frontGapIn',
+    limit: param('doors.hingeArmDepthIn'),
+    unit: 'length',
+    messages: {
+      pass: 'With the units set back at their rear clearance, {measured} is left in front of them for hinge arms ({limit} wanted).',
+      fail: 'Only {measured} is left between the closed doors and the appliance fronts; hinge arms and knobs want about {limit}.',
+      notApplicable: 'No hinged doors.',
+    },
+    remedy: 'door-hardware.hinge-arm-room',
+  },
+  {
+    key: 'door-hardware.hinge-count',
+    title: 'Hinges per door',
+    area: 'door-hardware',
+    severity: 'caution',
+    // Hinge makers' charts (TRADE.md S).
+    citations: [{ source: 'manufacturer', confidence: 'S' }],
+    applicability: HINGED,
+    conditions: all('enough-hinges', cond('hinges-at-least-chart', 'doors.hingeCount', 'greaterThanInclusive', { fact: 'doors.hingeCountRequired' })),
+    requires: ['doors.hingeCount', 'doors.hingeCountRequired'],
+    measured: 'doors.hingeCount',
+    limit: { fact: 'doors.hingeCountRequired' },
+    unit: 'count',
+    messages: {
+      pass: 'Each door has the hinges its height calls for ({measured} where {limit} are needed).',
+      fail: 'A door has {measured} hinges where its height calls for {limit}; a tall door on too few hinges sags and binds.',
+      notApplicable: 'No hinged doors.',
+    },
+    remedy: 'door-hardware.add-hinges',
+  },
+  {
+    key: 'door-hardware.hinge-positions',
+    title: 'Hinge distance from the door ends',
+    area: 'door-hardware',
+    severity: 'caution',
+    citations: [{ source: 'manufacturer', confidence: 'S' }],
+    applicability: HINGED,
+    conditions: all(
+      'hinges-near-ends',
+      cond('end-hinge-not-too-close', 'doors.hingeEdgeDistanceMinIn', 'greaterThanInclusive', param('doors.hingeEdgeMinIn')),
+      cond('end-hinge-not-too-far', 'doors.hingeEdgeDistanceMaxIn', 'lessThanInclusive', param('doors.hingeEdgeMaxIn')),
+    ),
+    requires: ['doors.hingeEdgeDistanceMinIn', 'doors.hingeEdgeDistanceMaxIn'],
+    measured: 'doors.hingeEdgeDistanceMinIn',
+    limit: { min: param('doors.hingeEdgeMinIn'), max: param('doors.hingeEdgeMaxIn') },
+    unit: 'length',
+    messages: {
+      pass: 'The top and bottom hinges sit {limit} from the door ends.',
+      fail: 'The top and bottom hinges should sit {limit} from the door ends (nearest: {measured}).',
+      notApplicable: 'No hinged doors.',
+    },
+    remedy: 'door-hardware.move-hinges',
+  },
+  {
+    key: 'door-hardware.appliance-door-swing',
+    title: 'Open enclosure doors clear the appliance doors',
+    area: 'door-hardware',
+    severity: 'caution',
+    citations: [commonPractice()],
+    applicability: null,
+    conditions: all('swing-clear', cond('clear-opening-at-least-span', 'doors.clearOpeningWithDoorsOpenIn', 'greaterThanInclusive', { fact: 'doors.applianceDoorSpanIn' })),
+    requires: ['doors.clearOpeningWithDoorsOpenIn', 'doors.applianceDoorSpanIn'],
+    measured: 'doors.clearOpeningWithDoorsOpenIn',
+    limit: { fact: 'doors.applianceDoorSpanIn' },
+    unit: 'length',
+    messages: {
+      pass: 'With the enclosure doors open, {measured} is clear in front of the appliances ({limit} needed).',
+      fail: 'With the enclosure doors open only {measured} is clear; the appliance doors need {limit} in front of them (hinged leaves counted at their thickness, bypass leaves at the widest leaf).',
+      notApplicable: 'No enclosure doors.',
+    },
+    remedy: 'door-hardware.door-swing',
+  },
+];

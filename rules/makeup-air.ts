@@ -1,0 +1,81 @@
+import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from './define';
+
+const imc = (section: string, confidence: CitationEntry['confidence'], years: number[]): CitationEntry => ({
+  source: 'mechanical',
+  code: 'IMC',
+  section,
+  confidence,
+  years,
+});
+// IMC 2015 504.5 / 2018 504.6 (TRADE.md: verified against 2018).
+const MAKEUP_AIR_CITATIONS = [imc('504.6', 'V', [2018]), imc('504.5', 'S', [2015]), imc('504.6', 'M', [2021])];
+
+const CLOSET = all('in-a-closet', cond('space-is-closet', 'makeupAir.isCloset', 'equal', true));
+
+export const makeupAirRules: RuleDefinition[] = [
+  {
+    key: 'makeup-air.closet-opening',
+    title: 'Closet opening for dryer make-up air',
+    area: 'makeup-air',
+    severity: 'fail',
+    citations: MAKEUP_AIR_CITATIONS,
+    applicability: CLOSET,
+    conditions: all('opening-large-enough', cond('opening-at-least-minimum', 'makeupAir.openingAreaSqIn', 'greaterThanInclusive', param('makeupAir.closetOpeningMinSqIn'))),
+    requires: ['makeupAir.openingAreaSqIn'],
+    measured: 'makeupAir.openingAreaSqIn',
+    limit: param('makeupAir.closetOpeningMinSqIn'),
+    unit: 'area',
+    messages: {
+      pass: 'Closet openings total {measured} net free area ({limit} needed).',
+      fail: 'Closet openings total {measured} net free area; a closet for a dryer needs at least {limit}, or make-up air by another approved means. A starved dryer runs hot.',
+      notApplicable: 'The appliances are not in a closet.',
+    },
+    remedy: 'makeup-air.add-opening',
+  },
+  {
+    key: 'makeup-air.maker-closet-vent',
+    title: "Closet vents the dryer maker asks for",
+    area: 'makeup-air',
+    severity: 'caution',
+    citations: [manufacturer('S')],
+    applicability: all(
+      'maker-gives-figures',
+      cond('space-is-closet', 'makeupAir.isCloset', 'equal', true),
+      cond('maker-vent-given', 'makeupAir.makerVentGiven', 'equal', true),
+    ),
+    conditions: all(
+      'maker-vents-met',
+      cond('top-vent-met', 'makeupAir.topOpeningAreaSqIn', 'greaterThanInclusive', { fact: 'makeupAir.makerTopSqIn' }),
+      cond('bottom-vent-met', 'makeupAir.bottomOpeningAreaSqIn', 'greaterThanInclusive', { fact: 'makeupAir.makerBottomSqIn' }),
+    ),
+    requires: ['makeupAir.topOpeningAreaSqIn', 'makeupAir.bottomOpeningAreaSqIn', 'makeupAir.makerTopSqIn', 'makeupAir.makerBottomSqIn'],
+    measured: 'makeupAir.topOpeningAreaSqIn',
+    limit: { fact: 'makeupAir.makerTopSqIn' },
+    unit: 'area',
+    messages: {
+      pass: "Top and bottom openings meet the dryer maker's closet-vent figures (top {measured}, {limit} asked).",
+      fail: "The openings fall short of the dryer maker's closet-vent figures (top {measured}, {limit} asked; see the bottom figure too). Gaps around doors do not count.",
+      notApplicable: "The dryer maker gives no closet-vent figures, or the space is not a closet.",
+    },
+    remedy: 'makeup-air.maker-vents',
+  },
+  {
+    key: 'makeup-air.exhaust-rate',
+    title: 'Make-up air for a high exhaust rate',
+    area: 'makeup-air',
+    severity: 'fail',
+    citations: MAKEUP_AIR_CITATIONS,
+    applicability: all('over-threshold', cond('exhaust-over-threshold', 'makeupAir.exhaustCfm', 'greaterThan', param('makeupAir.exhaustCfmThreshold'))),
+    conditions: all('makeup-provided', cond('makeup-matches-exhaust', 'makeupAir.providedCfm', 'greaterThanInclusive', { fact: 'makeupAir.exhaustCfm' })),
+    requires: ['makeupAir.providedCfm', 'makeupAir.exhaustCfm'],
+    measured: 'makeupAir.providedCfm',
+    limit: { fact: 'makeupAir.exhaustCfm' },
+    unit: 'cfm',
+    messages: {
+      pass: 'Make-up air {measured} matches the {limit} exhaust.',
+      fail: 'The dryer exhausts {limit}, over the threshold; make-up air of about the same rate is needed (given: {measured}).',
+      notApplicable: 'The exhaust rate is not over the make-up air threshold.',
+    },
+    remedy: 'makeup-air.provide-makeup-air',
+  },
+];

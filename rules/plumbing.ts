@@ -1,0 +1,140 @@
+import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from './define';
+
+const code = (family: 'IRC' | 'IPC' | 'UPC', section: string, confidence: CitationEntry['confidence']): CitationEntry => ({
+  source: 'plumbing',
+  code: family,
+  section,
+  confidence,
+});
+const local = (sectionParam: string): CitationEntry => ({ source: 'local', sectionParam, confidence: 'V' });
+
+const WATER = 'A leak or overflow here can do serious water damage; use a licensed plumber where the jurisdiction requires one.';
+
+export const plumbingRules: RuleDefinition[] = [
+  {
+    key: 'plumbing.standpipe-height',
+    title: 'Standpipe height above the trap weir',
+    area: 'plumbing',
+    severity: 'fail',
+    // IPC section numbers vary by edition (TRADE.md).
+    citations: [code('IRC', 'P2706.2', 'S'), code('IPC', '802.4', 'S'), code('UPC', '804.1', 'S')],
+    applicability: null,
+    conditions: all(
+      'standpipe-in-range',
+      cond('standpipe-min', 'plumbing.standpipeHeightIn', 'greaterThanInclusive', param('plumbing.standpipeMinIn')),
+      cond('standpipe-max', 'plumbing.standpipeHeightIn', 'lessThanInclusive', param('plumbing.standpipeMaxIn')),
+    ),
+    requires: ['plumbing.standpipeHeightIn'],
+    measured: 'plumbing.standpipeHeightIn',
+    limit: { min: param('plumbing.standpipeMinIn'), max: param('plumbing.standpipeMaxIn') },
+    unit: 'length',
+    messages: {
+      pass: 'The standpipe stands {measured} above its trap weir ({limit}).',
+      fail: `The standpipe stands {measured} above its trap weir; the adopted plumbing code wants {limit}. Too short overflows, too tall can siphon. ${WATER}`,
+      notApplicable: 'No standpipe.',
+    },
+    remedy: 'plumbing.standpipe-height',
+  },
+  {
+    key: 'plumbing.trap-size',
+    title: 'Washer trap size',
+    area: 'plumbing',
+    severity: 'fail',
+    // From memory (TRADE.md M).
+    citations: [code('IRC', 'Table P3201.7', 'M'), code('IPC', 'Table 709.1', 'M'), code('UPC', 'Table 702.1', 'M')],
+    applicability: null,
+    conditions: all('trap-big-enough', cond('trap-at-least-minimum', 'plumbing.trapSizeIn', 'greaterThanInclusive', param('plumbing.washerTrapMinIn'))),
+    requires: ['plumbing.trapSizeIn'],
+    measured: 'plumbing.trapSizeIn',
+    limit: param('plumbing.washerTrapMinIn'),
+    unit: 'length',
+    lengthStyle: 'inches',
+    messages: {
+      pass: 'The washer trap is {measured} ({limit} minimum).',
+      fail: `The washer trap is {measured}; a clothes washer needs at least {limit}. ${WATER}`,
+      notApplicable: 'No washer trap.',
+    },
+    remedy: 'plumbing.trap-size',
+  },
+  {
+    key: 'plumbing.drain-pan',
+    title: 'Drain pan under the washer',
+    area: 'plumbing',
+    severity: 'fail',
+    citations: [local('$.plumbing.drainPanSection')],
+    applicability: all('pan-required', cond('jurisdiction-requires-pan', 'plumbing.drainPanRequired', 'equal', true)),
+    conditions: all(
+      'pan-installed-and-drained',
+      cond('pan-present', 'plumbing.drainPanPresent', 'equal', true),
+      cond('pan-drained', 'plumbing.drainPanDrained', 'equal', true),
+    ),
+    requires: ['plumbing.drainPanPresent', 'plumbing.drainPanDrained'],
+    measured: 'plumbing.drainPanPresent',
+    limit: true,
+    unit: 'boolean',
+    messages: {
+      pass: 'A drain pan is installed and drained to a receptor or floor drain.',
+      fail: `A local amendment requires a drain pan under the washer here, drained to a receptor or floor drain. ${WATER}`,
+      notApplicable: 'The adopted codes and local amendments do not require a washer pan here.',
+    },
+    remedy: 'plumbing.drain-pan',
+  },
+  {
+    key: 'plumbing.valves-accessible',
+    title: 'Supply valves accessible',
+    area: 'plumbing',
+    severity: 'caution',
+    citations: [manufacturer('S')],
+    applicability: null,
+    conditions: all('accessible', cond('valves-reachable', 'plumbing.valvesAccessible', 'equal', true)),
+    requires: ['plumbing.valvesAccessible'],
+    measured: 'plumbing.valvesAccessible',
+    limit: true,
+    unit: 'boolean',
+    messages: {
+      pass: 'The supply valves can be reached with the appliances in place.',
+      fail: `The supply valves cannot be reached with the appliances in place; a burst hose then runs until someone pulls the washer out. ${WATER}`,
+      notApplicable: 'No water supply.',
+    },
+    remedy: 'plumbing.valve-access',
+  },
+  {
+    key: 'plumbing.hammer-arrestors',
+    title: 'Water-hammer arrestors',
+    area: 'plumbing',
+    severity: 'caution',
+    // From memory: quick-closing washer valves call for water-hammer control.
+    citations: [code('IRC', 'P2903.5', 'M'), code('IPC', '604.9', 'M'), code('UPC', '609.10', 'M')],
+    applicability: null,
+    conditions: all('arrestors', cond('arrestors-installed', 'plumbing.hammerArrestors', 'equal', true)),
+    requires: ['plumbing.hammerArrestors'],
+    measured: 'plumbing.hammerArrestors',
+    limit: true,
+    unit: 'boolean',
+    messages: {
+      pass: 'Water-hammer arrestors are installed at the washer supply.',
+      fail: `The washer's quick-closing valves call for water-hammer arrestors at its supply. ${WATER}`,
+      notApplicable: 'No water supply.',
+    },
+    remedy: 'plumbing.hammer-arrestors',
+  },
+  {
+    key: 'plumbing.leak-shutoff',
+    title: 'Automatic leak shut-off',
+    area: 'plumbing',
+    severity: 'fail',
+    citations: [local('$.plumbing.leakShutoffSection')],
+    applicability: all('shutoff-required', cond('jurisdiction-requires-shutoff', 'plumbing.leakShutoffRequired', 'equal', true)),
+    conditions: all('shutoff', cond('shutoff-installed', 'plumbing.leakShutoff', 'equal', true)),
+    requires: ['plumbing.leakShutoff'],
+    measured: 'plumbing.leakShutoff',
+    limit: true,
+    unit: 'boolean',
+    messages: {
+      pass: 'An automatic leak detector with shut-off valve is installed.',
+      fail: `A local amendment requires an automatic leak shut-off here. ${WATER}`,
+      notApplicable: 'The adopted codes and local amendments do not require a leak shut-off here.',
+    },
+    remedy: 'plumbing.leak-shutoff',
+  },
+];
