@@ -1,5 +1,6 @@
 // The demo scenario: invented companies, people and jurisdictions for local use and tests only.
 import type { NewJurisdiction, Role } from './types';
+import type { RuleSetOverrides } from '@/rules';
 
 export const DEMO_EMAIL_DOMAIN = 'nookpass.demo';
 
@@ -39,6 +40,27 @@ export const demoJurisdictions: (NewJurisdiction & { slug: string })[] = [
     is_demo: true,
   },
 ];
+
+/** Local amendments recorded in each demo jurisdiction's first rule set version. */
+export const demoAmendments: Record<string, { changelog: string; overrides: RuleSetOverrides }> = {
+  'demo-county': {
+    changelog: 'Version 1 (demo): the 2018 I-codes and NEC 2017 as published, no local amendments.',
+    overrides: {},
+  },
+  'demo-city': {
+    changelog:
+      'Version 1 (demo): IRC 2021, NEC 2023 and UPC 2021. Local amendment DC-406.3: a washer over finished space needs a drain pan drained to an approved receptor.',
+    overrides: { parameters: { plumbing: { drainPanPolicy: 'over-finished-space', drainPanSection: 'DC-406.3 (local amendment, demo)' } } },
+  },
+};
+
+/** Demo projects: which company, where, and which invented plan. */
+export const demoProjects = [
+  { organization: 'closet-works', jurisdiction: 'demo-county', plan: 'demo-hall-closet', name: 'Demo — hall closet pair, 12 Example Lane', siteAddress: '12 Example Lane, Demo County (invented)' },
+  { organization: 'closet-works', jurisdiction: 'demo-county', plan: 'demo-long-exhaust', name: 'Demo — bypass-door closet, 48 Sample Road', siteAddress: '48 Sample Road, Demo County (invented)' },
+  { organization: 'closet-works', jurisdiction: 'demo-city', plan: 'demo-gas-walk-in', name: 'Demo — walk-in closet gas dryer, 7 Placeholder Court', siteAddress: '7 Placeholder Court, Demo City (invented)' },
+  { organization: 'second-company', jurisdiction: 'demo-city', plan: 'demo-hall-closet', name: 'Demo — second company hall closet, 300 Fictional Ave', siteAddress: '300 Fictional Ave, Demo City (invented)' },
+] as const;
 
 export type DemoUser = {
   email: string;

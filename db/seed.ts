@@ -1,6 +1,11 @@
 import bcrypt from 'bcryptjs';
 import { createDb, type DB } from './index';
-import { demoJurisdictions, demoOrganizations, demoPassword, demoUsers } from './demo';
+import { demoAmendments, demoJurisdictions, demoOrganizations, demoPassword, demoProjects, demoUsers } from './demo';
+import { demoPlans } from './demo-plans';
+import { toJurisdiction } from './jurisdictions';
+import { createPublishedVersion } from './rule-sets';
+import { parsePlan } from '@/lib/plan';
+import { buildRuleSet } from '@/rules';
 
 /** Seeds the invented demo scenario. Idempotent: a second run changes no rows. */
 export async function seedDemo(db: DB): Promise<void> {
@@ -64,6 +69,58 @@ export async function seedDemo(db: DB): Promise<void> {
         .execute();
     }
   });
+
+  const admin = await db.selectFrom('users').select('id').where('email', '=', 'admin@nookpass.demo').executeTakeFirstOrThrow();
+  for (const j of demoJurisdictions) {
+    const row = await db.selectFrom('jurisdictions').selectAll().where('slug', '=', j.slug).executeTakeFirstOrThrow();
+    const hasAny = await db.selectFrom('rule_sets').select('id').where('jurisdiction_id', '=', row.id).executeTakeFirst();
+    if (hasAny) continue; // an admin's later versions are left alone
+    const amendment = demoAmendments[j.slug];
+    const built = buildRuleSet(toJurisdiction(row).editions, amendment?.overrides);
+    await createPublishedVersion(db, {
+      jurisdictionId: row.id,
+      parameters: built.parameters,
+      rules: built.rules,
+      changelog: amendment?.changelog ?? 'Version 1 (demo).',
+      actorUserId: admin.id,
+    });
+  }
+
+  for (const p of demoProjects) {
+    const org = demoOrganizations.find((o) => o.key === p.organization)!;
+    await db.transaction().execute(async (trx) => {
+      const orgRow = await trx.selectFrom('organizations').select('id').where('name', '=', org.name).executeTakeFirstOrThrow();
+      const exists = await trx.selectFrom('projects').select('id').where('organization_id', '=', orgRow.id).where('name', '=', p.name).executeTakeFirst();
+      if (exists) return;
+      const jur = await trx.selectFrom('jurisdictions').select('id').where('slug', '=', p.jurisdiction).executeTakeFirstOrThrow();
+      const author = await trx
+        .selectFrom('users')
+        .select('id')
+        .where('organization_id', '=', orgRow.id)
+        .where('role', '=', 'installer')
+        .orderBy('email')
+        .executeTakeFirstOrThrow();
+      const plan = demoPlans.find((d) => d.slug === p.plan)!.plan;
+      const parsed = parsePlan(plan);
+      if (!parsed.ok) throw new Error(`demo plan ${p.plan} does not parse: ${JSON.stringify(parsed.errors)}`);
+      const project = await trx
+        .insertInto('projects')
+        .values({ organization_id: orgRow.id, jurisdiction_id: jur.id, name: p.name, site_address: p.siteAddress, is_demo: true, created_by: author.id })
+        .returning('id')
+        .executeTakeFirstOrThrow();
+      await trx
+        .insertInto('plan_revisions')
+        .values({
+          project_id: project.id,
+          number: 1,
+          plan: JSON.stringify(plan),
+          canonical: JSON.stringify(parsed.plan),
+          change_summary: 'First plan (demo)',
+          created_by: author.id,
+        })
+        .execute();
+    });
+  }
 }
 
 async function main() {

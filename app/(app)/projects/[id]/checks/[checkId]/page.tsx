@@ -1,0 +1,88 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { getDb } from '@/db';
+import { getCheck, previousCheck } from '@/db/checks';
+import { citationText } from '@/components/checks/areas';
+import { FindingsList } from '@/components/checks/findings-list';
+import { RunCheckButton } from '@/components/checks/run-check-button';
+import { SummaryCounts } from '@/components/checks/summary-counts';
+import { ProjectHeader } from '@/components/projects/project-header';
+import { SafetyNotice } from '@/components/ui/safety-notice';
+import { statusLabel } from '@/components/ui/status-badge';
+import { compareFindings } from '@/lib/checks/compare';
+import { loadProjectPage } from '@/lib/projects/project-page';
+
+export const metadata: Metadata = { title: 'Check' };
+
+export default async function CheckPage({ params }: { params: Promise<{ id: string; checkId: string }> }) {
+  const { id, checkId } = await params;
+  const { user, project, published } = await loadProjectPage(id, `/projects/${id}/checks/${checkId}`);
+  const db = getDb();
+  const check = await getCheck(db, user, checkId);
+  if (!check || check.projectId !== project.id) notFound();
+  const prev = await previousCheck(db, check);
+  const changes = prev ? compareFindings(prev.findings, check.findings) : [];
+  const newer = published && published.version > check.ruleSet.version;
+  const cited = [...new Set(check.findings.filter((f) => f.status !== 'not-applicable').map((f) => citationText(f.citation)))];
+
+  return (
+    <>
+      <ProjectHeader project={project} current="/checks" />
+      <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h2 className="text-xl font-bold">
+            Check of plan revision {check.planRevision.number}
+          </h2>
+          <p className="text-sm text-ink-soft" data-testid="check-meta">
+            {check.createdAt.toLocaleString()} · {project.jurisdiction.name} rule set version {check.ruleSet.version} · run by {check.createdBy.name ?? 'former user'}
+          </p>
+        </div>
+        <div className="no-print flex gap-2">
+          <Link href={`/projects/${project.id}/plan`} className="btn-secondary">Edit plan</Link>
+          <Link href={`/projects/${project.id}/drawing`} className="btn-secondary">Drawing</Link>
+          {user.role === 'installer' && <RunCheckButton projectId={project.id} label="Run again" />}
+        </div>
+      </div>
+
+      {newer && (
+        <div role="status" className="card mb-4 border-brass p-4" data-testid="newer-rules">
+          <p className="font-semibold">Version {published!.version} of the rules is published; this check used version {check.ruleSet.version} and stays as it was.</p>
+          <p className="mt-1 text-sm text-ink-soft">{published!.changelog}</p>
+          {user.role === 'installer' && <div className="mt-3"><RunCheckButton projectId={project.id} label={`Re-run against version ${published!.version}`} /></div>}
+        </div>
+      )}
+
+      <SummaryCounts summary={check.summary} />
+
+      <div className="mt-4"><SafetyNotice /></div>
+
+      {prev && (
+        <section className="card mt-6 p-5" aria-labelledby="since-h" data-testid="changes-since">
+          <h2 id="since-h" className="font-bold">Since the previous check ({prev.createdAt.toLocaleString()}, revision {prev.planRevision.number}, rules v{prev.ruleSet.version})</h2>
+          {changes.length === 0 ? (
+            <p className="mt-2 text-sm text-ink-soft">No finding changed status.</p>
+          ) : (
+            <ul className="mt-2 space-y-1 text-sm">
+              {changes.map((c) => (
+                <li key={c.ruleKey}>
+                  <span className="font-semibold">{c.title}</span>: {c.from ? statusLabel[c.from] : 'new rule'} → {c.to ? statusLabel[c.to] : 'rule removed'}
+                </li>
+              ))}
+            </ul>
+          )}
+        </section>
+      )}
+
+      <section className="mt-6" aria-labelledby="findings-h">
+        <h2 id="findings-h" className="sr-only">Findings</h2>
+        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} />
+      </section>
+
+      <section className="card mt-6 p-5 text-sm" aria-labelledby="cited-h">
+        <h2 id="cited-h" className="font-bold">Sections checked</h2>
+        <p className="mt-2 font-mono text-xs leading-relaxed">{cited.join(' · ')}</p>
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,60 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { getDb } from '@/db';
+import { getPlanRevision } from '@/db/plan-revisions';
+import { PlanEditor } from '@/components/plan-editor/plan-editor';
+import { ProjectHeader } from '@/components/projects/project-header';
+import { SafetyNotice } from '@/components/ui/safety-notice';
+import { defaultParameters } from '@/lib/params';
+import type { PlanInput } from '@/lib/plan';
+import { loadProjectPage } from '@/lib/projects/project-page';
+import { getRuleSetById } from '@/db/rule-sets';
+
+export const metadata: Metadata = { title: 'Plan' };
+
+export default async function PlanPage({ params, searchParams }: { params: Promise<{ id: string }>; searchParams: Promise<{ revision?: string }> }) {
+  const { id } = await params;
+  const { revision: revParam } = await searchParams;
+  const { user, project, published } = await loadProjectPage(id, `/projects/${id}/plan`);
+  const db = getDb();
+  const wanted = revParam ? Number(revParam) : 'latest';
+  if (wanted !== 'latest' && (!Number.isInteger(wanted) || wanted < 1)) notFound();
+  const [revision, latest] = await Promise.all([getPlanRevision(db, user, id, wanted), getPlanRevision(db, user, id, 'latest')]);
+  if (wanted !== 'latest' && !revision) notFound();
+  const rules = published ? await getRuleSetById(db, published.id) : null;
+  const jurisdictionRow = await db.selectFrom('jurisdictions').selectAll().where('id', '=', project.jurisdiction.id).executeTakeFirstOrThrow();
+  // The live route totals use the published parameters; before a first publication, the model-code defaults.
+  const parameters =
+    rules?.parameters ??
+    defaultParameters({
+      building: jurisdictionRow.building_edition,
+      electrical: jurisdictionRow.electrical_edition,
+      plumbing: jurisdictionRow.plumbing_edition,
+      plumbingFamily: jurisdictionRow.plumbing_family,
+      mechanical: jurisdictionRow.mechanical_edition,
+      fuelGas: jurisdictionRow.fuel_gas_edition,
+    });
+  const viewingOld = revision && latest && revision.number !== latest.number;
+
+  return (
+    <>
+      <ProjectHeader project={project} current="/plan" />
+      {viewingOld && (
+        <p role="status" className="mb-4 rounded-md border border-brass bg-brass-soft/50 px-4 py-3 text-sm">
+          You are looking at revision {revision!.number}. Saving makes it revision {latest!.number + 1}; revision {latest!.number} stays as it is.{' '}
+          <Link href={`/projects/${id}/plan`} className="underline">Open the latest instead</Link>
+        </p>
+      )}
+      {user.role !== 'installer' && <p className="mb-4 text-sm text-ink-soft">Admins can read plans; only the company’s installers save them.</p>}
+      <div className="mb-5"><SafetyNotice compact /></div>
+      <PlanEditor
+        key={revision?.id ?? 'new'}
+        projectId={project.id}
+        initialPlan={(revision?.plan as PlanInput) ?? null}
+        baseRevision={latest?.number ?? null}
+        params={parameters}
+      />
+    </>
+  );
+}

@@ -1,0 +1,14 @@
+import { getDb } from '@/db';
+import { getCheck } from '@/db/checks';
+import { requireUser } from '@/lib/auth/session';
+import { NotFoundError } from '@/lib/errors';
+import { json, route } from '@/lib/http';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export const GET = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer', 'admin']);
+  const check = await getCheck(getDb(), user, (await params).id);
+  if (!check) throw new NotFoundError('No such check, or its project belongs to another company.');
+  return json(check);
+});

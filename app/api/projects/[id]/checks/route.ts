@@ -1,0 +1,23 @@
+import { z } from 'zod';
+import { getDb } from '@/db';
+import { listChecks } from '@/db/checks';
+import { requireUser } from '@/lib/auth/session';
+import { runCheck } from '@/lib/checks/run-check';
+import { json, parseBody, route } from '@/lib/http';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+const runSchema = z.strictObject({
+  revision: z.number().int().positive().optional().describe('Plan revision to check; the latest when left out.'),
+});
+
+export const GET = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer', 'admin']);
+  return json({ checks: await listChecks(getDb(), user, (await params).id) });
+});
+
+export const POST = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer']);
+  const { revision } = await parseBody(request, runSchema);
+  return json(await runCheck(getDb(), user, (await params).id, revision), 201);
+});

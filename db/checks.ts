@@ -1,0 +1,142 @@
+import type { DB } from './index';
+import type { CheckOutcome } from './types';
+import type { AppUser } from '@/lib/auth/roles';
+import type { Evaluation, EvaluationSummary, Finding } from '@/lib/engine';
+import { getProject } from './projects';
+
+export type StoredCheck = {
+  id: string;
+  projectId: string;
+  planRevision: { id: string; number: number };
+  ruleSet: { id: string; version: number; jurisdiction: string; changelog: string; status: string };
+  inputs: { plan: unknown; canonical: unknown };
+  facts: Record<string, unknown>;
+  findings: Finding[];
+  summary: EvaluationSummary;
+  outcome: CheckOutcome;
+  durationMs: number;
+  createdBy: { id: string | null; name: string | null };
+  createdAt: Date;
+};
+
+export type CheckListItem = Omit<StoredCheck, 'inputs' | 'facts' | 'findings'>;
+
+export function outcomeOf(summary: EvaluationSummary): CheckOutcome {
+  if (summary.fail > 0) return 'fail';
+  if (summary.needsInfo > 0) return 'incomplete';
+  return 'pass';
+}
+
+function checkQuery(db: DB) {
+  return db
+    .selectFrom('checks as c')
+    .innerJoin('plan_revisions as r', 'r.id', 'c.plan_revision_id')
+    .innerJoin('rule_sets as s', 's.id', 'c.rule_set_id')
+    .innerJoin('jurisdictions as j', 'j.id', 's.jurisdiction_id')
+    .leftJoin('users as u', 'u.id', 'c.created_by')
+    .select([
+      'c.id', 'c.project_id', 'c.inputs', 'c.facts', 'c.findings', 'c.summary', 'c.outcome', 'c.duration_ms', 'c.created_by', 'c.created_at',
+      'r.id as revision_id', 'r.number as revision_number',
+      's.id as rule_set_id', 's.version as rule_set_version', 's.changelog as rule_set_changelog', 's.status as rule_set_status',
+      'j.slug as jurisdiction_slug', 'u.name as created_by_name',
+    ]);
+}
+
+type Row = Awaited<ReturnType<ReturnType<typeof checkQuery>['executeTakeFirstOrThrow']>>;
+
+function toCheck(r: Row): StoredCheck {
+  return {
+    id: r.id,
+    projectId: r.project_id,
+    planRevision: { id: r.revision_id, number: r.revision_number },
+    ruleSet: { id: r.rule_set_id, version: r.rule_set_version, jurisdiction: r.jurisdiction_slug, changelog: r.rule_set_changelog, status: r.rule_set_status },
+    inputs: r.inputs as StoredCheck['inputs'],
+    facts: r.facts as Record<string, unknown>,
+    findings: r.findings as Finding[],
+    summary: r.summary as EvaluationSummary,
+    outcome: r.outcome,
+    durationMs: r.duration_ms,
+    createdBy: { id: r.created_by, name: r.created_by_name },
+    createdAt: r.created_at,
+  };
+}
+
+/** Stores a check whole (inputs, facts, findings); it is never recomputed in place. */
+export async function insertCheck(
+  db: DB,
+  input: {
+    user: AppUser;
+    projectId: string;
+    planRevisionId: string;
+    ruleSetId: string;
+    inputs: StoredCheck['inputs'];
+    evaluation: Evaluation;
+    durationMs: number;
+  },
+): Promise<StoredCheck> {
+  const id = await db.transaction().execute(async (trx) => {
+    const row = await trx
+      .insertInto('checks')
+      .values({
+        project_id: input.projectId,
+        plan_revision_id: input.planRevisionId,
+        rule_set_id: input.ruleSetId,
+        inputs: JSON.stringify(input.inputs),
+        facts: JSON.stringify(input.evaluation.facts),
+        findings: JSON.stringify(input.evaluation.findings),
+        summary: JSON.stringify(input.evaluation.summary),
+        outcome: outcomeOf(input.evaluation.summary),
+        duration_ms: Math.round(input.durationMs),
+        created_by: input.user.id,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await trx.updateTable('projects').set({ updated_at: new Date() }).where('id', '=', input.projectId).execute();
+    await trx
+      .insertInto('audit_log')
+      .values({
+        actor_user_id: input.user.id,
+        action: 'check.run',
+        entity_type: 'check',
+        entity_id: row.id,
+        details: JSON.stringify({ projectId: input.projectId, ruleSetId: input.ruleSetId, summary: input.evaluation.summary }),
+      })
+      .execute();
+    return row.id;
+  });
+  return (await getCheckById(db, id))!;
+}
+
+async function getCheckById(db: DB, id: string): Promise<StoredCheck | null> {
+  const row = await checkQuery(db).where('c.id', '=', id).executeTakeFirst();
+  return row ? toCheck(row) : null;
+}
+
+export async function listChecks(db: DB, user: AppUser, projectId: string): Promise<CheckListItem[]> {
+  const project = await getProject(db, user, projectId);
+  const rows = await checkQuery(db).where('c.project_id', '=', project.id).orderBy('c.created_at', 'desc').execute();
+  return rows.map((r) => {
+    const { inputs: _i, facts: _f, findings: _g, ...rest } = toCheck(r);
+    return rest;
+  });
+}
+
+/** One check, if the user may see its project. */
+export async function getCheck(db: DB, user: AppUser, checkId: string): Promise<StoredCheck | null> {
+  if (!/^[0-9a-f-]{36}$/i.test(checkId)) return null;
+  const check = await getCheckById(db, checkId);
+  if (!check) return null;
+  await getProject(db, user, check.projectId);
+  return check;
+}
+
+/** The check run just before this one on the same project, for "what changed since". */
+export async function previousCheck(db: DB, check: StoredCheck): Promise<StoredCheck | null> {
+  const row = await checkQuery(db)
+    .where('c.project_id', '=', check.projectId)
+    .where('c.created_at', '<', check.createdAt)
+    .orderBy('c.created_at', 'desc')
+    .limit(1)
+    .executeTakeFirst();
+  return row ? toCheck(row) : null;
+}
