@@ -18,7 +18,9 @@ type Need = <T>(path: string, value: T | null | undefined) => T;
 
 export function hingesRequired(heightIn: number, params: RuleSetParameters): number {
   const chart = [...params.doors.hingeCountChart].sort((a, b) => a.maxDoorHeightIn - b.maxDoorHeightIn);
-  const row = chart.find((r) => heightIn <= r.maxDoorHeightIn);
+  // Chart heights are metric values held to 12 significant digits; a nano-inch of slack keeps
+  // a 2000 mm door on the 2000 mm row.
+  const row = chart.find((r) => heightIn <= r.maxDoorHeightIn + 1e-9);
   if (row) return row.hinges;
   // Past the chart, one more hinge per step of the chart's last interval (500 mm in the makers' charts).
   const last = chart[chart.length - 1];
