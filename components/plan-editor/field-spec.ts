@@ -8,7 +8,7 @@ import {
   spaceKinds,
 } from '@/lib/plan';
 
-export type FieldKind = 'length' | 'area' | 'number' | 'bool' | 'enum' | 'int-enum' | 'length-list';
+export type FieldKind = 'length' | 'area' | 'number' | 'bool' | 'enum' | 'int-enum' | 'length-list' | 'presence';
 
 export type FieldSpec = {
   /** Path inside the plan (or inside one list item for list fields). */
@@ -19,7 +19,19 @@ export type FieldSpec = {
   optionLabels?: Record<string, string>;
   hint?: string;
   unit?: string;
+  /** For 'presence' fields: the optional group of the plan this says is there, absent (null) or not known. */
+  group?: string;
+  /** For length fields that may be null: the word that means "none" (e.g. the maker gives no maximum). */
+  noneWord?: string;
 };
+
+const presence = (group: string, label: string, hint?: string): FieldSpec => ({
+  path: `_has.${group.replace(/\./g, '_')}`,
+  label,
+  kind: 'presence',
+  group,
+  hint,
+});
 
 export type ListSpec = {
   path: string;
@@ -99,6 +111,7 @@ export const sections: SectionSpec[] = [
       { path: 'enclosure.depthMeasured', label: 'Sizes measured', kind: 'enum', options: ['outside', 'inside'], optionLabels: { outside: 'outside (panels included)', inside: 'inside clear' } },
       { path: 'enclosure.panelThickness', label: 'Panel thickness', kind: 'length' },
       { path: 'enclosure.openingWidth', label: 'Clear opening width', kind: 'length', hint: 'Only if a face frame narrows the opening.' },
+      presence('enclosure.toeKick', 'Toe kick or sill across the opening'),
       { path: 'enclosure.toeKick.height', label: 'Toe kick height', kind: 'length' },
       { path: 'enclosure.toeKick.removable', label: 'Toe kick removable', kind: 'bool' },
     ],
@@ -111,7 +124,8 @@ export const sections: SectionSpec[] = [
       { path: 'dryer.fuel', label: 'Fuel', kind: 'enum', options: ['electric', 'gas'] },
       ...applianceFields('dryer'),
       { path: 'dryer.exhaustCfm', label: 'Exhaust rate', kind: 'number', unit: 'cfm' },
-      { path: 'dryer.maxDuctLength', label: 'Maker’s maximum duct length', kind: 'length', hint: 'From the installation instructions, if they give one.' },
+      { path: 'dryer.maxDuctLength', label: 'Maker’s maximum duct length', kind: 'length', noneWord: 'none', hint: 'From the installation instructions; type “none” if they give no maximum.' },
+      presence('dryer.closetVent', 'Maker’s closet-vent figures'),
       { path: 'dryer.closetVent.top', label: 'Maker’s closet vent, top', kind: 'area' },
       { path: 'dryer.closetVent.bottom', label: 'Maker’s closet vent, bottom', kind: 'area' },
     ],
@@ -193,6 +207,7 @@ export const sections: SectionSpec[] = [
     fields: [
       { path: 'plumbing.standpipeHeight', label: 'Standpipe height above trap weir', kind: 'length' },
       { path: 'plumbing.trapSize', label: 'Trap size', kind: 'length' },
+      presence('plumbing.drainPan', 'Drain pan details'),
       { path: 'plumbing.drainPan.present', label: 'Drain pan under the washer', kind: 'bool' },
       { path: 'plumbing.drainPan.drainsTo', label: 'Pan drains to', kind: 'enum', options: drainDestinations, optionLabels: labels(drainDestinations) },
       { path: 'plumbing.valvesAccessible', label: 'Supply valves accessible', kind: 'bool' },
@@ -225,7 +240,7 @@ export const sections: SectionSpec[] = [
           { path: 'width', label: 'Width', kind: 'length' },
           { path: 'height', label: 'Height', kind: 'length' },
           { path: 'thickness', label: 'Thickness', kind: 'length' },
-          { path: 'hinges', label: 'Hinge positions from the bottom edge', kind: 'length-list', hint: 'Comma-separated, e.g. 3, 40, 77' },
+          { path: 'hinges', label: 'Hinge positions from the bottom edge', kind: 'length-list', noneWord: 'none', hint: 'Comma-separated, e.g. 3, 40, 77; “none” for a door without hinges.' },
         ],
         newItem: { kind: 'hinged', width: '', height: '', thickness: '3/4', hinges: '' },
       },

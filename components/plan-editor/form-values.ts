@@ -17,6 +17,8 @@ function setAt(obj: any, path: string, value: unknown) {
 }
 
 function toFormValue(spec: FieldSpec, v: unknown): string {
+  if (spec.kind === 'presence') return v === null ? 'none' : v === undefined ? '' : 'present';
+  if (spec.noneWord && (v === null || (Array.isArray(v) && v.length === 0))) return spec.noneWord;
   if (v === undefined || v === null) return '';
   if (spec.kind === 'bool') return v === true ? 'yes' : v === false ? 'no' : '';
   if (spec.kind === 'length-list') return Array.isArray(v) ? v.map(String).join(', ') : String(v);
@@ -27,6 +29,7 @@ function fromFormValue(spec: FieldSpec, v: unknown): unknown {
   if (typeof v !== 'string') return v === '' ? undefined : v;
   const text = v.trim();
   if (text === '') return undefined;
+  if (spec.noneWord && text.toLowerCase() === spec.noneWord) return spec.kind === 'length-list' ? [] : null;
   switch (spec.kind) {
     case 'bool':
       return text === 'yes' ? true : text === 'no' ? false : text;
@@ -66,7 +69,7 @@ export function planToForm(plan: Partial<PlanInput> | null | undefined): FormVal
   const values: FormValues = {};
   for (const section of sections) {
     for (const f of section.fields) {
-      let v = getAt(plan, f.path);
+      let v = f.kind === 'presence' ? getAt(plan, f.group!) : getAt(plan, f.path);
       if (f.path === 'exhaust.boosterFan.kind' && plan?.exhaust && plan.exhaust.boosterFan === null) v = 'none';
       setAt(values, f.path, toFormValue(f, v));
     }
@@ -101,6 +104,7 @@ export function formToPlan(values: FormValues): PlanInput {
   const plan: any = {};
   for (const section of sections) {
     for (const f of section.fields) {
+      if (f.kind === 'presence') continue;
       const v = fromFormValue(f, getAt(values, f.path));
       if (v !== undefined) setAt(plan, f.path, v);
     }
@@ -113,6 +117,15 @@ export function formToPlan(values: FormValues): PlanInput {
   if (Array.isArray(run) && run.length > 0) setAt(plan, 'exhaust.run', run.map((i) => itemFromForm(runItemFields, i)));
 
   const pruned = prune(plan);
+  // "Not there" (null) and "there, details to come" ({}) are different answers from "not known yet".
+  for (const section of sections) {
+    for (const f of section.fields) {
+      if (f.kind !== 'presence') continue;
+      const answer = getAt(values, f.path);
+      if (answer === 'none') setAt(pruned, f.group!, null);
+      else if (answer === 'present' && getAt(pruned, f.group!) == null) setAt(pruned, f.group!, {});
+    }
+  }
   if (pruned.exhaust?.boosterFan?.kind === 'none') pruned.exhaust.boosterFan = null;
   // An electric dryer has no gas supply; a gas dryer's gas section is kept even when blank.
   if (pruned.dryer?.fuel === 'gas') pruned.gas = pruned.gas ?? {};

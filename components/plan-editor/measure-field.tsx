@@ -37,7 +37,15 @@ export function PlanField({ spec, name }: { spec: FieldSpec; name: string }) {
   const common = { id, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy, ...register(name) };
 
   let control: React.ReactNode;
-  if (spec.kind === 'bool') {
+  if (spec.kind === 'presence') {
+    control = (
+      <select {...common} className="field-input">
+        <option value="">— not known yet</option>
+        <option value="present">Yes, there is one</option>
+        <option value="none">None</option>
+      </select>
+    );
+  } else if (spec.kind === 'bool') {
     control = (
       <select {...common} className="field-input">
         <option value="">— not known yet</option>
