@@ -213,6 +213,47 @@ function fill(template: string, measured: string | null, limit: string | null): 
   return template.replace(/\{measured\}/g, measured ?? 'not given').replace(/\{limit\}/g, limit ?? 'the limit');
 }
 
+type FindingBase = Omit<Finding, 'status' | 'message' | 'failedCondition' | 'missing' | 'remedy'>;
+
+// Written out field by field: object spread compiles to a slow helper under some transpilers and
+// dominated evaluate()'s own cost.
+function finish(
+  base: FindingBase,
+  status: FindingStatus,
+  message: string,
+  failedCondition: string | null,
+  missing: string[],
+  remedy: string | null,
+): Finding {
+  return {
+    ruleKey: base.ruleKey,
+    title: base.title,
+    area: base.area,
+    status,
+    measured: base.measured,
+    limit: base.limit,
+    unit: base.unit,
+    display: base.display,
+    citation: base.citation,
+    confidence: base.confidence,
+    citationNote: base.citationNote,
+    message,
+    failedCondition,
+    missing,
+    remedy,
+    note: base.note,
+  };
+}
+
+function needsInfoFinding(base: FindingBase, missing: string[], summary: EvaluationSummary): Finding {
+  summary.needsInfo += 1;
+  const message =
+    missing.length > 0
+      ? `Needs: ${missing.map(labelForPath).join('; ')}. Add them to the plan to check this.`
+      : 'Needs more detail in the plan to check this.';
+  return finish(base, 'needs-info', message, null, missing, null);
+}
+
 function missingPaths(facts: string[], values: Facts, missing: Record<string, string[]>): string[] | null {
   const nullFacts = facts.filter((fact) => values[fact] === null || values[fact] === undefined);
   if (nullFacts.length === 0) return null;
@@ -235,6 +276,7 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
   for (const [name, value] of Object.entries(facts)) if (value !== null) engine.addFact(name, value);
 
   const early = new Map<string, string[]>();
+  const missingRequired = new Map<string, string[]>();
   const pendingMain = new Set<string>();
   for (const entry of compiled.rules) {
     const key = entry.rule.key;
@@ -244,7 +286,9 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       continue;
     }
     if (entry.applicability) engine.addRule(entry.applicability);
-    if (!missingPaths(entry.requiredFacts, facts, computed.missing)) {
+    const missingForRule = missingPaths(entry.requiredFacts, facts, computed.missing);
+    if (missingForRule) missingRequired.set(key, missingForRule);
+    else {
       engine.addRule(entry.main);
       pendingMain.add(key);
     }
@@ -257,14 +301,14 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
   }
 
   const summary: EvaluationSummary = { pass: 0, fail: 0, caution: 0, needsInfo: 0, notApplicable: 0 };
-  const findings = compiled.rules.map(({ rule, requiredFacts }): Finding => {
+  const findings = compiled.rules.map(({ rule }): Finding => {
     const measured = rule.measured ? (facts[rule.measured] ?? null) : null;
     const limit = resolveLimit(rule.limit, facts, parameters);
     const shown = {
       measured: display(measured, rule.unit, plan.units, rule.lengthStyle),
       limit: displayLimit(limit, rule.unit, plan.units, rule.lengthStyle),
     };
-    const base = {
+    const base: FindingBase = {
       ruleKey: rule.key,
       title: rule.title,
       area: rule.area,
@@ -277,44 +321,25 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       citationNote: rule.citationNote,
       note: noteFor(rule, ruleSet.jurisdiction),
     };
-    const needsInfo = (missing: string[]): Finding => {
-      summary.needsInfo += 1;
-      const fields = missing.map(labelForPath).join('; ');
-      return {
-        ...base,
-        status: 'needs-info',
-        message: missing.length > 0 ? `Needs: ${fields}. Add them to the plan to check this.` : 'Needs more detail in the plan to check this.',
-        failedCondition: null,
-        missing,
-        remedy: null,
-      };
-    };
-
     const earlyMissing = early.get(rule.key);
-    if (earlyMissing) return needsInfo(earlyMissing);
+    if (earlyMissing) return needsInfoFinding(base, earlyMissing, summary);
     if (rule.applicability && results.get(rule.key + APPLIES)?.result !== true) {
       summary.notApplicable += 1;
-      return { ...base, status: 'not-applicable', message: rule.messages.notApplicable, failedCondition: null, missing: [], remedy: null };
+      return finish(base, 'not-applicable', rule.messages.notApplicable, null, [], null);
     }
-    const missing = missingPaths(requiredFacts, facts, computed.missing);
-    if (missing) return needsInfo(missing);
+    const missing = missingRequired.get(rule.key);
+    if (missing) return needsInfoFinding(base, missing, summary);
 
     const result = results.get(rule.key);
     if (result?.result === true) {
       summary.pass += 1;
-      return { ...base, status: 'pass', message: fill(rule.messages.pass, shown.measured, shown.limit), failedCondition: null, missing: [], remedy: null };
+      return finish(base, 'pass', fill(rule.messages.pass, shown.measured, shown.limit), null, [], null);
     }
     const failedCondition = result ? failedClause(result.conditions as ConditionResult) : null;
     if (rule.severity === 'fail') summary.fail += 1;
     else summary.caution += 1;
-    return {
-      ...base,
-      status: rule.severity,
-      message: fill(rule.messages.fail, shown.measured, shown.limit),
-      failedCondition,
-      missing: [],
-      remedy: computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition }),
-    };
+    const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });
+    return finish(base, rule.severity, fill(rule.messages.fail, shown.measured, shown.limit), failedCondition, [], remedy);
   });
 
   return { ruleSet: { jurisdiction: ruleSet.jurisdiction, version: ruleSet.version }, summary, findings, facts };

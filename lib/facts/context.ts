@@ -15,11 +15,12 @@ export interface FactDefinition {
 }
 
 /**
- * Sums of converted lengths pick up float noise (226.97635000000002). Twelve significant digits,
- * the precision the unit conversions keep, drop it without moving a value off an exact limit.
+ * Sums of converted lengths pick up float noise (226.97635000000002). Only values within 1e-9 in
+ * of a micro-inch are snapped, so exact metric conversions (60 mm = 2.36220472441 in) stay put.
  */
 function trimNoise(value: number): number {
-  return value === 0 || !Number.isFinite(value) ? value : Number(value.toPrecision(12));
+  const snapped = Math.round(value * 1e6) / 1e6;
+  return Math.abs(snapped - value) < 1e-9 ? snapped : value;
 }
 
 type Need = <T>(path: string, value: T | null | undefined) => T;
@@ -34,25 +35,29 @@ export class FactContext {
     readonly params: RuleSetParameters,
   ) {}
 
+  private pending: string[] = [];
+  // One `need` per context: a closure made per fact costs more than the fact itself.
+  private readonly need: Need = (path, value) => {
+    if (value === undefined || value === null) this.pending.push(path);
+    return value as never;
+  };
+
   /**
    * Computes a fact. `need` records a missing plan field and lets the computation go on, so one
    * fact can name every field it lacks; any missing field makes the fact null.
    */
   fact(name: string, compute: (need: Need) => FactValue): void {
-    const missing: string[] = [];
-    const need: Need = (path, value) => {
-      if (value === undefined || value === null) missing.push(path);
-      return value as never;
-    };
+    this.pending = [];
     let value: FactValue = null;
     try {
-      value = compute(need);
+      value = compute(this.need);
     } catch (error) {
-      if (missing.length === 0) throw error;
+      if (this.pending.length === 0) throw error;
     }
+    const missing = this.pending;
     if (missing.length > 0) {
       this.values[name] = null;
-      this.missing[name] = [...new Set(missing)];
+      this.missing[name] = missing.length > 1 ? [...new Set(missing)] : missing;
     } else {
       this.values[name] = typeof value === 'number' ? trimNoise(value) : (value ?? null);
       if (value === null || value === undefined) this.missing[name] = [];
