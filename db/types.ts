@@ -148,6 +148,63 @@ export interface ChecksTable {
   created_at: CreatedAt;
 }
 
+export interface AttachmentsTable {
+  id: Generated<string>;
+  project_id: string;
+  kind: 'photo' | 'document';
+  filename: string;
+  content_type: string;
+  byte_size: number;
+  sha256: string;
+  storage_key: string;
+  thumbnail_key: string | null;
+  width: number | null;
+  height: number | null;
+  caption: Generated<string>;
+  created_by: string | null;
+  created_at: CreatedAt;
+  deleted_at: Timestamp | null;
+}
+
+export interface ReportsTable {
+  id: Generated<string>;
+  check_id: string;
+  code: string;
+  sha256: string;
+  byte_size: number;
+  page_count: number;
+  storage_key: string;
+  attachment_ids: Json<string[]>;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
+export interface ReportSendsTable {
+  id: Generated<string>;
+  report_id: string;
+  project_id: string;
+  jurisdiction_id: string;
+  to_email: string;
+  status: 'sent' | 'failed';
+  error: string | null;
+  message_id: string | null;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
+export type ReviewOutcome = 'approved' | 'corrections-needed';
+
+export interface InspectionReviewsTable {
+  id: Generated<string>;
+  report_id: string;
+  /** The inspector who recorded the outcome. */
+  created_by: string | null;
+  outcome: ReviewOutcome;
+  comment: Generated<string>;
+  finding_comments: Json<Record<string, string>>;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -160,6 +217,10 @@ export interface Database {
   projects: ProjectsTable;
   plan_revisions: PlanRevisionsTable;
   checks: ChecksTable;
+  attachments: AttachmentsTable;
+  reports: ReportsTable;
+  report_sends: ReportSendsTable;
+  inspection_reviews: InspectionReviewsTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

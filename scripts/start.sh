@@ -21,6 +21,7 @@ export NOOKPASS_DEMO=1
 npx tsx db/migrate.ts
 npx tsx db/seed.ts
 build_if_needed
+start_fakes
 
 cleanup() {
   trap - INT TERM EXIT
@@ -29,6 +30,7 @@ cleanup() {
     kill -TERM "$APP_PID" 2>/dev/null || true
     wait "$APP_PID" 2>/dev/null || true
   fi
+  stop_fakes
   stop_cluster
   rm -f "$NP_DATA/app.pid"
 }
@@ -56,6 +58,8 @@ cat <<MSG
     other-installer@nookpass.demo   installer, Demo Second Company
     inspector@nookpass.demo         inspector, Demo County
     admin@nookpass.demo             admin
+
+  Mail sent by NookPass lands in the local test inbox: http://127.0.0.1:$NOOKPASS_INBOX_PORT
 
   Ctrl-C stops the app and the database; so does 'npm run stop' from another shell.
 

@@ -21,6 +21,8 @@ cleanup() {
   local rc=$?
   trap - INT TERM EXIT
   if [ -n "$APP_PID" ] && kill -0 "$APP_PID" 2>/dev/null; then kill -TERM "$APP_PID" 2>/dev/null || true; wait "$APP_PID" 2>/dev/null || true; fi
+  stop_fakes
+  rm -rf "$NP_DATA/mail-test" "$NP_DATA/s3-test"
   drop_database "$DB_NAME"
   # Leave a cluster that 'npm start' was already running; stop the one we started.
   if [ "$WAS_RUNNING" = "0" ]; then stop_cluster; fi
@@ -45,6 +47,10 @@ npx tsx db/seed.ts
 
 say "Building the app for the end-to-end tests…"
 npx next build
+
+rm -rf "$NP_DATA/mail-test" "$NP_DATA/s3-test"
+start_fakes -test
+export NOOKPASS_INBOX_URL="http://127.0.0.1:$NOOKPASS_INBOX_PORT"
 
 say "Serving the built app on 127.0.0.1:$TEST_PORT…"
 node_modules/.bin/next start -H 127.0.0.1 -p "$TEST_PORT" > "$NP_DATA/test-app.log" 2>&1 &

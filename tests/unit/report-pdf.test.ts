@@ -1,0 +1,68 @@
+import { randomBytes } from 'node:crypto';
+import { extractText, getDocumentProxy } from 'unpdf';
+import { describe, expect, it } from 'vitest';
+import { evaluate } from '@/lib/engine';
+import { parsePlan } from '@/lib/plan';
+import { countPdfPages, newReportCode, renderReportPdf, sha256Hex } from '@/lib/report/render';
+import type { ReportData } from '@/lib/report/report-data';
+import { buildRuleSet } from '@/rules';
+import { longExhaustFailPlan } from '@/tests/fixtures/plans';
+
+const editions = { building: 'IRC 2018', electrical: 'NEC 2017', plumbing: 'IPC 2018', plumbingFamily: 'IPC' as const, mechanical: 'IMC 2018', fuelGas: 'IFGC 2018' };
+
+async function sampleData(): Promise<ReportData> {
+  const parsed = parsePlan(longExhaustFailPlan);
+  if (!parsed.ok) throw new Error('demo plan must parse');
+  const built = buildRuleSet(editions);
+  const evaluation = await evaluate({ jurisdiction: 'test-county', version: 3, parameters: built.parameters, rules: built.rules }, parsed.plan);
+  return {
+    code: 'NP-TEST-2345',
+    verifyUrl: 'http://127.0.0.1:3000/verify/NP-TEST-2345',
+    generatedAt: new Date('2026-12-02T10:00:00Z'),
+    project: { name: 'Test closet <b>not bold</b>', siteAddress: '1 Test Street', permitNumber: null, isDemo: true },
+    organization: { name: 'Test Company', licenseNumber: null },
+    jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '' },
+    ruleSet: { version: 3, publishedAt: new Date('2026-11-01T00:00:00Z'), changelog: 'Test version' },
+    planRevision: { number: 2, savedBy: 'Tester', savedAt: new Date('2026-12-01T09:00:00Z') },
+    check: { id: 'c', createdAt: new Date('2026-12-01T09:05:00Z'), runBy: 'Tester', summary: evaluation.summary, outcome: 'fail' },
+    findings: evaluation.findings,
+    plan: parsed.plan,
+    parameters: built.parameters,
+    photos: [],
+    documents: [],
+    preparedBy: 'Tester',
+  };
+}
+
+async function pdfText(pdf: Buffer): Promise<{ text: string; pages: number }> {
+  const doc = await getDocumentProxy(new Uint8Array(pdf));
+  const { text, totalPages } = await extractText(doc, { mergePages: true });
+  return { text: text.replace(/\s+/g, ' '), pages: totalPages };
+}
+
+describe('report PDF', () => {
+  it('carries the citations and measured values of the findings, the code on every page and the AHJ statement', async () => {
+    const data = await sampleData();
+    const { pdf, sha256, pageCount } = await renderReportPdf(data);
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+    const { text, pages } = await pdfText(pdf);
+    expect(pageCount).toBe(pages);
+    // IRC 2018 M1502.4.5.1: 35 ft; the demo route develops 45 ft 6 in (Table M1502.4.5.1).
+    expect(text).toContain('IRC 2018 M1502.4.5.1');
+    expect(text).toContain(`45' 6"`);
+    expect(text).toContain(`35' 0"`);
+    expect(text).toContain('IMC 2018 504.6');
+    expect(text).toContain('the authority having jurisdiction (AHJ) and licensed trades govern');
+    const codeCount = text.split('NookPass report NP-TEST-2345').length - 1;
+    expect(codeCount).toBe(pages);
+    expect(text).toContain(`Page 1 of ${pages}`);
+    expect(text).toContain('Test closet <b>not bold</b>'); // markup is text, never interpreted
+    expect(sha256).toBe(sha256Hex(pdf));
+  });
+
+  it('counts pages and makes readable codes', () => {
+    expect(countPdfPages(Buffer.from('<< /Type /Pages /Kids [3 0 R 4 0 R 5 0 R] /Count 3 >> << /Type /Pages /Count 2 >>'))).toBe(3);
+    const code = newReportCode(randomBytes);
+    expect(code).toMatch(/^NP-[2-9A-HJ-NP-Z]{4}-[2-9A-HJ-NP-Z]{4}$/);
+  });
+});
