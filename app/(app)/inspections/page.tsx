@@ -1,27 +1,63 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { getDb } from '@/db';
+import { listInspections } from '@/db/reports';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
+import { StatusBadge } from '@/components/ui/status-badge';
 import { pageRoles } from '@/lib/auth/roles';
 import { requirePageUser } from '@/lib/auth/session';
+import type { EvaluationSummary } from '@/lib/engine';
 
 export const metadata: Metadata = { title: 'Inspections' };
 
 export default async function InspectionsPage() {
   const user = await requirePageUser(pageRoles['/inspections'], '/inspections');
+  const db = getDb();
   const jurisdiction = user.jurisdictionId
-    ? await getDb().selectFrom('jurisdictions').select(['name']).where('id', '=', user.jurisdictionId).executeTakeFirst()
+    ? await db.selectFrom('jurisdictions').select(['name']).where('id', '=', user.jurisdictionId).executeTakeFirst()
     : null;
+  const rows = await listInspections(db, user.role === 'inspector' ? user.jurisdictionId : null);
   return (
     <>
       <PageHeader kicker={jurisdiction ? jurisdiction.name : 'All jurisdictions'} title="Inspections" />
-      <EmptyState title="No reports have been sent to you yet">
-        <p>
-          When an installer sends a check report for a job in your jurisdiction it appears here. You can confirm a
-          paper copy is genuine, go through its findings and record an outcome — approved or corrections needed —
-          which goes back to the installer.
-        </p>
-      </EmptyState>
+      {rows.length === 0 ? (
+        <EmptyState title="No reports have been sent to you yet">
+          <p>
+            When an installer sends a check report for a job in your jurisdiction it appears here. You can confirm a
+            paper copy is genuine, go through its findings and record an outcome — approved or corrections needed —
+            which goes back to the installer.
+          </p>
+        </EmptyState>
+      ) : (
+        <div className="card overflow-x-auto">
+          <table className="min-w-full text-sm">
+            <caption className="sr-only">Reports sent to your jurisdiction</caption>
+            <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-ink-soft">
+              <tr><th className="px-4 py-3">Received</th><th className="px-4 py-3">Project</th><th className="px-4 py-3">Installer</th><th className="px-4 py-3">Check</th><th className="px-4 py-3">Your outcome</th></tr>
+            </thead>
+            <tbody className="divide-y divide-rule">
+              {rows.map((r) => {
+                const s = r.summary as EvaluationSummary;
+                return (
+                  <tr key={r.report_id}>
+                    <td className="px-4 py-3">{new Date(r.sent_at).toLocaleString()}</td>
+                    <td className="px-4 py-3">
+                      <Link href={`/inspections/${r.report_id}`} className="font-semibold underline-offset-2 hover:underline">{r.project_name}</Link>
+                      <div className="text-xs text-ink-faint">{r.site_address} · report {r.code}</div>
+                    </td>
+                    <td className="px-4 py-3">{r.organization_name}</td>
+                    <td className="px-4 py-3 font-mono text-xs">{s.fail} fail · {s.caution} caution · {s.needsInfo} info</td>
+                    <td className="px-4 py-3">
+                      {r.review_outcome === 'approved' ? <StatusBadge status="pass" label="Approved" /> : r.review_outcome === 'corrections-needed' ? <StatusBadge status="fail" label="Corrections needed" /> : <span className="text-ink-faint">Not reviewed</span>}
+                    </td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
+      )}
     </>
   );
 }

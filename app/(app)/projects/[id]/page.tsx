@@ -4,6 +4,8 @@ import { getDb } from '@/db';
 import { listChecks } from '@/db/checks';
 import { listPlanRevisions } from '@/db/plan-revisions';
 import { RunCheckButton } from '@/components/checks/run-check-button';
+import { AttachmentsPanel } from '@/components/projects/attachments-panel';
+import { listProjectSends, listReviewsForProject } from '@/db/reports';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -15,7 +17,12 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
   const { id } = await params;
   const { user, project, published } = await loadProjectPage(id, `/projects/${id}`);
   const db = getDb();
-  const [checks, revisions] = await Promise.all([listChecks(db, user, id), listPlanRevisions(db, user, id)]);
+  const [checks, revisions, sends, reviews] = await Promise.all([
+    listChecks(db, user, id),
+    listPlanRevisions(db, user, id),
+    listProjectSends(db, id),
+    listReviewsForProject(db, id),
+  ]);
   const latest = checks[0];
   const newerRules = latest && published && latest.ruleSet.version < published.version;
   const canRun = user.role === 'installer' && revisions.length > 0 && !!published;
@@ -64,6 +71,38 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
               </table>
             )}
           </section>
+          {reviews.length > 0 && (
+            <section className="card p-5" aria-labelledby="outcome-h" data-testid="inspection-outcomes">
+              <h2 id="outcome-h" className="text-lg font-bold">Inspection outcomes</h2>
+              <ul className="mt-3 space-y-3 text-sm">
+                {reviews.map((r) => (
+                  <li key={r.id}>
+                    {r.outcome === 'approved' ? <StatusBadge status="pass" label="Approved" /> : <StatusBadge status="fail" label="Corrections needed" />}
+                    <span className="ml-2 text-ink-soft">{r.inspector_name ?? 'Inspector'} · report {r.code} · {new Date(r.created_at).toLocaleString()}</span>
+                    {r.comment && <p className="mt-1">{r.comment}</p>}
+                    {Object.entries(r.finding_comments as Record<string, string>).map(([k, c]) => (
+                      <p key={k} className="mt-1 text-ink-soft"><span className="font-mono text-xs">{k}</span>: {c}</p>
+                    ))}
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
+          <AttachmentsPanel projectId={project.id} canEdit={user.role === 'installer'} />
+          {sends.length > 0 && (
+            <section className="card p-5 text-sm" aria-labelledby="sends-h">
+              <h2 id="sends-h" className="text-lg font-bold">Reports sent</h2>
+              <ul className="mt-2 space-y-1" data-testid="sends">
+                {sends.map((s) => (
+                  <li key={s.id}>
+                    {s.status === 'sent' ? <StatusBadge status="pass" label="Sent" /> : <StatusBadge status="fail" label="Failed" />}
+                    <span className="ml-2">report {s.code} to {s.to_email} · {s.sent_by ?? 'former user'} · {new Date(s.created_at).toLocaleString()}</span>
+                    {s.error && <span className="block text-status-fail">{s.error}</span>}
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
           <SafetyNotice />
         </div>
 

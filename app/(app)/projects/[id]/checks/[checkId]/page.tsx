@@ -5,6 +5,7 @@ import { getDb } from '@/db';
 import { getCheck, previousCheck } from '@/db/checks';
 import { citationText } from '@/components/checks/areas';
 import { FindingsList } from '@/components/checks/findings-list';
+import { ReportActions } from '@/components/reports/report-actions';
 import { RunCheckButton } from '@/components/checks/run-check-button';
 import { SummaryCounts } from '@/components/checks/summary-counts';
 import { ProjectHeader } from '@/components/projects/project-header';
@@ -24,6 +25,8 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
   const prev = await previousCheck(db, check);
   const changes = prev ? compareFindings(prev.findings, check.findings) : [];
   const newer = published && published.version > check.ruleSet.version;
+  const jur = await db.selectFrom('jurisdictions').select('inspector_email').where('id', '=', project.jurisdiction.id).executeTakeFirst();
+  const inspectorEmail = jur?.inspector_email ?? null;
   const cited = [...new Set(check.findings.filter((f) => f.status !== 'not-applicable').map((f) => citationText(f.citation)))];
 
   return (
@@ -56,6 +59,10 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
       <SummaryCounts summary={check.summary} />
 
       <div className="mt-4"><SafetyNotice /></div>
+
+      <div className="mt-6">
+        <ReportActions checkId={check.id} inspectorEmail={inspectorEmail} canSend={user.role === 'installer'} />
+      </div>
 
       {prev && (
         <section className="card mt-6 p-5" aria-labelledby="since-h" data-testid="changes-since">

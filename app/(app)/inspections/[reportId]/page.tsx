@@ -1,0 +1,77 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { getDb } from '@/db';
+import { FindingsList } from '@/components/checks/findings-list';
+import { SummaryCounts } from '@/components/checks/summary-counts';
+import { ReviewForm } from '@/components/reports/review-form';
+import { PageHeader } from '@/components/ui/page-header';
+import { SafetyNotice } from '@/components/ui/safety-notice';
+import { requirePageUser } from '@/lib/auth/session';
+import { NotFoundError } from '@/lib/errors';
+import { loadInspection } from '@/lib/report/inspection';
+
+export const metadata: Metadata = { title: 'Inspection' };
+
+export default async function InspectionPage({ params }: { params: Promise<{ reportId: string }> }) {
+  const { reportId } = await params;
+  const user = await requirePageUser(['inspector', 'admin'], `/inspections/${reportId}`);
+  let data;
+  try {
+    data = await loadInspection(getDb(), user, reportId);
+  } catch (err) {
+    if (err instanceof NotFoundError) notFound();
+    throw err;
+  }
+  const { report, project, check, attachments, reviews } = data;
+  return (
+    <>
+      <PageHeader kicker={`${project.jurisdiction_name} · report ${report.code}`} title={project.name}>
+        <a className="btn-secondary" href={`/api/reports/${report.code}/pdf`}>Download the issued PDF</a>
+        <Link className="btn-secondary" href={`/verify/${report.code}`}>Verification page</Link>
+      </PageHeader>
+      <p className="-mt-4 mb-4 text-sm text-ink-soft">
+        {project.site_address} · {project.organization_name}{project.license_number ? `, licence ${project.license_number}` : ''}{project.permit_number ? ` · permit ${project.permit_number}` : ''}
+      </p>
+      <SummaryCounts summary={check.summary} />
+      <div className="mt-4"><SafetyNotice compact /></div>
+      <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
+        <section aria-label="Findings"><FindingsList findings={check.findings} /></section>
+        <aside className="space-y-6">
+          {user.role === 'inspector' && <ReviewForm reportId={report.id} findings={check.findings.map((f) => ({ ruleKey: f.ruleKey, title: f.title, status: f.status }))} />}
+          {reviews.length > 0 && (
+            <section className="card p-5 text-sm" aria-labelledby="rev-h">
+              <h2 id="rev-h" className="font-bold">Outcomes recorded</h2>
+              <ul className="mt-2 space-y-2">
+                {reviews.map((r) => (
+                  <li key={r.id}>
+                    <span className="font-semibold">{r.outcome === 'approved' ? 'Approved' : 'Corrections needed'}</span> · {r.inspector_name} · {new Date(r.created_at).toLocaleString()}
+                    {r.comment && <p className="text-ink-soft">{r.comment}</p>}
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
+          {attachments.length > 0 && (
+            <section className="card p-5 text-sm" aria-labelledby="att-h">
+              <h2 id="att-h" className="font-bold">Photos and documents in the report</h2>
+              <ul className="mt-2 grid grid-cols-2 gap-3">
+                {attachments.map((a) => (
+                  <li key={a.id}>
+                    {a.kind === 'photo' ? (
+                      // eslint-disable-next-line @next/next/no-img-element
+                      <img src={`/api/attachments/${a.id}?variant=thumb`} alt={a.caption || a.filename} className="rounded border border-rule" />
+                    ) : (
+                      <a className="underline" href={`/api/attachments/${a.id}`}>{a.filename}</a>
+                    )}
+                    <p className="mt-1 text-xs text-ink-soft">{a.caption}</p>
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
+        </aside>
+      </div>
+    </>
+  );
+}

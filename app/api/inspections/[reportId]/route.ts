@@ -1,0 +1,11 @@
+import { getDb } from '@/db';
+import { requireUser } from '@/lib/auth/session';
+import { json, route } from '@/lib/http';
+import { loadInspection } from '@/lib/report/inspection';
+
+type Ctx = { params: Promise<{ reportId: string }> };
+
+export const GET = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['inspector', 'admin']);
+  return json(await loadInspection(getDb(), user, (await params).reportId));
+});

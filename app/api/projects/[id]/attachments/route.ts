@@ -1,0 +1,83 @@
+import { randomUUID } from 'node:crypto';
+import { getDb } from '@/db';
+import { displayKey, insertAttachment, listAttachments } from '@/db/attachments';
+import { getProject } from '@/db/projects';
+import { requireUser } from '@/lib/auth/session';
+import { PayloadTooLargeError, ValidationError } from '@/lib/errors';
+import { json, route } from '@/lib/http';
+import { deleteObject, putObject } from '@/lib/storage';
+import { checkUpload, MAX_UPLOAD_BYTES } from '@/lib/uploads';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export const GET = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer', 'admin']);
+  const db = getDb();
+  const project = await getProject(db, user, (await params).id);
+  return json({ attachments: (await listAttachments(db, project.id)).map(({ storageKey: _s, thumbnailKey: _t, ...a }) => a) });
+});
+
+export const POST = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['installer']);
+  const db = getDb();
+  const project = await getProject(db, user, (await params).id);
+  if (Number(request.headers.get('content-length') ?? 0) > MAX_UPLOAD_BYTES + 64 * 1024) {
+    throw new PayloadTooLargeError(`Files can be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
+  }
+  if (!/^multipart\/form-data/i.test(request.headers.get('content-type') ?? '')) {
+    throw new ValidationError([{ path: '(body)', message: 'Send the file as multipart/form-data with a "file" field.' }]);
+  }
+  let form: FormData;
+  try {
+    form = await request.formData();
+  } catch {
+    throw new ValidationError([{ path: '(body)', message: 'The upload could not be read.' }]);
+  }
+  const file = form.get('file');
+  if (!(file instanceof File)) throw new ValidationError([{ path: 'file', message: 'Choose a file to upload.' }]);
+  const caption = String(form.get('caption') ?? '').trim();
+  if (caption.length > 300) throw new ValidationError([{ path: 'caption', message: 'Keep the caption under 300 characters.' }]);
+  const checked = await checkUpload(Buffer.from(await file.arrayBuffer()), file.name);
+
+  const id = randomUUID();
+  const key = `attachments/${project.id}/${id}`;
+  const thumbKey = checked.thumbnail ? `${key}.thumb.jpg` : null;
+  const written: string[] = [];
+  try {
+    await putObject(key, checked.bytes, checked.contentType);
+    written.push(key);
+    if (checked.thumbnail && thumbKey) {
+      await putObject(thumbKey, checked.thumbnail, 'image/jpeg');
+      written.push(thumbKey);
+    }
+    if (checked.display) {
+      await putObject(displayKey(key), checked.display, 'image/jpeg');
+      written.push(displayKey(key));
+    }
+    const saved = await insertAttachment(
+      db,
+      {
+        id,
+        projectId: project.id,
+        kind: checked.kind,
+        filename: checked.filename,
+        contentType: checked.contentType,
+        byteSize: checked.bytes.length,
+        sha256: checked.sha256,
+        storageKey: key,
+        thumbnailKey: thumbKey,
+        width: checked.width,
+        height: checked.height,
+        caption,
+        createdBy: user.id,
+      },
+      user.id,
+    );
+    const { storageKey: _s, thumbnailKey: _t, ...out } = saved;
+    return json(out, 201);
+  } catch (err) {
+    // Nothing half-saved: objects written before a failure are removed again.
+    await Promise.allSettled(written.map((k) => deleteObject(k)));
+    throw err;
+  }
+});

@@ -1,0 +1,27 @@
+import { getDb } from '@/db';
+import { findReportByCode } from '@/db/reports';
+import { requireUser } from '@/lib/auth/session';
+import { NotFoundError } from '@/lib/errors';
+import { route } from '@/lib/http';
+import { assertCanReadReport } from '@/lib/report/access';
+import { getObject } from '@/lib/storage';
+
+type Ctx = { params: Promise<{ code: string }> };
+
+/** The stored file of an issued report, byte for byte. */
+export const GET = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request);
+  const db = getDb();
+  const report = await findReportByCode(db, (await params).code);
+  if (!report) throw new NotFoundError('No such report.');
+  await assertCanReadReport(db, user, report);
+  const pdf = await getObject(report.storageKey);
+  if (!pdf) throw new NotFoundError('The report file is missing from storage.');
+  return new Response(new Uint8Array(pdf), {
+    headers: {
+      'content-type': 'application/pdf',
+      'content-disposition': `attachment; filename="nookpass-report-${report.code}.pdf"`,
+      'cache-control': 'private, no-store',
+    },
+  });
+});

@@ -1,0 +1,48 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { getDb } from '@/db';
+import { publicReportFacts } from '@/db/reports';
+import { SummaryCounts } from '@/components/checks/summary-counts';
+import { VerifyDrop } from '@/components/reports/verify-drop';
+import { Wordmark } from '@/components/ui/logo';
+import { SafetyNotice } from '@/components/ui/safety-notice';
+import type { EvaluationSummary } from '@/lib/engine';
+
+export const metadata: Metadata = { title: 'Verify a report' };
+export const dynamic = 'force-dynamic';
+
+export default async function VerifyPage({ params }: { params: Promise<{ code: string }> }) {
+  const { code } = await params;
+  const facts = await publicReportFacts(getDb(), decodeURIComponent(code));
+  return (
+    <main id="main" className="mx-auto max-w-3xl px-4 py-8">
+      <Link href="/"><Wordmark /></Link>
+      <p className="kicker mt-8">Report verification</p>
+      {!facts ? (
+        <>
+          <h1 className="mt-2 text-2xl font-bold">No report with the code {decodeURIComponent(code)}</h1>
+          <p className="mt-3 text-ink-soft">Check the code printed in the report’s footer. A code NookPass did not issue means the paper did not come from NookPass.</p>
+        </>
+      ) : (
+        <>
+          <h1 className="mt-2 text-2xl font-bold">Report {facts.code} was issued by NookPass</h1>
+          <dl className="card mt-4 grid gap-3 p-5 text-sm sm:grid-cols-2" data-testid="verify-facts">
+            <div><dt className="text-ink-faint">Project</dt><dd className="font-semibold">{facts.project_name}</dd></div>
+            <div><dt className="text-ink-faint">Site</dt><dd>{facts.site_address}</dd></div>
+            <div><dt className="text-ink-faint">Jurisdiction</dt><dd>{facts.jurisdiction_name}</dd></div>
+            <div><dt className="text-ink-faint">Rule set version</dt><dd>{facts.rule_set_version}</dd></div>
+            <div><dt className="text-ink-faint">Check date</dt><dd>{new Date(facts.checked_at).toUTCString()}</dd></div>
+            <div><dt className="text-ink-faint">Report issued</dt><dd>{new Date(facts.issued_at).toUTCString()} · {facts.page_count} pages</dd></div>
+            <div className="sm:col-span-2"><dt className="text-ink-faint">SHA-256 of the issued PDF</dt><dd className="break-all font-mono text-xs" data-testid="verify-hash">{facts.sha256}</dd></div>
+          </dl>
+          <div className="mt-4"><SummaryCounts summary={facts.summary as EvaluationSummary} /></div>
+          <section className="mt-6" aria-labelledby="drop-h">
+            <h2 id="drop-h" className="mb-2 text-lg font-bold">Is your copy unaltered?</h2>
+            <VerifyDrop expected={facts.sha256} />
+          </section>
+          <div className="mt-6"><SafetyNotice compact /></div>
+        </>
+      )}
+    </main>
+  );
+}

@@ -1,0 +1,98 @@
+'use client';
+
+import { useRef, useState } from 'react';
+import useSWR from 'swr';
+import { fetchJson, swrFetcher } from '@/lib/client/fetch-json';
+
+type A = { id: string; kind: 'photo' | 'document'; filename: string; caption: string; byteSize: number; createdAt: string };
+
+export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
+  const url = `/api/projects/${projectId}/attachments`;
+  const { data, error, isLoading, mutate } = useSWR<{ attachments: A[] }>(url, swrFetcher);
+  const [caption, setCaption] = useState('');
+  const [busy, setBusy] = useState(false);
+  const [uploadError, setUploadError] = useState<string | null>(null);
+  const fileRef = useRef<HTMLInputElement>(null);
+
+  async function upload(e: React.FormEvent) {
+    e.preventDefault();
+    const file = fileRef.current?.files?.[0];
+    if (!file) return setUploadError('Choose a file to upload.');
+    setBusy(true);
+    setUploadError(null);
+    const form = new FormData();
+    form.set('file', file);
+    form.set('caption', caption);
+    try {
+      await fetchJson(url, { method: 'POST', body: form });
+      setCaption('');
+      if (fileRef.current) fileRef.current.value = '';
+      await mutate();
+    } catch (err) {
+      setUploadError((err as Error).message);
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  async function saveCaption(id: string, value: string) {
+    await fetchJson(`/api/attachments/${id}`, { method: 'PATCH', json: { caption: value } });
+    await mutate();
+  }
+
+  async function remove(a: A) {
+    if (!window.confirm(`Delete ${a.filename}? Reports already issued keep their copy.`)) return;
+    await fetchJson(`/api/attachments/${a.id}`, { method: 'DELETE' });
+    await mutate();
+  }
+
+  return (
+    <section className="card p-5" aria-labelledby="att-h">
+      <h2 id="att-h" className="text-lg font-bold">Photos and documents</h2>
+      <p className="mt-1 text-sm text-ink-soft">Appliance nameplates, the maker’s clearance page, the duct termination, the permit. Photos go into the next report.</p>
+      {canEdit && (
+        <form onSubmit={upload} className="mt-4 flex flex-wrap items-end gap-3" noValidate>
+          <div>
+            <label htmlFor="att-file" className="field-label">File (JPEG, PNG, WebP or PDF, up to 15 MB)</label>
+            <input id="att-file" ref={fileRef} type="file" accept="image/jpeg,image/png,image/webp,application/pdf" className="mt-1 block text-sm" aria-describedby={uploadError ? 'att-error' : undefined} />
+          </div>
+          <div className="min-w-[14rem] flex-1">
+            <label htmlFor="att-caption" className="field-label">Caption</label>
+            <input id="att-caption" className="field-input" value={caption} onChange={(e) => setCaption(e.target.value)} placeholder="e.g. dryer nameplate" />
+          </div>
+          <button type="submit" className="btn-primary" disabled={busy}>{busy ? 'Uploading…' : 'Upload'}</button>
+          {uploadError && <p id="att-error" role="alert" className="field-error w-full">{uploadError}</p>}
+        </form>
+      )}
+      {isLoading && <p className="mt-3 text-sm text-ink-soft">Loading files…</p>}
+      {error && <p role="alert" className="mt-3 text-sm text-status-fail">Files could not be loaded: {(error as Error).message}</p>}
+      {data && data.attachments.length === 0 && <p className="mt-3 text-sm text-ink-faint">Nothing attached yet.</p>}
+      {data && data.attachments.length > 0 && (
+        <ul className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3" data-testid="attachments">
+          {data.attachments.map((a) => (
+            <li key={a.id} className="rounded-md border border-rule bg-white p-3 text-sm">
+              {a.kind === 'photo' ? (
+                // eslint-disable-next-line @next/next/no-img-element
+                <img src={`/api/attachments/${a.id}?variant=thumb`} alt={a.caption || a.filename} className="aspect-[4/3] w-full rounded object-cover" />
+              ) : (
+                <a href={`/api/attachments/${a.id}`} className="block rounded bg-paper-deep p-6 text-center font-semibold underline">PDF · {a.filename}</a>
+              )}
+              <div className="mt-2 font-mono text-xs text-ink-faint">{a.filename} · {Math.ceil(a.byteSize / 1024)} KB</div>
+              {canEdit ? (
+                <input
+                  aria-label={`Caption of ${a.filename}`}
+                  defaultValue={a.caption}
+                  className="field-input mt-1 py-1 text-sm"
+                  onBlur={(e) => e.target.value !== a.caption && void saveCaption(a.id, e.target.value)}
+                />
+              ) : (
+                <p className="mt-1">{a.caption}</p>
+              )}
+              {canEdit && <button type="button" className="btn-danger mt-2 px-2 py-1 text-xs" onClick={() => remove(a)}>Delete</button>}
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}

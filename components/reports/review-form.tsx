@@ -1,0 +1,67 @@
+'use client';
+
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useRouter } from 'next/navigation';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { ApiError, fetchJson } from '@/lib/client/fetch-json';
+import { reviewSchema, type ReviewInput } from '@/lib/report/review-schema';
+
+type F = { ruleKey: string; title: string; status: string };
+
+export function ReviewForm({ reportId, findings }: { reportId: string; findings: F[] }) {
+  const router = useRouter();
+  const [done, setDone] = useState<string | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
+  const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<ReviewInput>({
+    resolver: zodResolver(reviewSchema) as never,
+    defaultValues: { outcome: undefined as never, comment: '', findingComments: {} },
+  });
+  const flagged = findings.filter((f) => f.status !== 'pass' && f.status !== 'not-applicable');
+
+  async function onSubmit(values: ReviewInput) {
+    setFormError(null);
+    try {
+      const res = await fetchJson<{ mailed: number }>(`/api/inspections/${reportId}/review`, { method: 'POST', json: values });
+      setDone(`Outcome recorded${res.mailed ? ' and the installer was e-mailed' : ''}.`);
+      router.refresh();
+    } catch (err) {
+      if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError(e.path as never, { message: e.message });
+      else setFormError((err as Error).message);
+    }
+  }
+
+  return (
+    <form onSubmit={handleSubmit(onSubmit)} noValidate className="card space-y-4 p-5" aria-label="Record the inspection outcome">
+      <fieldset>
+        <legend className="field-label">Outcome</legend>
+        <div className="mt-2 flex flex-wrap gap-4">
+          <label className="inline-flex items-center gap-2"><input type="radio" value="approved" {...register('outcome')} /> Approved</label>
+          <label className="inline-flex items-center gap-2"><input type="radio" value="corrections-needed" {...register('outcome')} /> Corrections needed</label>
+        </div>
+        {errors.outcome && <p className="field-error" role="alert">{errors.outcome.message}</p>}
+      </fieldset>
+      <div>
+        <label htmlFor="review-comment" className="field-label">Comment to the installer</label>
+        <textarea id="review-comment" rows={3} className="field-input" {...register('comment')} aria-describedby={errors.comment ? 'review-comment-error' : undefined} />
+        {errors.comment && <p id="review-comment-error" className="field-error" role="alert">{errors.comment.message}</p>}
+      </div>
+      {flagged.length > 0 && (
+        <details open>
+          <summary className="cursor-pointer text-sm font-semibold">Comments on findings ({flagged.length} not passing)</summary>
+          <div className="mt-3 space-y-3">
+            {flagged.map((f) => (
+              <div key={f.ruleKey}>
+                <label htmlFor={`fc-${f.ruleKey}`} className="text-sm">{f.title} <span className="text-ink-faint">({f.status})</span></label>
+                <input id={`fc-${f.ruleKey}`} className="field-input" {...register(`findingComments.${f.ruleKey}` as const)} />
+              </div>
+            ))}
+          </div>
+        </details>
+      )}
+      {formError && <p role="alert" className="text-sm text-status-fail">{formError}</p>}
+      {done && <p role="status" className="text-sm font-semibold text-status-pass">{done}</p>}
+      <button type="submit" className="btn-primary" disabled={isSubmitting}>Record outcome</button>
+    </form>
+  );
+}
