@@ -1,0 +1,218 @@
+import bcrypt from 'bcryptjs';
+import sharp from 'sharp';
+import { extractText, getDocumentProxy } from 'unpdf';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { longExhaustFailPlan } from '@/tests/fixtures/plans';
+import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+
+const db = appDb();
+const inbox = process.env.NOOKPASS_INBOX_URL ?? 'http://127.0.0.1:54326';
+let installer: string;
+let other: string;
+let inspector: string;
+let cityInspector: string;
+let projectId: string;
+let checkId: string;
+
+async function raw(path: string, cookie?: string) {
+  const res = await fetch(`${baseUrl}${path}`, { headers: cookie ? { cookie } : {} });
+  return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) };
+}
+
+async function upload(cookie: string, name: string, bytes: Buffer, type = 'application/octet-stream', caption = '') {
+  const form = new FormData();
+  form.set('file', new Blob([new Uint8Array(bytes)], { type }), name);
+  form.set('caption', caption);
+  const res = await fetch(`${baseUrl}/api/projects/${projectId}/attachments`, { method: 'POST', headers: { cookie }, body: form });
+  return { status: res.status, body: await res.json() };
+}
+
+async function countAttachments() {
+  const r = await db.selectFrom('attachments').select(db.fn.countAll<number>().as('n')).where('project_id', '=', projectId).executeTakeFirstOrThrow();
+  return Number(r.n);
+}
+
+beforeAll(async () => {
+  const city = await db.selectFrom('jurisdictions').select('id').where('slug', '=', 'demo-city').executeTakeFirstOrThrow();
+  const email = `city-inspector-${Date.now()}@example.test`;
+  await db.insertInto('users').values({ email, name: 'City Test Inspector', role: 'inspector', jurisdiction_id: city.id, password_hash: await bcrypt.hash('city-inspector-pw', 4) }).execute();
+  [installer, other, inspector, cityInspector] = await Promise.all([
+    signIn('installer@nookpass.demo'),
+    signIn('other-installer@nookpass.demo'),
+    signIn('inspector@nookpass.demo'),
+    signIn(email, 'city-inspector-pw'),
+  ]);
+  const p = await api('/api/projects', postJson({ name: 'IT report project <i>x</i>', siteAddress: '9 Report Road', jurisdiction: 'demo-county' }, { cookie: installer }));
+  projectId = p.body.id;
+  await api(`/api/projects/${projectId}/plans`, postJson({ plan: longExhaustFailPlan }, { cookie: installer }));
+  checkId = (await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }))).body.id;
+});
+afterAll(async () => {
+  await db.destroy();
+});
+
+describe('uploads', () => {
+  it('accepts a real photo, makes a thumbnail and keeps the caption', async () => {
+    const jpeg = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#7799bb' } }).jpeg().toBuffer();
+    const res = await upload(installer, 'nameplate.jpg', jpeg, 'image/jpeg', 'Dryer nameplate');
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ kind: 'photo', contentType: 'image/jpeg', width: 1600, height: 1200, caption: 'Dryer nameplate' });
+    const thumb = await raw(`/api/attachments/${res.body.id}?variant=thumb`, installer);
+    expect(thumb.status).toBe(200);
+    const meta = await sharp(thumb.bytes).metadata();
+    expect(Math.max(meta.width!, meta.height!)).toBe(480);
+    const orig = await raw(`/api/attachments/${res.body.id}`, installer);
+    expect(orig.bytes.equals(jpeg)).toBe(true);
+  });
+
+  it('refuses a wrong type, a spoofed extension, too many bytes and a decompression bomb, leaving nothing behind', async () => {
+    const before = await countAttachments();
+    const text = await upload(installer, 'photo.jpg', Buffer.from('just some text, not an image at all'), 'image/jpeg');
+    expect(text.status).toBe(400);
+    expect(text.body.errors[0]).toMatchObject({ path: 'file' });
+    const png = await sharp({ create: { width: 10, height: 10, channels: 3, background: '#000' } }).png().toBuffer();
+    const spoofed = await upload(installer, 'permit.pdf', png, 'application/pdf');
+    expect(spoofed.status).toBe(400);
+    expect(spoofed.body.errors[0].message).toMatch(/is a PNG but is named \.pdf/);
+    const big = await upload(installer, 'big.pdf', Buffer.concat([Buffer.from('%PDF-1.4\n'), Buffer.alloc(16 * 1024 * 1024, 0x20)]), 'application/pdf');
+    expect(big.status).toBe(413);
+    // 10 000 × 10 000 px = 100 MP of one colour compresses to a small file; it must not be decoded.
+    const bomb = await sharp({ create: { width: 10000, height: 10000, channels: 3, background: '#000' } }).png({ compressionLevel: 9 }).toBuffer();
+    expect(bomb.length).toBeLessThan(2 * 1024 * 1024);
+    const bombRes = await upload(installer, 'bomb.png', bomb, 'image/png');
+    expect(bombRes.status).toBe(400);
+    expect(bombRes.body.errors[0].message).toMatch(/megapixels/);
+    expect(await countAttachments()).toBe(before);
+  });
+
+  it('strips folders from the file name', async () => {
+    const png = await sharp({ create: { width: 20, height: 20, channels: 3, background: '#fff' } }).png().toBuffer();
+    const res = await upload(installer, '../../etc/passwd.png', png, 'image/png');
+    expect(res.status).toBe(201);
+    expect(res.body.filename).toBe('passwd.png');
+    const del = await api(`/api/attachments/${res.body.id}`, { method: 'DELETE', cookie: installer });
+    expect(del.status).toBe(200);
+    expect((await raw(`/api/attachments/${res.body.id}`, installer)).status).toBe(404);
+  });
+
+  it('keeps files away from another company', async () => {
+    const list = await api(`/api/projects/${projectId}/attachments`, { cookie: installer });
+    const id = list.body.attachments[0].id;
+    expect((await raw(`/api/attachments/${id}`, other)).status).toBe(404);
+    expect((await api(`/api/projects/${projectId}/attachments`, { cookie: other })).status).toBe(404);
+    expect((await api(`/api/attachments/${id}`, postJson({ caption: 'mine now' }, { cookie: other, method: 'PATCH' }))).status).toBe(404);
+    // Not sent to any jurisdiction yet, so no inspector can read it either.
+    expect((await raw(`/api/attachments/${id}`, inspector)).status).toBe(404);
+  });
+});
+
+describe('report download and verification', () => {
+  let code: string;
+  let pdf: Buffer;
+
+  it('downloads a PDF with a meaningful name that cites the checked sections and records code, hash and author', async () => {
+    const res = await raw(`/api/checks/${checkId}/report`, installer);
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toBe('application/pdf');
+    code = res.headers.get('x-report-code')!;
+    expect(res.headers.get('content-disposition')).toBe(`attachment; filename="nookpass-it-report-project-ixi-${code}.pdf"`);
+    pdf = res.bytes;
+    const doc = await getDocumentProxy(new Uint8Array(pdf));
+    const { text } = await extractText(doc, { mergePages: true });
+    const flat = text.replace(/\s+/g, ' ');
+    // IRC 2018 M1502.4.5.1 (35 ft) and IMC 2018 504.6 (100 sq in closet opening) with the plan's measured values.
+    expect(flat).toContain('IRC 2018 M1502.4.5.1');
+    expect(flat).toContain(`45' 6"`);
+    expect(flat).toContain('IMC 2018 504.6');
+    expect(flat).toContain('40 sq in');
+    expect(flat).toContain(`NookPass report ${code}`);
+    expect(flat).toContain('Dryer nameplate');
+    const row = await db.selectFrom('reports').selectAll().where('code', '=', code).executeTakeFirstOrThrow();
+    expect(row.sha256).toBe(res.headers.get('x-report-sha256'));
+    expect(row.byte_size).toBe(pdf.length);
+    const author = await db.selectFrom('users').select('email').where('id', '=', row.created_by!).executeTakeFirstOrThrow();
+    expect(author.email).toBe('installer@nookpass.demo');
+  });
+
+  it('accepts the issued file and rejects an altered one', async () => {
+    const facts = await api(`/api/reports/${code}`);
+    expect(facts.status).toBe(200);
+    expect(facts.body).toMatchObject({ code, projectName: 'IT report project <i>x</i>', ruleSetVersion: 1 });
+    expect(Object.keys(facts.body).sort()).toEqual(['checkedAt', 'code', 'issuedAt', 'jurisdiction', 'pageCount', 'projectName', 'ruleSetVersion', 'sha256', 'siteAddress', 'summary'].sort());
+    const verify = (body: Buffer) => fetch(`${baseUrl}/api/reports/${code}/verify`, { method: 'POST', body: new Uint8Array(body) }).then((r) => r.json());
+    expect((await verify(pdf)).genuine).toBe(true);
+    const altered = Buffer.from(pdf);
+    altered[Math.floor(altered.length / 2)] ^= 0x01;
+    expect((await verify(altered)).genuine).toBe(false);
+    expect((await api('/api/reports/NP-NONE-NONE')).status).toBe(404);
+    const page = await fetch(`${baseUrl}/verify/${code}`);
+    expect(page.status).toBe(200);
+    const html = await page.text();
+    expect(html).toContain(facts.body.sha256);
+    expect(html).not.toContain('<i>x</i>'); // markup shown escaped
+  });
+
+  it('lets only the company, admins and the receiving jurisdiction download the stored PDF', async () => {
+    expect((await raw(`/api/reports/${code}/pdf`, installer)).bytes.equals(pdf)).toBe(true);
+    expect((await raw(`/api/reports/${code}/pdf`, other)).status).toBe(404);
+    expect((await raw(`/api/reports/${code}/pdf`, inspector)).status).toBe(404); // not sent yet
+    expect((await raw(`/api/reports/${code}/pdf`)).status).toBe(401);
+  });
+});
+
+describe('sending to the inspector and the review', () => {
+  let reportId: string;
+  let code: string;
+
+  it('mails the report with the PDF attached and the verification link', async () => {
+    const res = await api(`/api/checks/${checkId}/send`, postJson({ note: 'Ready for rough-in.' }, { cookie: installer }));
+    expect(res.status).toBe(201);
+    expect(res.body.to).toBe('inspector@nookpass.demo');
+    code = res.body.report.code;
+    reportId = (await db.selectFrom('reports').select('id').where('code', '=', code).executeTakeFirstOrThrow()).id;
+    const messages = (await (await fetch(`${inbox}/api/messages`)).json()) as Array<{ subject: string; to: string; text: string; attachments: { filename: string; contentType: string; size: number }[] }>;
+    const mail = messages.find((m) => m.subject.includes(code))!;
+    expect(mail.to).toContain('inspector@nookpass.demo');
+    expect(mail.text).toContain(`/verify/${code}`);
+    expect(mail.text).toContain('Ready for rough-in.');
+    expect(mail.attachments).toEqual([expect.objectContaining({ contentType: 'application/pdf', filename: expect.stringContaining(code) })]);
+    const send = await db.selectFrom('report_sends').selectAll().where('report_id', '=', reportId).executeTakeFirstOrThrow();
+    expect(send.status).toBe('sent');
+  });
+
+  it('shows the report to the inspector of the jurisdiction and to no other inspector', async () => {
+    const mine = await api('/api/inspections', { cookie: inspector });
+    expect(mine.body.inspections.map((i: { code: string }) => i.code)).toContain(code);
+    const theirs = await api('/api/inspections', { cookie: cityInspector });
+    expect(theirs.body.inspections.map((i: { code: string }) => i.code)).not.toContain(code);
+    expect((await api(`/api/inspections/${reportId}`, { cookie: cityInspector })).status).toBe(404);
+    expect((await raw(`/api/reports/${code}/pdf`, cityInspector)).status).toBe(404);
+    expect((await api(`/api/inspections/${reportId}/review`, postJson({ outcome: 'approved' }, { cookie: cityInspector }))).status).toBe(404);
+    const detail = await api(`/api/inspections/${reportId}`, { cookie: inspector });
+    expect(detail.status).toBe(200);
+    expect(detail.body.attachments.length).toBeGreaterThan(0);
+    // The inspector can now see the photos the report included.
+    expect((await raw(`/api/attachments/${detail.body.attachments[0].id}?variant=thumb`, inspector)).status).toBe(200);
+    expect((await api('/api/inspections', { cookie: installer })).status).toBe(403);
+  });
+
+  it('records the outcome, e-mails the installer and shows it on the project', async () => {
+    const bad = await api(`/api/inspections/${reportId}/review`, postJson({ outcome: 'corrections-needed' }, { cookie: inspector }));
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors[0].path).toBe('comment');
+    const unknownKey = await api(`/api/inspections/${reportId}/review`, postJson({ outcome: 'approved', findingComments: { 'exhaust.nonsense': 'x' } }, { cookie: inspector }));
+    expect(unknownKey.status).toBe(400);
+    const ok = await api(
+      `/api/inspections/${reportId}/review`,
+      postJson({ outcome: 'corrections-needed', comment: 'Shorten the run.', findingComments: { 'exhaust.developed-length': 'Over 35 ft.' } }, { cookie: inspector }),
+    );
+    expect(ok.status).toBe(201);
+    expect(ok.body.mailed).toBe(1);
+    const messages = (await (await fetch(`${inbox}/api/messages`)).json()) as Array<{ subject: string; to: string; text: string }>;
+    const mail = messages.find((m) => m.to.includes('installer@nookpass.demo') && m.subject.includes('corrections needed'))!;
+    expect(mail.text).toContain('Shorten the run.');
+    const page = await fetch(`${baseUrl}/projects/${projectId}`, { headers: { cookie: installer } });
+    expect(await page.text()).toContain('Corrections needed');
+    await expect(db.updateTable('inspection_reviews').set({ outcome: 'approved' }).where('report_id', '=', reportId).execute()).rejects.toThrow(/append-only/);
+  });
+});
