@@ -1,6 +1,5 @@
 'use client';
 
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
@@ -13,20 +12,30 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
   const router = useRouter();
   const [done, setDone] = useState<string | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
-  const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<ReviewInput>({
-    resolver: zodResolver(reviewSchema) as never,
-    defaultValues: { outcome: undefined as never, comment: '', findingComments: {} },
+  // Rule keys contain dots, which the form library reads as nesting; field names encode them.
+  type Values = { outcome?: ReviewInput['outcome']; comment: string; fc: Record<string, string> };
+  const encode = (key: string) => key.replace(/\./g, '__');
+  const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<Values>({
+    defaultValues: { comment: '', fc: {} },
   });
   const flagged = findings.filter((f) => f.status !== 'pass' && f.status !== 'not-applicable');
 
-  async function onSubmit(values: ReviewInput) {
+  async function onSubmit(form: Values) {
     setFormError(null);
+    const findingComments = Object.fromEntries(flagged.map((f) => [f.ruleKey, form.fc?.[encode(f.ruleKey)] ?? '']).filter(([, c]) => c.trim()));
+    // The same schema the API parses, checked here first so the message sits next to its field.
+    const parsed = reviewSchema.safeParse({ outcome: form.outcome, comment: form.comment, findingComments });
+    if (!parsed.success) {
+      for (const issue of parsed.error.issues) setError((issue.path[0] === 'outcome' ? 'outcome' : 'comment') as never, { message: issue.message });
+      return;
+    }
+    const values = parsed.data;
     try {
       const res = await fetchJson<{ mailed: number }>(`/api/inspections/${reportId}/review`, { method: 'POST', json: values });
       setDone(`Outcome recorded${res.mailed ? ' and the installer was e-mailed' : ''}.`);
       router.refresh();
     } catch (err) {
-      if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError(e.path as never, { message: e.message });
+      if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError((e.path === 'outcome' ? 'outcome' : 'comment') as never, { message: e.message });
       else setFormError((err as Error).message);
     }
   }
@@ -53,7 +62,7 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
             {flagged.map((f) => (
               <div key={f.ruleKey}>
                 <label htmlFor={`fc-${f.ruleKey}`} className="text-sm">{f.title} <span className="text-ink-faint">({f.status})</span></label>
-                <input id={`fc-${f.ruleKey}`} className="field-input" {...register(`findingComments.${f.ruleKey}` as const)} />
+                <input id={`fc-${f.ruleKey}`} className="field-input" {...register(`fc.${encode(f.ruleKey)}` as const)} />
               </div>
             ))}
           </div>
