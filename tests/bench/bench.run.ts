@@ -1,0 +1,101 @@
+import { gzipSync } from 'node:zlib';
+import { writeFileSync } from 'node:fs';
+import autocannon from 'autocannon';
+import sharp from 'sharp';
+import { expect, it } from 'vitest';
+import { evaluate } from '@/lib/engine';
+import { parsePlan } from '@/lib/plan';
+import { renderReportPdf } from '@/lib/report/render';
+import type { ReportData } from '@/lib/report/report-data';
+import { buildRuleSet } from '@/rules';
+import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
+import { api, baseUrl, postJson, signIn } from '../integration/helpers';
+import { measureEngineOverhead } from './engine-bench';
+
+const results: Record<string, unknown> = {};
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
+function load(opts: autocannon.Options): Promise<autocannon.Result> {
+  return new Promise((resolve, reject) => autocannon(opts, (err, res) => (err ? reject(err) : resolve(res))));
+}
+
+it('engine vs raw json-rules-engine', async () => {
+  const r = await measureEngineOverhead({ iterations: 1000, batches: 6 });
+  results.engine = { engineMsPerPlan: +r.engineMs.toFixed(3), rawMsPerPlan: +r.rawMs.toFixed(3), ratio: +r.ratio.toFixed(2), goal: '≤ 1.5' };
+  console.log('[bench] engine', results.engine);
+  expect(r.ratio).toBeGreaterThan(0);
+});
+
+it('report render time (four pages with photos)', async () => {
+  const editions = { building: 'IRC 2018', electrical: 'NEC 2017', plumbing: 'IPC 2018', plumbingFamily: 'IPC' as const, mechanical: 'IMC 2018', fuelGas: 'IFGC 2018' };
+  const parsed = parsePlan(longExhaustFailPlan);
+  if (!parsed.ok) throw new Error('plan');
+  const built = buildRuleSet(editions);
+  const evaluation = await evaluate({ jurisdiction: 'bench', version: 1, parameters: built.parameters, rules: built.rules }, parsed.plan);
+  const photo = await sharp({ create: { width: 1400, height: 1050, channels: 3, background: '#8aa' } }).jpeg({ quality: 80 }).toBuffer();
+  // The exhaust findings only, so the document is cover, findings, drawings, hinges, photos, signatures.
+  const findings = evaluation.findings.filter((f) => f.area === 'exhaust').slice(0, 6);
+  const data: ReportData = {
+    code: 'NP-BENC-HMRK', verifyUrl: 'http://127.0.0.1/verify/NP-BENC-HMRK', generatedAt: new Date(),
+    project: { name: 'Benchmark closet', siteAddress: '1 Bench St', permitNumber: null, isDemo: true },
+    organization: { name: 'Bench Co', licenseNumber: null },
+    jurisdiction: { name: 'Bench County', region: 'Bench', editions, amendmentNotes: '' },
+    ruleSet: { version: 1, publishedAt: new Date(), changelog: '' },
+    planRevision: { number: 1, savedBy: 'Bench', savedAt: new Date() },
+    check: { id: 'x', createdAt: new Date(), runBy: 'Bench', summary: evaluation.summary, outcome: 'fail' },
+    findings, plan: parsed.plan, parameters: built.parameters,
+    photos: [1, 2].map((i) => ({ caption: `Photo ${i}`, filename: `p${i}.jpg`, image: photo, width: 1400, height: 1050 })),
+    documents: [], preparedBy: 'Bench',
+  };
+  await renderReportPdf(data); // warm: fonts and modules load once per process
+  const times: number[] = [];
+  let pages = 0;
+  for (let i = 0; i < 8; i++) {
+    const t0 = performance.now();
+    const r = await renderReportPdf(data);
+    times.push(performance.now() - t0);
+    pages = r.pageCount;
+  }
+  results.report = { pages, medianMs: Math.round(median(times)), minMs: Math.round(Math.min(...times)), runs: times.length, goal: '< 500 ms' };
+  console.log('[bench] report', results.report);
+  expect(pages).toBeGreaterThan(0);
+});
+
+it('/api/evaluations vs a bare route handler under load', async () => {
+  const cookie = await signIn('installer@nookpass.demo');
+  const token = (await api('/api/tokens', postJson({ name: 'bench' }, { cookie }))).body.token as string;
+  const body = JSON.stringify({ jurisdiction: 'demo-county', plan: hallClosetPassPlan });
+  const seconds = Number(process.env.NOOKPASS_BENCH_SECONDS ?? 10);
+  const common = { connections: 20, duration: seconds };
+  await load({ url: `${baseUrl}/api/ping`, ...common, duration: 2 }); // warm-up
+  const bare = await load({ url: `${baseUrl}/api/ping`, ...common });
+  const evals = await load({
+    url: `${baseUrl}/api/evaluations`,
+    method: 'POST',
+    headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
+    body,
+    ...common,
+  });
+  const summary = (r: autocannon.Result) => ({ rps: Math.round(r.requests.average), p50ms: r.latency.p50, p99ms: r.latency.p99, errors: r.errors, non2xx: r.non2xx });
+  results.http = { connections: 20, seconds, bare: summary(bare), evaluations: summary(evals), throughputRatio: +(evals.requests.average / bare.requests.average).toFixed(2), goal: '≥ 0.5' };
+  console.log('[bench] http', JSON.stringify(results.http));
+  expect(evals.non2xx).toBe(0);
+});
+
+it('first-load JavaScript of the plan editor', async () => {
+  const cookie = await signIn('installer@nookpass.demo');
+  const list = await api('/api/projects?pageSize=1', { cookie });
+  const html = await (await fetch(`${baseUrl}/projects/${list.body.items[0].id}/plan`, { headers: { cookie } })).text();
+  const srcs = [...new Set([...html.matchAll(/<script[^>]+src="([^"]+\.js)"/g)].map((m) => m[1]))];
+  let raw = 0;
+  let gz = 0;
+  for (const src of srcs) {
+    const bytes = Buffer.from(await (await fetch(new URL(src, baseUrl))).arrayBuffer());
+    raw += bytes.length;
+    gz += gzipSync(bytes).length;
+  }
+  results.planEditorJs = { scripts: srcs.length, rawKiB: Math.round(raw / 1024), gzipKiB: Math.round(gz / 1024) };
+  console.log('[bench] plan editor first-load JS', results.planEditorJs);
+  writeFileSync('test-results/bench.json', JSON.stringify(results, null, 2));
+  expect(srcs.length).toBeGreaterThan(0);
+});
