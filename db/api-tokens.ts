@@ -67,18 +67,24 @@ export async function countRecentTokens(db: DB, userId: string, sinceMs: number)
   return Number(row.n);
 }
 
-/** The live (not revoked) token's user, touching its last-used time. */
+// Last-used times are kept to the minute: one write per token per minute, not one per request.
+const TOUCH_EVERY_MS = 60_000;
+
+/** The live (not revoked) token's user; refreshes its last-used time when that is over a minute old. */
 export async function userForTokenHash(db: DB, tokenHash: string): Promise<AppUser | null> {
   const row = await db
-    .updateTable('api_tokens')
-    .set({ last_used_at: new Date() })
-    .from('users')
-    .whereRef('users.id', '=', 'api_tokens.user_id')
-    .where('api_tokens.token_hash', '=', tokenHash)
-    .where('api_tokens.revoked_at', 'is', null)
-    .returning([
+    .selectFrom('api_tokens')
+    .innerJoin('users', 'users.id', 'api_tokens.user_id')
+    .select([
+      'api_tokens.id as token_id', 'api_tokens.last_used_at',
       'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo',
     ])
+    .where('api_tokens.token_hash', '=', tokenHash)
+    .where('api_tokens.revoked_at', 'is', null)
     .executeTakeFirst();
-  return row ? toAppUser(row) : null;
+  if (!row) return null;
+  if (!row.last_used_at || Date.now() - new Date(row.last_used_at).getTime() > TOUCH_EVERY_MS) {
+    await db.updateTable('api_tokens').set({ last_used_at: new Date() }).where('id', '=', row.token_id).execute();
+  }
+  return toAppUser(row);
 }

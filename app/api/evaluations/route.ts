@@ -1,8 +1,8 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
-import { findJurisdictionBySlug } from '@/db/jurisdictions';
+import { findJurisdictionWithPublished } from '@/db/jurisdiction-lookup';
 import { requireUser } from '@/lib/auth/session';
-import { loadPublishedRuleSet } from '@/lib/checks/rule-set-cache';
+import { loadImmutableRuleSet } from '@/lib/checks/rule-set-cache';
 import { evaluate } from '@/lib/engine';
 import { NotFoundError, ValidationError } from '@/lib/errors';
 import { json, parseBody, route } from '@/lib/http';
@@ -20,9 +20,9 @@ export const POST = route(async (request) => {
   const parsed = parsePlan(body.plan);
   if (!parsed.ok) throw new ValidationError(parsed.errors.map((e) => ({ path: `plan.${e.path}`, message: e.message })));
   const db = getDb();
-  const jurisdiction = await findJurisdictionBySlug(db, body.jurisdiction);
+  const jurisdiction = await findJurisdictionWithPublished(db, body.jurisdiction);
   if (!jurisdiction) throw new NotFoundError(`No jurisdiction '${body.jurisdiction}'. GET /api/jurisdictions lists them.`);
-  const ruleSet = await loadPublishedRuleSet(db, jurisdiction.id);
+  const ruleSet = jurisdiction.publishedRuleSetId ? await loadImmutableRuleSet(db, jurisdiction.publishedRuleSetId) : null;
   if (!ruleSet) throw new NotFoundError(`${jurisdiction.name} has no published rule set yet.`);
   const result = await evaluate(
     { id: ruleSet.id, jurisdiction: jurisdiction.slug, version: ruleSet.version, parameters: ruleSet.parameters, rules: ruleSet.rules },
