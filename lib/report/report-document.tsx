@@ -13,13 +13,13 @@ export function registerReportFonts() {
   Font.register({
     family: 'Plex',
     fonts: [
-      { src: path.join(fontDir, 'IBMPlexSans-Regular.woff'), fontWeight: 400 },
-      { src: path.join(fontDir, 'IBMPlexSans-Italic.woff'), fontWeight: 400, fontStyle: 'italic' },
-      { src: path.join(fontDir, 'IBMPlexSans-SemiBold.woff'), fontWeight: 600 },
-      { src: path.join(fontDir, 'IBMPlexSans-Bold.woff'), fontWeight: 700 },
+      { src: path.join(fontDir, 'IBMPlexSans-Regular.ttf'), fontWeight: 400 },
+      { src: path.join(fontDir, 'IBMPlexSans-Italic.ttf'), fontWeight: 400, fontStyle: 'italic' },
+      { src: path.join(fontDir, 'IBMPlexSans-SemiBold.ttf'), fontWeight: 600 },
+      { src: path.join(fontDir, 'IBMPlexSans-Bold.ttf'), fontWeight: 700 },
     ],
   });
-  Font.register({ family: 'PlexMono', fonts: [{ src: path.join(fontDir, 'IBMPlexMono-Regular.woff'), fontWeight: 400 }] });
+  Font.register({ family: 'PlexMono', fonts: [{ src: path.join(fontDir, 'IBMPlexMono-Regular.ttf'), fontWeight: 400 }] });
   // Codes and section numbers must never be split by hyphenation.
   Font.registerHyphenationCallback((word) => [word]);
   fontsRegistered = true;
