@@ -1,6 +1,6 @@
 import 'server-only';
 import nodemailer, { type Transporter } from 'nodemailer';
-import { ServiceUnavailableError } from './errors';
+import { ServiceUnavailableError, ValidationError } from './errors';
 
 export function mailConfig() {
   return {
@@ -44,7 +44,12 @@ export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string 
     const info = await transport().sendMail({ from: mailConfig().from, ...mail });
     return { messageId: info.messageId };
   } catch (err) {
-    console.error('[mail]', (err as Error).message);
+    const e = err as Error & { responseCode?: number; response?: string; code?: string };
+    console.error('[mail]', e.message);
+    // A relay that answered and refused the address is a problem with the address, not an outage.
+    if (e.responseCode && e.responseCode >= 500 && e.code === 'EENVELOPE') {
+      throw new ValidationError([{ path: 'to', message: `The mail server refused ${mail.to}: ${e.response ?? e.message}` }]);
+    }
     throw new ServiceUnavailableError('The mail server is not reachable right now; the message was not sent. Try again in a moment.');
   }
 }

@@ -37,6 +37,15 @@ export async function startFakeSmtp(opts: FakeSmtpOptions): Promise<{ close: () 
     disabledCommands: ['STARTTLS'],
     size: 25 * 1024 * 1024,
     logger: false,
+    // Addresses at .invalid domains (RFC 2606) are refused, so tests can see a relay say no.
+    onRcptTo(address, _session, callback) {
+      if (/\.invalid$/i.test(address.address)) {
+        const err = new Error(`Mailbox unavailable: ${address.address}`) as Error & { responseCode: number };
+        err.responseCode = 550;
+        return callback(err);
+      }
+      callback();
+    },
     onData(stream, _session, callback) {
       const chunks: Buffer[] = [];
       stream.on('data', (c: Buffer) => chunks.push(c));

@@ -73,6 +73,11 @@ test('an installer plans a closet, fails the exhaust length, drops a fitting and
   await expect(page.getByTestId('changes-since')).toContainText('Fails → Pass');
   await page.screenshot({ path: `${shots}/check-pass.png`, fullPage: true });
 
+  // The drawing of the saved plan, with the exhaust schematic at the new total.
+  await page.getByRole('link', { name: 'Drawing' }).first().click();
+  await expect(page.getByRole('heading', { name: /Exhaust/ }).first()).toBeVisible();
+  await page.screenshot({ path: `${shots}/drawing.png`, fullPage: true });
+
   // The history keeps both checks and both revisions.
   await page.getByRole('link', { name: 'Overview' }).click();
   await expect(page.getByRole('table', { name: 'Check history' }).locator('tbody tr')).toHaveCount(2);

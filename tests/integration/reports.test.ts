@@ -180,6 +180,22 @@ describe('sending to the inspector and the review', () => {
     expect(send.status).toBe('sent');
   });
 
+  it('says so when the mail server refuses, keeps the check and the report, and records the failed send', async () => {
+    const before = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid' }, { cookie: installer }));
+    expect(res.status).toBe(400);
+    expect(res.body.errors[0]).toMatchObject({ path: 'to', message: expect.stringContaining('refused nobody@mailbox.invalid') });
+    const failed = await db.selectFrom('report_sends').selectAll().where('to_email', '=', 'nobody@mailbox.invalid').executeTakeFirstOrThrow();
+    expect(failed.status).toBe('failed');
+    const after = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+    expect(Number(after.n)).toBe(Number(before.n) + 1); // the report was issued and stays on record
+    expect((await api(`/api/checks/${checkId}`, { cookie: installer })).status).toBe(200);
+    // Not shown to any inspector: it never arrived.
+    const list = await api('/api/inspections', { cookie: inspector });
+    const failedCode = (await db.selectFrom('reports').select('code').where('id', '=', failed.report_id).executeTakeFirstOrThrow()).code;
+    expect(list.body.inspections.map((i: { code: string }) => i.code)).not.toContain(failedCode);
+  });
+
   it('shows the report to the inspector of the jurisdiction and to no other inspector', async () => {
     const mine = await api('/api/inspections', { cookie: inspector });
     expect(mine.body.inspections.map((i: { code: string }) => i.code)).toContain(code);

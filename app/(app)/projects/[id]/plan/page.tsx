@@ -49,7 +49,7 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
       {user.role !== 'installer' && <p className="mb-4 text-sm text-ink-soft">Admins can read plans; only the company’s installers save them.</p>}
       <div className="mb-5"><SafetyNotice compact /></div>
       <PlanEditor
-        key={revision?.id ?? 'new'}
+        key={revParam ? `revision-${revParam}` : 'latest'}
         projectId={project.id}
         initialPlan={(revision?.plan as PlanInput) ?? null}
         baseRevision={latest?.number ?? null}

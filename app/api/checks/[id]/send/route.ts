@@ -45,7 +45,7 @@ export const POST = route<Ctx>(async (request, { params }) => {
     await recordSend(db, { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, status: 'sent', error: null, messageId, actorId: user.id });
     return json({ sent: true, to, report: { code: report.code, sha256: report.sha256 } }, 201);
   } catch (err) {
-    if (!(err instanceof ServiceUnavailableError)) throw err;
+    if (!(err instanceof ServiceUnavailableError) && !(err instanceof ValidationError)) throw err;
     // The report stays issued and the failure is on record; sending again later works.
     await recordSend(db, { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, status: 'failed', error: err.message, messageId: null, actorId: user.id });
     throw err;
