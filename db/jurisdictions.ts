@@ -1,5 +1,7 @@
 import type { DB } from './index';
-import type { JurisdictionRow, PlumbingFamily } from './types';
+import { writeAudit } from './audit';
+import type { JurisdictionRow, NewJurisdiction, PlumbingFamily } from './types';
+import { NotFoundError, ValidationError } from '@/lib/errors';
 
 export type JurisdictionEditions = {
   building: string;
@@ -49,4 +51,65 @@ export async function listJurisdictions(db: DB): Promise<Jurisdiction[]> {
 export async function findJurisdictionBySlug(db: DB, slug: string): Promise<Jurisdiction | null> {
   const row = await db.selectFrom('jurisdictions').selectAll().where('slug', '=', slug).executeTakeFirst();
   return row ? toJurisdiction(row) : null;
+}
+
+export async function findJurisdictionById(db: DB, id: string): Promise<Jurisdiction | null> {
+  const row = await db.selectFrom('jurisdictions').selectAll().where('id', '=', id).executeTakeFirst();
+  return row ? toJurisdiction(row) : null;
+}
+
+export type JurisdictionFields = {
+  name: string;
+  region: string;
+  editions: JurisdictionEditions;
+  inspectorEmail: string | null;
+  amendmentNotes: string;
+};
+
+function toColumns(fields: Partial<JurisdictionFields>) {
+  return {
+    ...(fields.name !== undefined ? { name: fields.name } : {}),
+    ...(fields.region !== undefined ? { region: fields.region } : {}),
+    ...(fields.editions
+      ? {
+          building_edition: fields.editions.building,
+          electrical_edition: fields.editions.electrical,
+          plumbing_edition: fields.editions.plumbing,
+          plumbing_family: fields.editions.plumbingFamily,
+          mechanical_edition: fields.editions.mechanical,
+          fuel_gas_edition: fields.editions.fuelGas,
+        }
+      : {}),
+    ...(fields.inspectorEmail !== undefined ? { inspector_email: fields.inspectorEmail } : {}),
+    ...(fields.amendmentNotes !== undefined ? { amendment_notes: fields.amendmentNotes } : {}),
+  };
+}
+
+/** Inserts a jurisdiction; a taken slug is a field error, not a 500. Run it inside the caller's transaction. */
+export async function insertJurisdiction(db: DB, input: JurisdictionFields & { slug: string }): Promise<Jurisdiction> {
+  const taken = await db.selectFrom('jurisdictions').select('id').where('slug', '=', input.slug).executeTakeFirst();
+  if (taken) throw new ValidationError([{ path: 'slug', message: `'${input.slug}' is already used by another jurisdiction.` }]);
+  const row = await db
+    .insertInto('jurisdictions')
+    .values({ slug: input.slug, ...toColumns(input), updated_at: new Date() } as NewJurisdiction)
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  return toJurisdiction(row);
+}
+
+/** Updates the given fields and records what changed (before and after) in the audit log. */
+export async function updateJurisdiction(db: DB, id: string, fields: Partial<JurisdictionFields>, actorUserId: string): Promise<Jurisdiction> {
+  return db.transaction().execute(async (trx) => {
+    const before = await trx.selectFrom('jurisdictions').selectAll().where('id', '=', id).forUpdate().executeTakeFirst();
+    if (!before) throw new NotFoundError('No such jurisdiction.');
+    const columns = toColumns(fields);
+    const changed = Object.fromEntries(
+      Object.entries(columns).filter(([k, v]) => (before as Record<string, unknown>)[k] !== v).map(([k, v]) => [k, { from: (before as Record<string, unknown>)[k], to: v }]),
+    );
+    const row = Object.keys(changed).length
+      ? await trx.updateTable('jurisdictions').set({ ...columns, updated_at: new Date() }).where('id', '=', id).returningAll().executeTakeFirstOrThrow()
+      : before;
+    await writeAudit(trx, { actorUserId, action: 'jurisdiction.update', entityType: 'jurisdiction', entityId: id, details: { jurisdictionId: id, changed } });
+    return toJurisdiction(row);
+  });
 }

@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { getDb } from '@/db';
-import { listJurisdictions } from '@/db/jurisdictions';
+import { listJurisdictionOverview } from '@/db/rule-admin';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/auth/roles';
@@ -10,10 +11,12 @@ export const metadata: Metadata = { title: 'Jurisdictions' };
 
 export default async function JurisdictionsPage() {
   await requirePageUser(pageRoles['/jurisdictions'], '/jurisdictions');
-  const list = await listJurisdictions(getDb());
+  const list = await listJurisdictionOverview(getDb());
   return (
     <>
-      <PageHeader kicker="Administration" title="Jurisdictions" />
+      <PageHeader kicker="Administration" title="Jurisdictions">
+        <Link href="/jurisdictions/new" className="btn-primary">New jurisdiction</Link>
+      </PageHeader>
       {list.length === 0 ? (
         <EmptyState title="No jurisdictions yet">
           <p>Add the first jurisdiction with the code editions it adopted; its rule set follows from those editions.</p>
@@ -30,13 +33,15 @@ export default async function JurisdictionsPage() {
                 <th scope="col" className="px-4 py-3">Plumbing</th>
                 <th scope="col" className="px-4 py-3">Mechanical</th>
                 <th scope="col" className="px-4 py-3">Fuel gas</th>
+                <th scope="col" className="px-4 py-3">Rules</th>
               </tr>
             </thead>
             <tbody className="divide-y divide-rule">
               {list.map((j) => (
                 <tr key={j.id}>
                   <td className="px-4 py-3">
-                    <div className="font-semibold">{j.name} {j.isDemo && <span className="ml-1 rounded bg-brass-soft px-1.5 text-xs">demo</span>}</div>
+                    <Link href={`/jurisdictions/${j.slug}`} className="font-semibold underline-offset-2 hover:underline">{j.name}</Link>
+                    {j.isDemo && <span className="ml-1 rounded bg-brass-soft px-1.5 text-xs">demo</span>}
                     <div className="text-xs text-ink-faint">{j.region} · <code className="font-mono">{j.slug}</code></div>
                   </td>
                   <td className="px-4 py-3">{j.editions.building}</td>
@@ -44,6 +49,7 @@ export default async function JurisdictionsPage() {
                   <td className="px-4 py-3">{j.editions.plumbing} <span className="text-ink-faint">({j.editions.plumbingFamily})</span></td>
                   <td className="px-4 py-3">{j.editions.mechanical}</td>
                   <td className="px-4 py-3">{j.editions.fuelGas}</td>
+                  <td className="px-4 py-3"><Link href={`/rules/${j.slug}`} className="underline">{j.published ? `v${j.published.version}` : 'none published'}{j.draft ? ` · draft v${j.draft.version}` : ''}</Link></td>
                 </tr>
               ))}
             </tbody>

@@ -1,8 +1,12 @@
 import { getDb } from '@/db';
 import { listJurisdictions } from '@/db/jurisdictions';
+import { createJurisdictionWithDraft } from '@/db/rule-admin';
 import { publishedVersionsByJurisdiction } from '@/db/rule-sets';
+import { jurisdictionCreateSchema } from '@/lib/admin/jurisdiction-schema';
+import { publishErrors } from '@/lib/admin/publish-check';
+import { ValidationError } from '@/lib/errors';
 import { requireUser } from '@/lib/auth/session';
-import { json, route } from '@/lib/http';
+import { json, parseBody, route } from '@/lib/http';
 
 export const GET = route(async (request) => {
   await requireUser(request);
@@ -17,4 +21,15 @@ export const GET = route(async (request) => {
       publishedVersion: published.get(j.id) ?? null,
     })),
   );
+});
+
+/** Admins add a jurisdiction; its first draft starts from the baseline or another jurisdiction's published rules. */
+export const POST = route(async (request) => {
+  const user = await requireUser(request, ['admin']);
+  const input = await parseBody(request, jurisdictionCreateSchema);
+  const created = await createJurisdictionWithDraft(getDb(), input, user.id, (draft) => {
+    const errors = publishErrors(draft);
+    if (errors.length) throw new ValidationError(errors, 'The starting rules cannot be published as they are.');
+  });
+  return json(created, 201);
 });

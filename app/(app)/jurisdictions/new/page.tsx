@@ -1,0 +1,21 @@
+import type { Metadata } from 'next';
+import { getDb } from '@/db';
+import { listJurisdictionOverview } from '@/db/rule-admin';
+import { JurisdictionForm } from '@/components/admin/jurisdiction-form';
+import { PageHeader } from '@/components/ui/page-header';
+import { pageRoles } from '@/lib/auth/roles';
+import { requirePageUser } from '@/lib/auth/session';
+
+export const metadata: Metadata = { title: 'New jurisdiction' };
+
+export default async function NewJurisdictionPage() {
+  await requirePageUser(pageRoles['/jurisdictions'], '/jurisdictions/new');
+  const list = await listJurisdictionOverview(getDb());
+  const startOptions = list.filter((j) => j.published).map((j) => ({ slug: j.slug, name: j.name, version: j.published!.version }));
+  return (
+    <>
+      <PageHeader kicker="Administration" title="New jurisdiction" />
+      <JurisdictionForm startOptions={startOptions} />
+    </>
+  );
+}

@@ -1,0 +1,69 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { getDb } from '@/db';
+import { findJurisdictionBySlug } from '@/db/jurisdictions';
+import { computeImpact, type ImpactItem } from '@/db/rule-admin';
+import { FindingChanges } from '@/components/admin/dry-run-results';
+import { PageHeader } from '@/components/ui/page-header';
+import { pageRoles } from '@/lib/auth/roles';
+import { requirePageUser } from '@/lib/auth/session';
+
+export const metadata: Metadata = { title: 'Impact on projects' };
+
+const stateText: Record<ImpactItem['state'], string> = {
+  'would-change': 'would now come out differently',
+  unchanged: 'would come out the same',
+  current: 'already checked against the published version',
+  'never-checked': 'no check yet',
+};
+
+export default async function ImpactPage({ params, searchParams }: { params: Promise<{ slug: string }>; searchParams: Promise<{ published?: string }> }) {
+  const { slug } = await params;
+  const { published: justPublished } = await searchParams;
+  await requirePageUser(pageRoles['/rules'], `/rules/${slug}/impact`);
+  const db = getDb();
+  const jurisdiction = await findJurisdictionBySlug(db, slug);
+  if (!jurisdiction) notFound();
+  const impact = await computeImpact(db, jurisdiction.id);
+  const changing = impact.items.filter((i) => i.state === 'would-change');
+  const rest = impact.items.filter((i) => i.state !== 'would-change');
+
+  return (
+    <>
+      <PageHeader kicker={jurisdiction.name} title="Impact on projects">
+        <Link href={`/rules/${slug}`} className="btn-secondary">All versions</Link>
+      </PageHeader>
+      {justPublished && impact.published && (
+        <p role="status" className="card mb-4 border-status-pass p-4 text-sm" data-testid="published-notice">
+          Version {impact.published.version} is published: “{impact.published.changelog}”
+        </p>
+      )}
+      <p className="mb-4 max-w-prose text-sm text-ink-soft">
+        Each project’s latest check is re-evaluated against published version {impact.published?.version ?? '—'}, from the plan it checked.
+        The checks themselves stay as they were; their installers see that newer rules are published and can re-run.
+      </p>
+      <section className="card p-5" aria-labelledby="chg-h" data-testid="impact-changing">
+        <h2 id="chg-h" className="font-bold">{changing.length} project{changing.length === 1 ? '' : 's'} would now come out differently</h2>
+        <ul className="mt-2 divide-y divide-rule">
+          {changing.map((i) => (
+            <li key={i.projectId} className="py-3" data-project={i.name}>
+              <div className="font-semibold">{i.name}</div>
+              <div className="text-xs text-ink-faint">{i.organization} · latest check {i.latestCheck!.createdAt.toLocaleString()} on v{i.latestCheck!.version}, plan revision {i.latestCheck!.revisionNumber} · was {i.latestCheck!.outcome}, now {i.outcomeNow ?? 'unknown'}</div>
+              {i.error && <p className="text-sm text-status-fail">{i.error}</p>}
+              <FindingChanges changes={i.changes.filter((c) => c.statusChanged)} />
+            </li>
+          ))}
+        </ul>
+      </section>
+      <section className="card mt-6 p-5" aria-labelledby="rest-h">
+        <h2 id="rest-h" className="font-bold">Other open projects</h2>
+        {rest.length === 0 ? <p className="text-sm text-ink-soft">None.</p> : (
+          <ul className="mt-2 text-sm">
+            {rest.map((i) => <li key={i.projectId} data-project={i.name} data-state={i.state}>{i.name} <span className="text-ink-faint">({i.organization}): {stateText[i.state]}</span></li>)}
+          </ul>
+        )}
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,11 @@
+import { getDb } from '@/db';
+import { listJurisdictionAudit, requireJurisdiction } from '@/db/rule-admin';
+import { requireUser } from '@/lib/auth/session';
+import { json, route } from '@/lib/http';
+
+export const GET = route<{ params: Promise<{ slug: string }> }>(async (request, { params }) => {
+  await requireUser(request, ['admin']);
+  const db = getDb();
+  const jurisdiction = await requireJurisdiction(db, (await params).slug);
+  return json(await listJurisdictionAudit(db, jurisdiction.id, 200));
+});

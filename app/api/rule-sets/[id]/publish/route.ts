@@ -1,0 +1,27 @@
+import { getDb } from '@/db';
+import { requireRuleSet } from '@/db/rule-admin';
+import { publishDraft } from '@/db/rule-sets';
+import { publishErrors } from '@/lib/admin/publish-check';
+import { publishSchema } from '@/lib/admin/requests';
+import { requireUser } from '@/lib/auth/session';
+import { ValidationError } from '@/lib/errors';
+import { json, parseBody, route } from '@/lib/http';
+
+/** Publishes the draft revision the admin reviewed; the previous published version is retired with it. */
+export const POST = route<{ params: Promise<{ id: string }> }>(async (request, { params }) => {
+  const user = await requireUser(request, ['admin']);
+  const db = getDb();
+  const set = await requireRuleSet(db, (await params).id);
+  const body = await parseBody(request, publishSchema);
+  const result = await publishDraft(db, {
+    id: set.id,
+    revision: body.revision,
+    changelog: body.changelog,
+    actorUserId: user.id,
+    validate: (draft) => {
+      const errors = publishErrors(draft);
+      if (errors.length) throw new ValidationError(errors, 'This draft cannot be published yet.');
+    },
+  });
+  return json(result);
+});

@@ -1,0 +1,36 @@
+import { getDb } from '@/db';
+import { requireRuleSet } from '@/db/rule-admin';
+import { publishDraft } from '@/db/rule-sets';
+import { publishErrors } from '@/lib/admin/publish-check';
+import { retireSchema } from '@/lib/admin/requests';
+import { requireUser } from '@/lib/auth/session';
+import { ConflictError, ValidationError } from '@/lib/errors';
+import { json, parseBody, route } from '@/lib/http';
+
+/**
+ * Retires the published version by publishing its successor in the same transaction. A
+ * jurisdiction is never left without published rules, so a retire without a successor is refused.
+ */
+export const POST = route<{ params: Promise<{ id: string }> }>(async (request, { params }) => {
+  const user = await requireUser(request, ['admin']);
+  const db = getDb();
+  const set = await requireRuleSet(db, (await params).id);
+  if (set.status === 'draft') throw new ConflictError(`Version ${set.version} is a draft; discard it instead of retiring it.`);
+  if (set.status === 'retired') throw new ConflictError(`Version ${set.version} is already retired.`);
+  const body = await parseBody(request, retireSchema);
+  const successor = await requireRuleSet(db, body.successorId).catch(() => null);
+  if (!successor || successor.jurisdictionId !== set.jurisdictionId || successor.status !== 'draft') {
+    throw new ValidationError([{ path: 'successorId', message: `The successor must be an open draft of ${set.jurisdictionSlug}.` }]);
+  }
+  const result = await publishDraft(db, {
+    id: successor.id,
+    revision: body.revision,
+    changelog: body.changelog,
+    actorUserId: user.id,
+    validate: (draft) => {
+      const errors = publishErrors(draft);
+      if (errors.length) throw new ValidationError(errors, 'The successor cannot be published yet.');
+    },
+  });
+  return json(result);
+});

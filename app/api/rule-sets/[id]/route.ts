@@ -1,0 +1,39 @@
+import { getDb } from '@/db';
+import { findJurisdictionById } from '@/db/jurisdictions';
+import { requireRuleSet } from '@/db/rule-admin';
+import { discardDraft, saveDraft } from '@/db/rule-sets';
+import { citationMismatches } from '@/lib/admin/citations';
+import { draftSaveSchema, revisionQuerySchema } from '@/lib/admin/requests';
+import { requireUser } from '@/lib/auth/session';
+import { ValidationError } from '@/lib/errors';
+import { json, parseBody, route, zodErrors } from '@/lib/http';
+
+type Ctx = { params: Promise<{ id: string }> };
+
+export const GET = route<Ctx>(async (request, { params }) => {
+  await requireUser(request, ['admin']);
+  const db = getDb();
+  const set = await requireRuleSet(db, (await params).id);
+  const jurisdiction = await findJurisdictionById(db, set.jurisdictionId);
+  return json({ ...set, citationMismatches: jurisdiction ? citationMismatches(set.rules, jurisdiction.editions) : [] });
+});
+
+/** Saves a draft's parameters and/or changelog; refused with 409 when someone saved a newer revision. */
+export const PATCH = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['admin']);
+  const db = getDb();
+  const set = await requireRuleSet(db, (await params).id);
+  const body = await parseBody(request, draftSaveSchema);
+  return json(await saveDraft(db, { id: set.id, revision: body.revision, parameters: body.parameters, changelog: body.changelog, actorUserId: user.id }));
+});
+
+/** Discards a draft: DELETE /api/rule-sets/<id>?revision=<n>. Published and retired versions cannot be deleted. */
+export const DELETE = route<Ctx>(async (request, { params }) => {
+  const user = await requireUser(request, ['admin']);
+  const db = getDb();
+  const set = await requireRuleSet(db, (await params).id);
+  const query = revisionQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
+  if (!query.success) throw new ValidationError(zodErrors(query.error));
+  await discardDraft(db, { id: set.id, revision: query.data.revision, actorUserId: user.id });
+  return new Response(null, { status: 204 });
+});

@@ -1,0 +1,19 @@
+import { getDb } from '@/db';
+import { requireRuleSet } from '@/db/rule-admin';
+import { editDraftRule } from '@/db/rule-sets';
+import { ruleSaveSchema } from '@/lib/admin/requests';
+import { parseRuleInput } from '@/lib/admin/rule-input';
+import { requireUser } from '@/lib/auth/session';
+import { ValidationError } from '@/lib/errors';
+import { json, parseBody, route } from '@/lib/http';
+
+/** Adds a rule to a draft; its conditions are checked against the fact catalog before anything is saved. */
+export const POST = route<{ params: Promise<{ id: string }> }>(async (request, { params }) => {
+  const user = await requireUser(request, ['admin']);
+  const db = getDb();
+  const set = await requireRuleSet(db, (await params).id);
+  const body = await parseBody(request, ruleSaveSchema);
+  const parsed = parseRuleInput(body.rule);
+  if (!parsed.ok) throw new ValidationError(parsed.errors);
+  return json(await editDraftRule(db, { id: set.id, revision: body.revision, edit: { kind: 'add', rule: parsed.rule }, actorUserId: user.id }), 201);
+});

@@ -1,0 +1,62 @@
+import type { RuleSetDiff, ValueChange } from '@/lib/admin/diff';
+import type { StoredRule } from '@/rules';
+
+function show(value: unknown): string {
+  if (value === null || value === undefined) return '—';
+  if (typeof value === 'string') return value;
+  return JSON.stringify(value, null, 2);
+}
+
+function ChangeRows({ changes }: { changes: ValueChange[] }) {
+  return (
+    <>
+      {changes.map((c) => (
+        <tr key={c.path} data-diff-path={c.path}>
+          <th scope="row" className="py-1 pr-3 text-left align-top font-mono text-xs font-normal">{c.path}</th>
+          <td className="bg-status-fail/5 px-2 py-1 align-top"><pre className="whitespace-pre-wrap break-all font-mono text-xs" data-side="from">{show(c.from)}</pre></td>
+          <td className="bg-status-pass/5 px-2 py-1 align-top"><pre className="whitespace-pre-wrap break-all font-mono text-xs" data-side="to">{show(c.to)}</pre></td>
+        </tr>
+      ))}
+    </>
+  );
+}
+
+function RuleLine({ rule }: { rule: StoredRule }) {
+  return (
+    <span>
+      <span className="font-mono text-xs">{rule.key}</span> — {rule.title} ({[rule.citation.code, rule.citation.edition, rule.citation.section].filter(Boolean).join(' ')}){!rule.enabled && ' · disabled'}
+    </span>
+  );
+}
+
+/** Side by side: parameters, then rules added, removed and changed (field by field). */
+export function DiffView({ diff, fromLabel, toLabel }: { diff: RuleSetDiff; fromLabel: string; toLabel: string }) {
+  const head = (
+    <thead className="text-left text-xs uppercase tracking-wide text-ink-faint">
+      <tr><th className="py-1 pr-3">Field</th><th className="px-2">{fromLabel}</th><th className="px-2">{toLabel}</th></tr>
+    </thead>
+  );
+  return (
+    <div className="space-y-6" data-testid="diff">
+      <section className="card p-5" aria-labelledby="dp-h">
+        <h2 id="dp-h" className="font-bold">Parameters ({diff.parameters.length} changed)</h2>
+        {diff.parameters.length === 0 ? <p className="mt-2 text-sm text-ink-soft">The same.</p> : <table className="mt-2 w-full table-fixed text-sm">{head}<tbody className="divide-y divide-rule"><ChangeRows changes={diff.parameters} /></tbody></table>}
+      </section>
+      <section className="card p-5" aria-labelledby="dr-h">
+        <h2 id="dr-h" className="font-bold">Rules: {diff.rules.added.length} added, {diff.rules.removed.length} removed, {diff.rules.changed.length} changed, {diff.rules.unchanged} the same</h2>
+        {diff.rules.added.length > 0 && (
+          <div className="mt-3"><h3 className="text-sm font-semibold text-status-pass">Added in {toLabel}</h3><ul className="text-sm">{diff.rules.added.map((r) => <li key={r.key} data-added={r.key}><RuleLine rule={r} /></li>)}</ul></div>
+        )}
+        {diff.rules.removed.length > 0 && (
+          <div className="mt-3"><h3 className="text-sm font-semibold text-status-fail">Removed since {fromLabel}</h3><ul className="text-sm">{diff.rules.removed.map((r) => <li key={r.key} data-removed={r.key}><RuleLine rule={r} /></li>)}</ul></div>
+        )}
+        {diff.rules.changed.map((c) => (
+          <div key={c.key} className="mt-4" data-changed-rule={c.key}>
+            <h3 className="text-sm font-semibold"><span className="font-mono text-xs">{c.key}</span> — {c.title}</h3>
+            <table className="mt-1 w-full table-fixed text-sm">{head}<tbody className="divide-y divide-rule"><ChangeRows changes={c.fields} /></tbody></table>
+          </div>
+        ))}
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,175 @@
+'use client';
+
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
+import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
+import { fieldsOf, readPath, type FormField } from '@/lib/admin/form-schema';
+import { ApiError } from '@/lib/client/fetch-json';
+import { ruleSetParametersSchema, type RuleSetParameters } from '@/lib/params';
+import { formatLength } from '@/lib/units';
+
+// Generated once from the zod schema: a parameter added there appears here with its description as label.
+const FIELDS = fieldsOf(ruleSetParametersSchema);
+
+type Values = Record<string, unknown>;
+
+const idFor = (path: string) => `p-${path.replace(/\./g, '-')}`;
+
+function errorAt(errors: FieldErrors<Values>, path: string): string | undefined {
+  const node = path.split('.').reduce<unknown>((acc, k) => (acc as Record<string, unknown> | undefined)?.[k], errors) as { message?: string } | undefined;
+  return typeof node?.message === 'string' ? node.message : undefined;
+}
+
+const toNumber = (nullable: boolean) => (v: unknown) => {
+  if (typeof v === 'number') return v;
+  const text = String(v ?? '').trim();
+  if (text === '') return nullable ? null : undefined;
+  return Number(text);
+};
+
+function LengthHint({ control, path }: { control: Control<Values>; path: string }) {
+  const value = useWatch({ control, name: path });
+  if (typeof value !== 'number' || !Number.isFinite(value) || value < 12) return null;
+  return <span className="ml-2 font-mono text-xs text-ink-faint" data-testid={`hint-${path}`}>= {formatLength(value, 'imperial')}</span>;
+}
+
+function Leaf({ field, path, register, errors, control, readOnly }: { field: Exclude<FormField, { kind: 'group' | 'rows' }>; path: string; register: UseFormRegister<Values>; errors: FieldErrors<Values>; control: Control<Values>; readOnly: boolean }) {
+  const id = idFor(path);
+  const message = errorAt(errors, path);
+  const aria = { id, 'aria-invalid': message ? true : undefined, 'aria-describedby': message ? `${id}-error` : undefined, disabled: readOnly };
+  let input: React.ReactNode;
+  if (field.kind === 'number') {
+    input = (
+      <div className="flex items-center">
+        <input type="number" step="any" inputMode="decimal" min={field.min ?? undefined} className="field-input max-w-[10rem]" {...aria} {...register(path, { setValueAs: toNumber(field.nullable) })} />
+        {field.unit && <span className="ml-2 text-sm text-ink-soft">{field.unit}</span>}
+        {field.unit === 'in' && <LengthHint control={control} path={path} />}
+      </div>
+    );
+  } else if (field.kind === 'boolean') {
+    input = <input type="checkbox" className="mt-2 h-5 w-5" {...aria} {...register(path)} />;
+  } else if (field.kind === 'enum') {
+    input = (
+      <select className="field-input max-w-md" {...aria} {...register(path)}>
+        {field.options.map((o) => <option key={o} value={o}>{o}</option>)}
+      </select>
+    );
+  } else {
+    input = <input className="field-input max-w-md" {...aria} {...register(path, field.nullable ? { setValueAs: (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v) } : {})} />;
+  }
+  return (
+    <div>
+      <label htmlFor={id} className="field-label font-normal">
+        {field.label}
+        {field.kind !== 'boolean' && 'nullable' in field && field.nullable && <span className="text-ink-faint"> (leave empty for none)</span>}
+      </label>
+      {input}
+      {message && <p id={`${id}-error`} role="alert" className="field-error">{message}</p>}
+    </div>
+  );
+}
+
+function Rows({ field, control, register, errors, readOnly }: { field: Extract<FormField, { kind: 'rows' }>; control: Control<Values>; register: UseFormRegister<Values>; errors: FieldErrors<Values>; readOnly: boolean }) {
+  const { fields, append, remove } = useFieldArray({ control, name: field.path as never });
+  const message = errorAt(errors, field.path);
+  return (
+    <fieldset className="rounded-md border border-rule p-3">
+      <legend className="px-1 text-sm font-semibold">{field.label}</legend>
+      <table className="text-sm">
+        <thead><tr>{field.row.map((c) => <th key={c.path} className="pr-3 text-left font-normal text-ink-soft">{c.label}</th>)}<th /></tr></thead>
+        <tbody>
+          {fields.map((row, i) => (
+            <tr key={row.id}>
+              {field.row.map((c) => {
+                const path = `${field.path}.${i}.${c.path}`;
+                const cellError = errorAt(errors, path);
+                return (
+                  <td key={c.path} className="pr-3 align-top">
+                    <input type="number" step="any" aria-label={`${c.label}, row ${i + 1}`} id={idFor(path)} disabled={readOnly} className="field-input w-28" aria-invalid={cellError ? true : undefined} {...register(path, { setValueAs: toNumber(false) })} />
+                    {cellError && <p role="alert" className="field-error">{cellError}</p>}
+                  </td>
+                );
+              })}
+              <td>{!readOnly && <button type="button" className="btn-secondary px-2 py-1" onClick={() => remove(i)} aria-label={`Remove row ${i + 1}`}>Remove</button>}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+      {!readOnly && <button type="button" className="btn-secondary mt-2 px-2 py-1" onClick={() => append(Object.fromEntries(field.row.map((c) => [c.path, 0])) as never)}>Add row</button>}
+      {message && <p role="alert" className="field-error">{message}</p>}
+    </fieldset>
+  );
+}
+
+function Group({ fields, ...rest }: { fields: FormField[]; values: unknown; control: Control<Values>; register: UseFormRegister<Values>; errors: FieldErrors<Values>; readOnly: boolean }) {
+  return (
+    <div className="space-y-4">
+      {fields.map((f) => {
+        if (f.kind === 'group' && f.path === 'editions') {
+          // Shown, not edited: the editions belong to the jurisdiction and stay in the form's values as loaded.
+          return (
+            <fieldset key={f.path} className="space-y-2 border-t border-rule pt-4">
+              <legend className="text-base font-bold">{f.label}</legend>
+              <p className="text-xs text-ink-faint">From the jurisdiction. To change them, edit the jurisdiction and start a draft from the baseline.</p>
+              <dl className="grid grid-cols-2 gap-x-4 text-sm sm:grid-cols-3">
+                {f.children.map((c) => (
+                  <div key={c.path}><dt className="text-ink-faint">{c.path.split('.').pop()}</dt><dd data-testid={`edition-${c.path}`}>{String(readPath(rest.values, c.path) ?? '')}</dd></div>
+                ))}
+              </dl>
+            </fieldset>
+          );
+        }
+        if (f.kind === 'group') {
+          return (
+            <fieldset key={f.path} className="space-y-3 border-t border-rule pt-4">
+              <legend className="text-base font-bold">{f.label}</legend>
+              <Group fields={f.children} {...rest} />
+            </fieldset>
+          );
+        }
+        if (f.kind === 'rows') return <Rows key={f.path} field={f} control={rest.control} register={rest.register} errors={rest.errors} readOnly={rest.readOnly} />;
+        return <Leaf key={f.path} field={f} path={f.path} control={rest.control} register={rest.register} errors={rest.errors} readOnly={rest.readOnly} />;
+      })}
+    </div>
+  );
+}
+
+/**
+ * The rule set parameters, as a form generated from ruleSetParametersSchema; the route handler
+ * parses the same schema. Read-only for published and retired versions.
+ */
+export function ParametersForm({ parameters, readOnly = false, onSave }: { parameters: RuleSetParameters; readOnly?: boolean; onSave?: (parameters: RuleSetParameters) => Promise<void> }) {
+  const [status, setStatus] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
+  const { register, control, handleSubmit, setError, formState: { errors, isSubmitting, isDirty }, reset } = useForm<Values>({
+    resolver: zodResolver(ruleSetParametersSchema as never),
+    defaultValues: parameters as unknown as Values,
+  });
+
+  async function submit(values: Values) {
+    if (!onSave) return;
+    setStatus(null);
+    try {
+      await onSave(values as unknown as RuleSetParameters);
+      reset(values);
+      setStatus({ kind: 'ok', text: 'Parameters saved to the draft.' });
+    } catch (err) {
+      if (err instanceof ApiError && err.errors.length) {
+        for (const e of err.errors) setError(e.path.replace(/^parameters\./, '') as never, { message: e.message });
+        setStatus({ kind: 'error', text: 'Some parameters need attention; nothing was saved.' });
+      } else setStatus({ kind: 'error', text: (err as Error).message });
+    }
+  }
+
+  return (
+    <form onSubmit={handleSubmit(submit, () => setStatus({ kind: 'error', text: 'Some parameters need attention; nothing was saved.' }))} noValidate aria-label="Rule set parameters">
+      <Group fields={FIELDS} values={parameters} control={control} register={register} errors={errors} readOnly={readOnly} />
+      {!readOnly && (
+        <div className="sticky bottom-0 mt-4 flex flex-wrap items-center gap-3 border-t border-rule bg-white py-3">
+          <button type="submit" className="btn-primary" disabled={isSubmitting}>Save parameters</button>
+          <span className="text-sm text-ink-soft" data-testid="parameters-state">{isDirty ? 'Unsaved changes' : 'No unsaved changes'}</span>
+          {status && <span role={status.kind === 'error' ? 'alert' : 'status'} className={status.kind === 'error' ? 'text-sm text-status-fail' : 'text-sm text-status-pass'} data-testid="parameters-status">{status.text}</span>}
+        </div>
+      )}
+    </form>
+  );
+}
