@@ -101,9 +101,9 @@ function Rows({ field, control, register, errors, readOnly }: { field: Extract<F
   );
 }
 
-function Group({ fields, ...rest }: { fields: FormField[]; values: unknown; control: Control<Values>; register: UseFormRegister<Values>; errors: FieldErrors<Values>; readOnly: boolean }) {
+function Group({ fields, columns = false, ...rest }: { fields: FormField[]; columns?: boolean; values: unknown; control: Control<Values>; register: UseFormRegister<Values>; errors: FieldErrors<Values>; readOnly: boolean }) {
   return (
-    <div className="space-y-4">
+    <div className={columns ? 'grid gap-4 md:grid-cols-2' : 'space-y-4'}>
       {fields.map((f) => {
         if (f.kind === 'group' && f.path === 'editions') {
           // Shown, not edited: the editions belong to the jurisdiction and stay in the form's values as loaded.
@@ -121,13 +121,13 @@ function Group({ fields, ...rest }: { fields: FormField[]; values: unknown; cont
         }
         if (f.kind === 'group') {
           return (
-            <fieldset key={f.path} className="space-y-3 border-t border-rule pt-4">
+            <fieldset key={f.path} className="space-y-3 border-t border-rule pt-4 md:col-span-2">
               <legend className="text-base font-bold">{f.label}</legend>
-              <Group fields={f.children} {...rest} />
+              <Group fields={f.children} columns {...rest} />
             </fieldset>
           );
         }
-        if (f.kind === 'rows') return <Rows key={f.path} field={f} control={rest.control} register={rest.register} errors={rest.errors} readOnly={rest.readOnly} />;
+        if (f.kind === 'rows') return <div key={f.path} className="md:col-span-2"><Rows field={f} control={rest.control} register={rest.register} errors={rest.errors} readOnly={rest.readOnly} /></div>;
         return <Leaf key={f.path} field={f} path={f.path} control={rest.control} register={rest.register} errors={rest.errors} readOnly={rest.readOnly} />;
       })}
     </div>
