@@ -24,7 +24,15 @@ type DryRun = { published: { version: number } | null; draft: { version: number;
 export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: string }) {
   const router = useRouter();
   const url = `/api/rule-sets/${initial.id}`;
-  const { data, mutate } = useSWR<DraftSet>(url, swrFetcher, { fallbackData: initial, revalidateOnFocus: false, revalidateOnReconnect: false });
+  // The revision must stay the one the form's values came from: a silent refetch on mount would
+  // pick up another admin's newer revision and let a stale form overwrite it.
+  const { data, mutate } = useSWR<DraftSet>(url, swrFetcher, {
+    fallbackData: initial,
+    revalidateOnMount: false,
+    revalidateIfStale: false,
+    revalidateOnFocus: false,
+    revalidateOnReconnect: false,
+  });
   const set = data ?? initial;
   const [conflict, setConflict] = useState<string | null>(null);
   const [reloads, setReloads] = useState(0);
