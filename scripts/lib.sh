@@ -192,31 +192,51 @@ export NOOKPASS_INBOX_PORT="${NOOKPASS_INBOX_PORT:-54326}"
 export NOOKPASS_S3_PORT="${NOOKPASS_S3_PORT:-54327}"
 
 # The local fake mail relay (with its inbox page) and the fake S3 endpoint, both on loopback.
+# Starts one fake ("smtp" or "s3") in the background; its pid goes to .data/fake-<name><suffix>.pid.
+start_fake() {
+  local name="$1" suffix="${2:-}"
+  case "$name" in
+    smtp) NOOKPASS_MAIL_DIR="$NP_DATA/mail$suffix" node_modules/.bin/tsx lib/fakes/fake-smtp.ts > "$NP_DATA/fake-smtp$suffix.log" 2>&1 & ;;
+    s3) NOOKPASS_S3_DIR="$NP_DATA/s3$suffix" node_modules/.bin/tsx lib/fakes/fake-s3.ts > "$NP_DATA/fake-s3$suffix.log" 2>&1 & ;;
+    *) die "unknown fake service '$name'" ;;
+  esac
+  echo $! > "$NP_DATA/fake-$name$suffix.pid"
+  local port="$NOOKPASS_SMTP_PORT"; [ "$name" = "s3" ] && port="$NOOKPASS_S3_PORT"
+  for _ in $(seq 1 60); do
+    port_busy "$port" && return 0
+    sleep 0.25
+  done
+  cat "$NP_DATA/fake-$name$suffix.log" >&2
+  die "The local $name server did not start; see above."
+}
+
+stop_fake() {
+  local name="$1" suffix="${2:-}" pidfile="$NP_DATA/fake-$1${2:-}.pid"
+  if [ -f "$pidfile" ]; then
+    local pid; pid="$(cat "$pidfile")"
+    if kill -0 "$pid" 2>/dev/null; then
+      kill -TERM "$pid" 2>/dev/null || true
+      for _ in $(seq 1 40); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
+    fi
+    rm -f "$pidfile"
+  fi
+}
+
+# The local fake mail relay (with its inbox page) and the fake S3 endpoint, both on loopback.
 start_fakes() {
-  local suffix="${1:-}"
+  FAKES_SUFFIX="${1:-}"
   mkdir -p "$NP_DATA"
   for port in "$NOOKPASS_SMTP_PORT" "$NOOKPASS_INBOX_PORT" "$NOOKPASS_S3_PORT"; do
     if port_busy "$port"; then
       die "Port $port on 127.0.0.1 is in use by another program (NookPass's local mail or file server needs it). Stop it, or set NOOKPASS_SMTP_PORT / NOOKPASS_INBOX_PORT / NOOKPASS_S3_PORT."
     fi
   done
-  NOOKPASS_MAIL_DIR="$NP_DATA/mail$suffix" node_modules/.bin/tsx lib/fakes/fake-smtp.ts > "$NP_DATA/fake-smtp.log" 2>&1 &
-  FAKE_SMTP_PID=$!
-  NOOKPASS_S3_DIR="$NP_DATA/s3$suffix" node_modules/.bin/tsx lib/fakes/fake-s3.ts > "$NP_DATA/fake-s3.log" 2>&1 &
-  FAKE_S3_PID=$!
-  for _ in $(seq 1 40); do
-    if port_busy "$NOOKPASS_SMTP_PORT" && port_busy "$NOOKPASS_S3_PORT"; then
-      say "Local mail relay on 127.0.0.1:$NOOKPASS_SMTP_PORT (inbox http://127.0.0.1:$NOOKPASS_INBOX_PORT), file storage on 127.0.0.1:$NOOKPASS_S3_PORT."
-      return 0
-    fi
-    sleep 0.25
-  done
-  cat "$NP_DATA/fake-smtp.log" "$NP_DATA/fake-s3.log" >&2
-  die "The local mail or file server did not start; see above."
+  start_fake smtp "$FAKES_SUFFIX"
+  start_fake s3 "$FAKES_SUFFIX"
+  say "Local mail relay on 127.0.0.1:$NOOKPASS_SMTP_PORT (inbox http://127.0.0.1:$NOOKPASS_INBOX_PORT), file storage on 127.0.0.1:$NOOKPASS_S3_PORT."
 }
 
 stop_fakes() {
-  for pid in "${FAKE_SMTP_PID:-}" "${FAKE_S3_PID:-}"; do
-    if [ -n "$pid" ] && kill -0 "$pid" 2>/dev/null; then kill -TERM "$pid" 2>/dev/null || true; fi
-  done
+  stop_fake smtp "${FAKES_SUFFIX:-}"
+  stop_fake s3 "${FAKES_SUFFIX:-}"
 }

@@ -11,6 +11,8 @@ if [ -f "$NP_DATA/app.pid" ] && kill -0 "$(cat "$NP_DATA/app.pid")" 2>/dev/null;
   kill -TERM "$(cat "$NP_DATA/app.pid")" 2>/dev/null || true
 fi
 rm -f "$NP_DATA/app.pid" "$NP_DATA/start.pid"
+stop_fake smtp
+stop_fake s3
 if NP_PGBIN="$(find_pg_bin)"; then
   export NP_PGBIN
   if [ "$(id -u)" = "0" ]; then export NP_PG_OSUSER="${NOOKPASS_PG_OSUSER:-postgres}"; fi

@@ -50,6 +50,7 @@ npx next build
 
 rm -rf "$NP_DATA/mail-test" "$NP_DATA/s3-test"
 start_fakes -test
+export NOOKPASS_FAKES_SUFFIX=-test
 export NOOKPASS_INBOX_URL="http://127.0.0.1:$NOOKPASS_INBOX_PORT"
 
 say "Serving the built app on 127.0.0.1:$TEST_PORT…"
@@ -63,6 +64,9 @@ done
 
 say "Integration tests (real PostgreSQL, the served app)…"
 npx vitest run tests/integration
+
+say "Load and fault tests (PostgreSQL, mail and storage taken away and brought back)…"
+npx vitest run --config vitest.faults.config.mts
 
 say "End-to-end tests (Playwright in Debian Chromium)…"
 npx playwright test
