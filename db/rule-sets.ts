@@ -107,17 +107,18 @@ export async function publishedVersionsByJurisdiction(db: DB): Promise<Map<strin
  * Writes a complete version and publishes it in one transaction: the previous published version
  * is retired, and an audit entry records who did it.
  */
+/** The next version number of a jurisdiction's rule set (versions never repeat, retired ones included). */
+async function nextVersionNumber(db: DB, jurisdictionId: string): Promise<number> {
+  const last = await db.selectFrom('rule_sets').select((eb) => eb.fn.max('version').as('v')).where('jurisdiction_id', '=', jurisdictionId).executeTakeFirst();
+  return Number(last?.v ?? 0) + 1;
+}
+
 export async function createPublishedVersion(
   db: DB,
   input: { jurisdictionId: string; parameters: RuleSetParameters; rules: StoredRule[]; changelog: string; actorUserId: string | null },
 ): Promise<RuleSetVersion> {
   return db.transaction().execute(async (trx) => {
-    const last = await trx
-      .selectFrom('rule_sets')
-      .select((eb) => eb.fn.max('version').as('v'))
-      .where('jurisdiction_id', '=', input.jurisdictionId)
-      .executeTakeFirst();
-    const version = Number(last?.v ?? 0) + 1;
+    const version = await nextVersionNumber(trx, input.jurisdictionId);
     const draft = await trx
       .insertInto('rule_sets')
       .values({
@@ -230,12 +231,7 @@ export type DraftInput = {
 export async function insertDraft(trx: DB, input: DraftInput): Promise<RuleSetVersion> {
   const open = await trx.selectFrom('rule_sets').select('version').where('jurisdiction_id', '=', input.jurisdictionId).where('status', '=', 'draft').executeTakeFirst();
   if (open) throw new ConflictError(`Version ${open.version} is already an open draft for this jurisdiction; continue it, or discard it first.`);
-  const last = await trx
-    .selectFrom('rule_sets')
-    .select((eb) => eb.fn.max('version').as('v'))
-    .where('jurisdiction_id', '=', input.jurisdictionId)
-    .executeTakeFirst();
-  const version = Number(last?.v ?? 0) + 1;
+  const version = await nextVersionNumber(trx, input.jurisdictionId);
   const row = await trx
     .insertInto('rule_sets')
     .values({

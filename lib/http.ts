@@ -63,7 +63,8 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof NotFoundError) return json({ error: err.message }, 404);
   if (err instanceof ConflictError) return json({ error: err.message }, 409);
   if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
-  if (err instanceof ServiceUnavailableError || isDatabaseDown(err)) {
+  if (err instanceof ServiceUnavailableError) return json({ error: err.message }, { status: 503, headers: { 'retry-after': '5' } });
+  if (isDatabaseDown(err)) {
     return json({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);
   }
   const requestId = randomUUID();

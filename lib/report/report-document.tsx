@@ -1,5 +1,6 @@
 import path from 'node:path';
 import { Document, Font, Image, Page, Path, Rect, StyleSheet, Svg, Text, View } from '@react-pdf/renderer';
+import { areaTitles as areaTitle } from '@/lib/areas';
 import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/drawing';
 import type { Finding } from '@/lib/engine';
 import { PdfDrawing } from './pdf-drawing';
@@ -43,16 +44,6 @@ const statusWord: Record<Finding['status'], string> = {
   caution: 'CAUTION',
   'needs-info': 'NEEDS INFO',
   'not-applicable': 'N/A',
-};
-const areaTitle: Record<string, string> = {
-  exhaust: 'Dryer exhaust',
-  'makeup-air': 'Make-up air',
-  gas: 'Gas',
-  electrical: 'Electrical',
-  plumbing: 'Plumbing',
-  clearances: 'Service clearance',
-  service: 'Removal path',
-  'door-hardware': 'Door hardware room',
 };
 
 const s = StyleSheet.create({
