@@ -3,7 +3,7 @@
 import { useMemo, useState } from 'react';
 import type { Finding } from '@/lib/engine';
 import { StatusBadge, type Status } from '@/components/ui/status-badge';
-import { areaOrder, areaTitles, citationText, confidenceLabel } from './areas';
+import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/areas';
 
 type Filter = 'all' | 'problems' | 'fail';
 
