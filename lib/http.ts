@@ -35,13 +35,34 @@ export async function readJson(request: Request): Promise<unknown> {
   }
   const declared = Number(request.headers.get('content-length') ?? '0');
   if (declared > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
-  const text = await request.text();
-  if (Buffer.byteLength(text) > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
+  const text = await readTextUpTo(request, MAX_JSON_BYTES);
   try {
     return JSON.parse(text);
   } catch {
     throw new ValidationError([{ path: '(body)', message: 'The body is not valid JSON.' }]);
   }
+}
+
+/**
+ * Reads the body as UTF-8, stopping once it passes the limit: a chunked body declares no length,
+ * so counting as it arrives is what keeps an endless upload from being buffered whole.
+ */
+async function readTextUpTo(request: Request, limit: number): Promise<string> {
+  if (!request.body) return '';
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > limit) {
+      await reader.cancel().catch(() => undefined);
+      throw new PayloadTooLargeError(`The body is over ${limit / 1024} KiB.`);
+    }
+    chunks.push(value);
+  }
+  return new TextDecoder().decode(Buffer.concat(chunks));
 }
 
 export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
