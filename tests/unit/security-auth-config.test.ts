@@ -18,7 +18,7 @@ type InternalCookie = { name: string; value: string; options: { httpOnly?: boole
 async function refreshedSessionCookies(publicUrl: string): Promise<InternalCookie[]> {
   vi.stubEnv('NEXTAUTH_URL', publicUrl);
   const prefix = publicUrl.startsWith('https://') ? '__Secure-' : '';
-  const jwt = await encode({ token: { uid: 'u-1', role: 'installer', email: 'unit@example.test', name: 'Unit' }, secret: SECRET });
+  const jwt = await encode({ token: { uid: 'u-1', role: 'installer', organizationId: null, jurisdictionId: null, email: 'unit@example.test', name: 'Unit' }, secret: SECRET });
   const res = await AuthHandler({
     req: new Request(`${publicUrl}/api/auth/session`, { headers: { cookie: `${prefix}next-auth.session-token=${jwt}` } }),
     options: { ...authOptions, secret: SECRET },
