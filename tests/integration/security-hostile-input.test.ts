@@ -1,0 +1,314 @@
+import { randomBytes } from 'node:crypto';
+import { request as httpRequest } from 'node:http';
+import fc from 'fast-check';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { hallClosetPassPlan } from '@/tests/fixtures/plans';
+import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+
+/*
+ * Hostile input against the write paths that take the richest JSON: stateless evaluations, plan
+ * saves and rule-set drafts. Whatever arrives, the answer is never a 5xx; a refusal is a 400 whose
+ * errors each name a path and say what is wrong. Runs are bounded (50-60 per property over HTTP)
+ * and seeded by fast-check, which prints the seed and the shrunk counterexample on a failure.
+ */
+
+const db = appDb();
+let installer: string;
+let admin: string;
+let projectId: string;
+let draftId: string;
+let draftRevision: number;
+let draftParameters: Record<string, unknown>;
+let draftRule: Record<string, unknown>;
+
+const RUNS = 50;
+const LIMIT = 512 * 1024; // lib/http.ts
+
+type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
+type Answer = { status: number; body: any };
+
+beforeAll(async () => {
+  [installer, admin] = await Promise.all([signIn('installer@nookpass.demo'), signIn('admin@nookpass.demo')]);
+  const p = await api('/api/projects', postJson({ name: 'Hostile input (test)', siteAddress: '3 Fuzz Street', jurisdiction: 'demo-county' }, { cookie: installer }));
+  expect(p.status).toBe(201);
+  projectId = p.body.id;
+  const slug = `it-hostile-${randomBytes(4).toString('hex')}`;
+  const j = await api(
+    '/api/jurisdictions',
+    postJson(
+      {
+        slug,
+        name: 'IT hostile input (test)',
+        region: 'Test State (invented)',
+        editions: { building: 'IRC 2018', electrical: 'NEC 2017', plumbing: 'IPC 2018', plumbingFamily: 'IPC', mechanical: 'IMC 2018', fuelGas: 'IFGC 2018' },
+        inspectorEmail: '',
+        amendmentNotes: '',
+        startFrom: 'baseline',
+        publishChangelog: 'Version 1 (test).',
+      },
+      { cookie: admin },
+    ),
+  );
+  expect(j.status, JSON.stringify(j.body)).toBe(201);
+  const d = await api(`/api/jurisdictions/${slug}/rule-sets`, postJson({ from: 'published' }, { cookie: admin }));
+  expect(d.status).toBe(201);
+  draftId = d.body.id;
+  const set = await api(`/api/rule-sets/${draftId}`, { cookie: admin });
+  draftRevision = set.body.revision;
+  draftParameters = set.body.parameters;
+  draftRule = set.body.rules.find((r: { key: string }) => r.key === 'exhaust.developed-length');
+}, 60_000);
+
+afterAll(async () => {
+  await db.destroy();
+});
+
+/** Every leaf path of a JSON value, as dotted paths the API uses in its errors ('exhaust.run.0.straight'). */
+function leafPaths(value: unknown, prefix: string[] = []): string[][] {
+  if (value !== null && typeof value === 'object') {
+    const entries = Array.isArray(value) ? value.map((v, i) => [String(i), v] as const) : Object.entries(value);
+    if (entries.length === 0) return [prefix];
+    return entries.flatMap(([k, v]) => leafPaths(v, [...prefix, k]));
+  }
+  return [prefix];
+}
+
+function objectPaths(value: unknown, prefix: string[] = []): string[][] {
+  if (value === null || typeof value !== 'object') return [];
+  const own = Array.isArray(value) ? [] : [prefix];
+  const entries = Array.isArray(value) ? value.map((v, i) => [String(i), v] as const) : Object.entries(value);
+  return [...own, ...entries.flatMap(([k, v]) => objectPaths(v, [...prefix, k]))];
+}
+
+function setAt(value: unknown, path: string[], replacement: unknown): unknown {
+  const copy = structuredClone(value) as Record<string, unknown>;
+  let node: Record<string, unknown> = copy;
+  for (const key of path.slice(0, -1)) node = node[key] as Record<string, unknown>;
+  node[path[path.length - 1]] = replacement;
+  return copy;
+}
+
+/** Values of the wrong kind, or of the right kind out of range: what a broken client or an attacker sends. */
+const junk: fc.Arbitrary<Json> = fc.oneof(
+  fc.constantFrom<Json>(null, true, -1, 0, 1e308, -1e308, 1e-12, '', ' ', '∞', 'NaN', '1e999', "1' OR '1'='1", '<script>alert(1)</script>', '../../etc/passwd', '\u0000', '30 parsecs', '99999999999 ft', [], {}),
+  fc.string({ maxLength: 40 }),
+  fc.double({ noNaN: true }),
+  fc.integer(),
+  fc.jsonValue({ maxDepth: 3 }) as fc.Arbitrary<Json>,
+);
+
+/** Two paths are related when one is the other or lies inside it: a refused field may be reported at its parent. */
+function related(reported: string, changed: string): boolean {
+  return reported === changed || changed.startsWith(`${reported}.`) || reported.startsWith(`${changed}.`);
+}
+
+function expectClearRefusal(res: Answer, what: string) {
+  expect(res.status, `${what}: ${JSON.stringify(res.body)}`).toBe(400);
+  expect(Array.isArray(res.body.errors) && res.body.errors.length > 0, what).toBe(true);
+  for (const e of res.body.errors) {
+    expect(typeof e.path === 'string' && e.path.length > 0, `${what}: path of ${JSON.stringify(e)}`).toBe(true);
+    expect(typeof e.message === 'string' && e.message.trim().length > 3, `${what}: message of ${JSON.stringify(e)}`).toBe(true);
+  }
+}
+
+function expectNoServerError(res: Answer, what: string) {
+  expect(res.status, `${what}: ${JSON.stringify(res.body).slice(0, 500)}`).toBeLessThan(500);
+}
+
+const planPaths = leafPaths(hallClosetPassPlan);
+const planObjects = objectPaths(hallClosetPassPlan);
+
+/** A plan with one leaf replaced by junk, or an unknown field added to one of its objects. */
+const brokenPlan = fc.oneof(
+  fc.record({ path: fc.constantFrom(...planPaths), value: junk }).map(({ path, value }) => ({ plan: setAt(hallClosetPassPlan, path, value), changed: path.join('.'), extra: null as string | null })),
+  fc
+    .record({ path: fc.constantFrom(...planObjects), key: fc.string({ minLength: 1, maxLength: 12 }).filter((k) => !/^\d+$/.test(k) && k !== '__proto__') })
+    .filter(({ path, key }) => {
+      let node = hallClosetPassPlan as unknown as Record<string, unknown>;
+      for (const k of path) node = node[k] as Record<string, unknown>;
+      return !(key in node);
+    })
+    .map(({ path, key }) => ({ plan: setAt(hallClosetPassPlan, [...path, key], 1), changed: [...path, key].join('.'), extra: key as string | null })),
+);
+
+describe('POST /api/evaluations under hostile input', () => {
+  it('answers any JSON body with 200 or a 400 naming paths, never a 5xx', { timeout: 120_000 }, async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.oneof(fc.jsonValue({ maxDepth: 4 }), fc.record({ jurisdiction: junk, plan: junk }, { requiredKeys: [] })), async (body) => {
+        const res = await api('/api/evaluations', postJson(body, { cookie: installer }));
+        expectNoServerError(res, 'evaluation');
+        if (res.status !== 200 && res.status !== 404) expectClearRefusal(res, 'evaluation');
+      }),
+      { numRuns: RUNS },
+    );
+  });
+
+  it('names the field it refuses when one field of a good plan is broken', { timeout: 120_000 }, async () => {
+    await fc.assert(
+      fc.asyncProperty(brokenPlan, async ({ plan, changed, extra }) => {
+        const res = await api('/api/evaluations', postJson({ jurisdiction: 'demo-county', plan }, { cookie: installer }));
+        expectNoServerError(res, changed);
+        if (res.status === 200) return; // the new value was acceptable (e.g. a length written as text)
+        expectClearRefusal(res, changed);
+        const paths: string[] = res.body.errors.map((e: { path: string }) => e.path);
+        expect(paths.some((p) => related(p, `plan.${changed}`)), `${changed} → ${paths.join(', ')}`).toBe(true);
+        if (extra) expect(res.body.errors.some((e: { message: string }) => e.message.includes(extra)), `${changed}: the unknown field is named`).toBe(true);
+      }),
+      { numRuns: 60 },
+    );
+  });
+
+  it('answers bytes that are not JSON with a 400 on (body)', { timeout: 60_000 }, async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.string({ maxLength: 200 }).filter((s) => { try { JSON.parse(s); return false; } catch { return true; } }), async (text) => {
+        const res = await api('/api/evaluations', { method: 'POST', cookie: installer, headers: { 'content-type': 'application/json' }, body: text });
+        expectClearRefusal(res, JSON.stringify(text));
+        expect(res.body.errors[0].path).toBe('(body)');
+      }),
+      { numRuns: 30 },
+    );
+  });
+});
+
+describe('plan saves under hostile input', () => {
+  it('store a revision only for a plan that parses, and name the field otherwise', { timeout: 120_000 }, async () => {
+    const count = async () => Number((await db.selectFrom('plan_revisions').select(db.fn.countAll<number>().as('n')).where('project_id', '=', projectId).executeTakeFirstOrThrow()).n);
+    const before = await count();
+    let saved = 0;
+    await fc.assert(
+      fc.asyncProperty(fc.oneof(brokenPlan, fc.jsonValue({ maxDepth: 3 }).map((plan) => ({ plan, changed: '', extra: null }))), async ({ plan, changed }) => {
+        const res = await api(`/api/projects/${projectId}/plans`, postJson({ plan }, { cookie: installer }));
+        expectNoServerError(res, changed);
+        if (res.status === 201) {
+          saved++;
+          return;
+        }
+        expectClearRefusal(res, changed);
+        if (changed) expect(res.body.errors.some((e: { path: string }) => related(e.path, `plan.${changed}`)), `${changed} → ${JSON.stringify(res.body.errors)}`).toBe(true);
+      }),
+      { numRuns: RUNS },
+    );
+    expect(await count()).toBe(before + saved); // a refused save left nothing behind
+  });
+});
+
+describe('rule-set drafts under hostile input', () => {
+  it('save parameters that parse and name the parameter otherwise', { timeout: 120_000 }, async () => {
+    const paths = leafPaths(draftParameters);
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...paths), junk, async (path, value) => {
+        const parameters = setAt(draftParameters, path, value);
+        const res = await api(`/api/rule-sets/${draftId}`, postJson({ revision: draftRevision, parameters }, { cookie: admin, method: 'PATCH' }));
+        expectNoServerError(res, path.join('.'));
+        if (res.status === 200) {
+          draftRevision = res.body.revision;
+          return;
+        }
+        expectClearRefusal(res, path.join('.'));
+        const reported: string[] = res.body.errors.map((e: { path: string }) => e.path);
+        expect(reported.some((p) => related(p, `parameters.${path.join('.')}`)), `${path.join('.')} → ${reported.join(', ')}`).toBe(true);
+      }),
+      { numRuns: RUNS },
+    );
+  });
+
+  it('refuse a broken rule with a 400 under rule.*, never a 5xx, and keep the draft readable', { timeout: 120_000 }, async () => {
+    const paths = leafPaths(draftRule).filter((p) => p[0] !== 'key'); // a changed key is a different rule (its own 400)
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...paths), junk, async (path, value) => {
+        const rule = setAt(draftRule, path, value);
+        const res = await api(`/api/rule-sets/${draftId}/rules/exhaust.developed-length`, postJson({ revision: draftRevision, rule }, { cookie: admin, method: 'PUT' }));
+        expectNoServerError(res, path.join('.'));
+        if (res.status === 200) {
+          draftRevision = res.body.revision;
+          return;
+        }
+        expectClearRefusal(res, path.join('.'));
+        expect(res.body.errors.every((e: { path: string }) => e.path.startsWith('rule')), JSON.stringify(res.body.errors)).toBe(true);
+      }),
+      { numRuns: RUNS },
+    );
+    expect((await api(`/api/rule-sets/${draftId}`, { cookie: admin })).status).toBe(200);
+  });
+});
+
+describe('oversized bodies', () => {
+  const targets = () => [
+    { method: 'POST', path: '/api/evaluations', cookie: installer },
+    { method: 'POST', path: `/api/projects/${projectId}/plans`, cookie: installer },
+    { method: 'PATCH', path: `/api/rule-sets/${draftId}`, cookie: admin },
+  ];
+
+  it('are refused with 413 by their declared length, before the JSON is looked at', async () => {
+    // Broken JSON on purpose: a 400 would mean it was parsed before the size was checked.
+    const body = '{' + ' '.repeat(LIMIT + 10);
+    for (const t of targets()) {
+      const res = await api(t.path, { method: t.method, cookie: t.cookie, headers: { 'content-type': 'application/json' }, body });
+      expect(res.status, t.path).toBe(413);
+      expect(res.body.error).toMatch(/over 512 KiB/);
+    }
+  });
+
+  it('are refused while still arriving when sent chunked with no length, after about the limit', { timeout: 60_000 }, async () => {
+    for (const t of targets()) {
+      const { status, sentBytes } = await endlessUpload(t.method, t.path, t.cookie);
+      expect(status, t.path).toBe(413);
+      // The server answers once it has counted past 512 KiB; the client has sent the limit plus what sat in buffers.
+      expect(sentBytes, t.path).toBeLessThan(16 * 1024 * 1024);
+    }
+  });
+});
+
+/** Writes a JSON-looking body in 64 KiB chunks until the server answers (or 64 MiB are out), returning the status and bytes sent. */
+function endlessUpload(method: string, path: string, cookie: string): Promise<{ status: number; sentBytes: number }> {
+  const url = new URL(path, baseUrl);
+  const chunk = Buffer.alloc(64 * 1024, 0x20);
+  const cap = 64 * 1024 * 1024;
+  return new Promise((resolve, reject) => {
+    let sent = 0;
+    let answered = false;
+    const req = httpRequest(url, { method, headers: { cookie, 'content-type': 'application/json', 'transfer-encoding': 'chunked' } }, (res) => {
+      answered = true;
+      resolve({ status: res.statusCode ?? 0, sentBytes: sent });
+      req.destroy(); // the rest of the upload is not wanted, by either side
+    });
+    req.on('error', (err) => (answered ? undefined : reject(err)));
+    req.write('{"pad":"');
+    const pump = () => {
+      while (!answered && sent < cap) {
+        sent += chunk.length;
+        if (!req.write(chunk)) return void req.once('drain', pump);
+      }
+      if (!answered) req.end('"}');
+    };
+    pump();
+  });
+}
+
+describe('hostile ids in the URL', () => {
+  it('answer 404 (or 400), never a 5xx, whatever the segment holds', { timeout: 60_000 }, async () => {
+    const routes = [
+      (s: string) => `/api/projects/${s}`,
+      (s: string) => `/api/checks/${s}`,
+      (s: string) => `/api/attachments/${s}`,
+      (s: string) => `/api/inspections/${s}`,
+      (s: string) => `/api/reports/${s}/pdf`,
+      (s: string) => `/api/rule-sets/${s}`,
+      (s: string) => `/api/tokens/${s}`,
+      (s: string) => `/api/projects/${projectId}/plans/${s}`,
+    ];
+    const segment = fc.oneof(
+      fc.constantFrom("'; DROP TABLE projects; --", '..%2F..%2Fetc%2Fpasswd', '<script>', '%00', '1e9', '-1', 'NaN', '00000000-0000-0000-0000-00000000000g', 'a'.repeat(2000)),
+      fc.string({ minLength: 1, maxLength: 60 }),
+    );
+    await fc.assert(
+      fc.asyncProperty(fc.constantFrom(...routes), segment, async (path, s) => {
+        const p = path(s.includes('%') ? s : encodeURIComponent(s));
+        const method = p.startsWith('/api/tokens/') ? 'DELETE' : 'GET';
+        const res = await api(p, { method, cookie: /^\/api\/(rule-sets|inspections)\//.test(p) ? admin : installer });
+        expect([400, 404], `${method} ${p}: ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`).toContain(res.status);
+      }),
+      { numRuns: 60 },
+    );
+  });
+});
