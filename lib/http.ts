@@ -77,8 +77,20 @@ function isDatabaseDown(err: unknown): boolean {
     /Connection terminated|timeout exceeded when trying to connect/i.test((err as Error)?.message ?? '');
 }
 
+/**
+ * PostgreSQL text and jsonb cannot hold U+0000 (22021 character_not_in_repertoire, 22P05
+ * untranslatable_character): input that still carries one is the client's mistake, not ours.
+ */
+function isUnstorableText(err: unknown): boolean {
+  const code = (err as { code?: string })?.code;
+  return code === '22021' || code === '22P05';
+}
+
 export function errorResponse(err: unknown): Response {
   if (err instanceof ValidationError) return json({ error: err.message, errors: err.errors }, 400);
+  if (isUnstorableText(err)) {
+    return json({ error: 'The request was refused.', errors: [{ path: '(request)', message: 'Text in the request cannot contain the NUL character (U+0000); remove it and try again.' }] }, 400);
+  }
   if (err instanceof UnauthorizedError) return json({ error: err.message }, 401);
   if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
   if (err instanceof NotFoundError) return json({ error: err.message }, 404);

@@ -25,8 +25,17 @@ function assertSameOrigin(request: Request): void {
   if (!origin) return; // non-browser clients send no Origin; browsers always do on cross-site writes
   const host = request.headers.get('host');
   const expected = expectedOrigin(request);
-  if (origin !== expected && !(host && new URL(origin).host === host)) {
+  if (origin !== expected && !(host && originHost(origin) === host)) {
     throw new ForbiddenError('This request came from another site and was refused.');
+  }
+}
+
+/** The host of an Origin header, or null for an opaque origin: browsers send 'null' from sandboxed frames and some redirects (RFC 6454 section 7). */
+function originHost(origin: string): string | null {
+  try {
+    return new URL(origin).host || null;
+  } catch {
+    return null;
   }
 }
 
