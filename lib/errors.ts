@@ -32,4 +32,12 @@ export class ValidationError extends DomainError {
   }
 }
 export class PayloadTooLargeError extends DomainError {}
+export class TooManyRequestsError extends DomainError {
+  constructor(
+    message: string,
+    public readonly retryAfterSeconds: number,
+  ) {
+    super(message);
+  }
+}
 export class ServiceUnavailableError extends DomainError {}

@@ -7,6 +7,7 @@ import {
   ForbiddenError,
   NotFoundError,
   PayloadTooLargeError,
+  TooManyRequestsError,
   ServiceUnavailableError,
   UnauthorizedError,
   ValidationError,
@@ -96,6 +97,8 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof NotFoundError) return json({ error: err.message }, 404);
   if (err instanceof ConflictError) return json({ error: err.message }, 409);
   if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
+  // RFC 6585 §4: 429 with how long to wait.
+  if (err instanceof TooManyRequestsError) return json({ error: err.message }, { status: 429, headers: { 'retry-after': String(err.retryAfterSeconds) } });
   if (err instanceof ServiceUnavailableError) return json({ error: err.message }, { status: 503, headers: { 'retry-after': '5' } });
   if (isDatabaseDown(err)) {
     return json({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);

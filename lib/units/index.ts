@@ -114,10 +114,9 @@ const LENGTH_EXAMPLE = `use e.g. 30 in, 2' 6", 762 mm`;
 const AREA_EXAMPLE = 'use e.g. 60 sq in, 0.5 sq ft, 387 cm²';
 
 /**
- * Parses a length into canonical inches. A number, or a string without a unit, is read in the
- * plan's units (inches for imperial, millimetres for metric).
+ * The length parser proper; parseLength adds the magnitude cap.
  */
-export function parseLength(input: unknown, units: UnitSystem, path: string): UnitResult {
+function parseLengthUncapped(input: unknown, units: UnitSystem, path: string): UnitResult {
   if (typeof input === 'number') {
     const checked = checkNumber(input, path, 'length');
     if (!checked.ok) return checked;
@@ -163,8 +162,8 @@ const AREA_UNITS: Array<[RegExp, AreaUnit]> = [
   [/^(sq\.?\s*m|m²|m2)$/, 'm2'],
 ];
 
-/** Parses an area into canonical square inches; bare values are sq in (imperial) or cm² (metric). */
-export function parseArea(input: unknown, units: UnitSystem, path: string): UnitResult {
+/** The area parser proper; parseArea adds the magnitude cap. */
+function parseAreaUncapped(input: unknown, units: UnitSystem, path: string): UnitResult {
   const bareUnit: AreaUnit = units === 'metric' ? 'cm2' : 'in2';
   if (typeof input === 'number') {
     const checked = checkNumber(input, path, 'area');
@@ -183,6 +182,28 @@ export function parseArea(input: unknown, units: UnitSystem, path: string): Unit
   const unit = unitText === undefined ? bareUnit : AREA_UNITS.find(([re]) => re.test(unitText))?.[1];
   if (!unit) return fail(path, `${labelForPath(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
   return checkNumber(convertArea(value, unit, 'in2'), path, 'area');
+}
+
+// Nothing in a laundry closet plan is longer than 1,000 ft or larger than 1,000 sq ft; bigger is a typo,
+// and refusing it keeps absurd magnitudes (1e308) out of the arithmetic and the display.
+export const MAX_LENGTH_IN = 12_000;
+export const MAX_AREA_SQ_IN = 144_000;
+
+/**
+ * Parses a length into canonical inches. A number, or a string without a unit, is read in the
+ * plan's units (inches for imperial, millimetres for metric).
+ */
+export function parseLength(input: unknown, units: UnitSystem, path: string): UnitResult {
+  const r = parseLengthUncapped(input, units, path);
+  if (r.ok && r.value > MAX_LENGTH_IN) return fail(path, `${labelForPath(path)}: ${String(input)} is longer than 1,000 ft; check the number and its unit.`);
+  return r;
+}
+
+/** Parses an area into canonical square inches; bare values are sq in (imperial) or cm² (metric). */
+export function parseArea(input: unknown, units: UnitSystem, path: string): UnitResult {
+  const r = parseAreaUncapped(input, units, path);
+  if (r.ok && r.value > MAX_AREA_SQ_IN) return fail(path, `${labelForPath(path)}: ${String(input)} is larger than 1,000 sq ft; check the number and its unit.`);
+  return r;
 }
 
 export type LengthStyle = 'feet-inches' | 'inches' | 'decimal';

@@ -134,6 +134,14 @@ describe('report download and verification', () => {
     expect(author.email).toBe('installer@nookpass.demo');
   });
 
+  it('refuses to issue a report from a cross-site link', async () => {
+    const before = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+    const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { headers: { cookie: installer, 'sec-fetch-site': 'cross-site' } });
+    expect(res.status).toBe(403);
+    const after = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
+    expect(Number(after.n)).toBe(Number(before.n));
+  });
+
   it('accepts the issued file and rejects an altered one', async () => {
     const facts = await api(`/api/reports/${code}`);
     expect(facts.status).toBe(200);

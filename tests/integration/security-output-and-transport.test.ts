@@ -235,7 +235,8 @@ describe('throttling', () => {
     const cookie = await signIn(email, 'token-throttle-pw');
     for (let i = 1; i <= 10; i++) expect((await api('/api/tokens', postJson({ name: `t${i}` }, { cookie }))).status, `token ${i}`).toBe(201);
     const eleventh = await api('/api/tokens', postJson({ name: 't11' }, { cookie }));
-    expect(eleventh.status).toBeGreaterThanOrEqual(400);
+    expect(eleventh.status).toBe(429); // RFC 6585 §4 Too Many Requests
+    expect(eleventh.headers.get('retry-after')).toBe('3600');
     expect(eleventh.body.error).toMatch(/10 tokens in the last hour/);
     const user = await db.selectFrom('users').select('id').where('email', '=', email).executeTakeFirstOrThrow();
     const stored = await db.selectFrom('api_tokens').select(db.fn.countAll<number>().as('n')).where('user_id', '=', user.id).executeTakeFirstOrThrow();

@@ -149,3 +149,19 @@ describe('formatLength and formatArea', () => {
     }
   });
 });
+
+describe('absurd magnitudes', () => {
+  it('refuses lengths over 1,000 ft and areas over 1,000 sq ft, naming the field', async () => {
+    const { parseLength, parseArea, MAX_LENGTH_IN, MAX_AREA_SQ_IN } = await import('@/lib/units');
+    // 1,000 ft = 12,000 in; 1,000 sq ft = 144,000 sq in (1 ft = 12 in exactly, NIST SP 811).
+    expect(MAX_LENGTH_IN).toBe(12_000);
+    expect(MAX_AREA_SQ_IN).toBe(144_000);
+    expect(parseLength('1000 ft', 'imperial', 'exhaust.run.0.straight')).toEqual({ ok: true, value: 12_000 });
+    const big = parseLength(1e308, 'imperial', 'dryer.height');
+    expect(big.ok).toBe(false);
+    if (!big.ok) expect(big.error).toMatchObject({ path: 'dryer.height' });
+    expect(parseLength('1001 ft', 'imperial', 'x').ok).toBe(false);
+    expect(parseLength(304_800, 'metric', 'x')).toMatchObject({ ok: true }); // 304,800 mm / 25.4 = 12,000 in exactly
+    expect(parseLength(305_000, 'metric', 'x').ok).toBe(false); // 12,007.9 in
+  });
+});

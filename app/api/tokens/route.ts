@@ -3,7 +3,7 @@ import { getDb } from '@/db';
 import { countRecentTokens, createApiToken, listApiTokens } from '@/db/api-tokens';
 import { generateApiToken } from '@/lib/auth/api-token';
 import { requireUser } from '@/lib/auth/session';
-import { ConflictError } from '@/lib/errors';
+import { TooManyRequestsError } from '@/lib/errors';
 import { json, parseBody, route } from '@/lib/http';
 
 const newTokenSchema = z.strictObject({
@@ -23,7 +23,7 @@ export const POST = route(async (request) => {
   const { name } = await parseBody(request, newTokenSchema);
   const db = getDb();
   if ((await countRecentTokens(db, user.id, 3600_000)) >= TOKENS_PER_HOUR) {
-    throw new ConflictError(`You created ${TOKENS_PER_HOUR} tokens in the last hour; wait before creating another.`);
+    throw new TooManyRequestsError(`You created ${TOKENS_PER_HOUR} tokens in the last hour; wait before creating another.`, 3600);
   }
   const { token, hash, displayPrefix } = generateApiToken();
   const summary = await createApiToken(db, user.id, name, hash, displayPrefix);

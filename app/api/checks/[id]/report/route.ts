@@ -1,5 +1,6 @@
 import { getDb } from '@/db';
 import { requireUser } from '@/lib/auth/session';
+import { ForbiddenError } from '@/lib/errors';
 import { route } from '@/lib/http';
 import { issueReport, reportFilename } from '@/lib/report/issue';
 
@@ -7,6 +8,8 @@ type Ctx = { params: Promise<{ id: string }> };
 
 // Each download issues a new report: its own code, its own recorded hash.
 export const GET = route<Ctx>(async (request, { params }) => {
+  // Issuing records a report, so a link on another site must not trigger it (Fetch Metadata, W3C).
+  if (request.headers.get('sec-fetch-site') === 'cross-site') throw new ForbiddenError('Download reports from NookPass itself.');
   const user = await requireUser(request, ['installer', 'admin']);
   const { report, pdf, project } = await issueReport(getDb(), user, (await params).id);
   return new Response(new Uint8Array(pdf), {
