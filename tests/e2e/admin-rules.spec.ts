@@ -11,6 +11,7 @@ const NOTE = 'Local amendment DC-M1502 (demo): maximum developed length of a dry
 
 async function openProject(page: Page) {
   await page.goto('/projects');
+  await page.getByLabel('Search projects').fill('300 Fictional Ave');
   await page.getByRole('link', { name: PROJECT }).click();
   await expect(page.getByRole('heading', { name: PROJECT })).toBeVisible();
 }
@@ -37,8 +38,8 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
 
   // The admin starts a draft from Demo City's published version.
   await signInAs(admin, 'admin@nookpass.demo');
-  await admin.getByRole('link', { name: 'Rules' }).click();
-  await admin.getByRole('link', { name: 'Demo City' }).click();
+  await admin.getByRole('link', { name: 'Rules', exact: true }).click();
+  await admin.getByRole('link', { name: 'Demo City', exact: true }).click();
   await admin.getByRole('button', { name: 'Start a draft from the published version' }).click();
   await expect(admin.getByRole('heading', { name: `Rule set version ${before + 1}` })).toBeVisible();
   await expect(admin.getByTestId('draft-revision')).toContainText('revision 1');
