@@ -115,12 +115,19 @@ start_cluster() {
   if pg_running; then
     local running_port
     running_port="$(sed -n 4p "$NP_PGDATA/postmaster.pid" 2>/dev/null || true)"
-    if [ "$running_port" = "$NOOKPASS_PG_PORT" ]; then
+    if [ "$running_port" = "$NOOKPASS_PG_PORT" ] && port_busy "$NOOKPASS_PG_PORT"; then
       say "PostgreSQL already running on 127.0.0.1:$NOOKPASS_PG_PORT (reusing it)."
       return 0
     fi
-    say "Restarting PostgreSQL: it runs on port $running_port, wanted $NOOKPASS_PG_PORT."
-    pg_as "$NP_PGBIN/pg_ctl" -D "$NP_PGDATA" -m fast -w stop >/dev/null
+    if [ "$running_port" = "$NOOKPASS_PG_PORT" ]; then
+      # The pid file names a live process that does not answer (a dying or unreaped server).
+      say "The server named in .data/pg/postmaster.pid does not answer; starting afresh."
+      pg_as "$NP_PGBIN/pg_ctl" -D "$NP_PGDATA" -m immediate -w -t 10 stop >/dev/null 2>&1 || true
+    fi
+    if [ "$running_port" != "$NOOKPASS_PG_PORT" ]; then
+      say "Restarting PostgreSQL: it runs on port $running_port, wanted $NOOKPASS_PG_PORT."
+      pg_as "$NP_PGBIN/pg_ctl" -D "$NP_PGDATA" -m fast -w stop >/dev/null
+    fi
   fi
   if [ -f "$NP_PGDATA/postmaster.pid" ]; then
     say "Removing a stale postmaster.pid left by an earlier run."
