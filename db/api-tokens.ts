@@ -1,4 +1,5 @@
 import type { DB } from './index';
+import { writeAudit } from './audit';
 import { toAppUser } from './users';
 import type { AppUser } from '@/lib/auth/roles';
 
@@ -18,10 +19,7 @@ export async function createApiToken(db: DB, userId: string, name: string, token
       .values({ user_id: userId, name, token_hash: tokenHash, token_prefix: prefix })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: userId, action: 'api-token.create', entity_type: 'api_token', entity_id: row.id, details: JSON.stringify({ name }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: userId, action: 'api-token.create', entityType: 'api_token', entityId: row.id, details: { name } });
     return { id: row.id, name: row.name, prefix: row.token_prefix, createdAt: row.created_at, lastUsedAt: null, revokedAt: null };
   });
 }
@@ -49,10 +47,7 @@ export async function revokeApiToken(db: DB, userId: string, tokenId: string): P
       .where('revoked_at', 'is', null)
       .executeTakeFirst();
     if (Number(res.numUpdatedRows) === 0) return false;
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: userId, action: 'api-token.revoke', entity_type: 'api_token', entity_id: tokenId, details: '{}' })
-      .execute();
+    await writeAudit(trx, { actorUserId: userId, action: 'api-token.revoke', entityType: 'api_token', entityId: tokenId });
     return true;
   });
 }

@@ -1,4 +1,5 @@
 import type { DB } from './index';
+import { writeAudit } from './audit';
 import type { AttachmentsTable } from './types';
 import type { Selectable } from 'kysely';
 
@@ -65,10 +66,7 @@ export async function insertAttachment(
       })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: actorId, action: 'attachment.create', entity_type: 'attachment', entity_id: row.id, details: JSON.stringify({ projectId: a.projectId, filename: a.filename, bytes: a.byteSize }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: actorId, action: 'attachment.create', entityType: 'attachment', entityId: row.id, details: { projectId: a.projectId, filename: a.filename, bytes: a.byteSize } });
     return toAttachment(row);
   });
 }
@@ -87,14 +85,14 @@ export async function findAttachment(db: DB, id: string): Promise<Attachment | n
 export async function updateCaption(db: DB, id: string, caption: string, actorId: string): Promise<void> {
   await db.transaction().execute(async (trx) => {
     await trx.updateTable('attachments').set({ caption }).where('id', '=', id).execute();
-    await trx.insertInto('audit_log').values({ actor_user_id: actorId, action: 'attachment.caption', entity_type: 'attachment', entity_id: id, details: '{}' }).execute();
+    await writeAudit(trx, { actorUserId: actorId, action: 'attachment.caption', entityType: 'attachment', entityId: id });
   });
 }
 
 export async function markAttachmentDeleted(db: DB, id: string, actorId: string): Promise<void> {
   await db.transaction().execute(async (trx) => {
     await trx.updateTable('attachments').set({ deleted_at: new Date() }).where('id', '=', id).execute();
-    await trx.insertInto('audit_log').values({ actor_user_id: actorId, action: 'attachment.delete', entity_type: 'attachment', entity_id: id, details: '{}' }).execute();
+    await writeAudit(trx, { actorUserId: actorId, action: 'attachment.delete', entityType: 'attachment', entityId: id });
   });
 }
 

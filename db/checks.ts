@@ -1,4 +1,5 @@
 import type { DB } from './index';
+import { writeAudit } from './audit';
 import type { CheckOutcome } from './types';
 import type { AppUser } from '@/lib/auth/roles';
 import type { Evaluation, EvaluationSummary, Finding } from '@/lib/engine';
@@ -92,16 +93,13 @@ export async function insertCheck(
       .returning('id')
       .executeTakeFirstOrThrow();
     await trx.updateTable('projects').set({ updated_at: new Date() }).where('id', '=', input.projectId).execute();
-    await trx
-      .insertInto('audit_log')
-      .values({
-        actor_user_id: input.user.id,
-        action: 'check.run',
-        entity_type: 'check',
-        entity_id: row.id,
-        details: JSON.stringify({ projectId: input.projectId, ruleSetId: input.ruleSetId, summary: input.evaluation.summary }),
-      })
-      .execute();
+    await writeAudit(trx, {
+      actorUserId: input.user.id,
+      action: 'check.run',
+      entityType: 'check',
+      entityId: row.id,
+      details: { projectId: input.projectId, ruleSetId: input.ruleSetId, summary: input.evaluation.summary },
+    });
     return row.id;
   });
   return (await getCheckById(db, id))!;

@@ -1,5 +1,6 @@
 import { sql } from 'kysely';
 import type { DB } from './index';
+import { writeAudit } from './audit';
 import type { CheckOutcome } from './types';
 import type { ProjectInput, ProjectListQuery, ProjectUpdateInput } from '@/lib/projects/schema';
 import type { AppUser } from '@/lib/auth/roles';
@@ -138,10 +139,7 @@ export async function createProject(db: DB, user: AppUser, input: ProjectInput):
       })
       .returning('id')
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: user.id, action: 'project.create', entity_type: 'project', entity_id: row.id, details: JSON.stringify({ name: input.name }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: user.id, action: 'project.create', entityType: 'project', entityId: row.id, details: { name: input.name } });
     return row.id;
   });
   return getProject(db, user, id);
@@ -159,10 +157,7 @@ export async function updateProject(db: DB, user: AppUser, id: string, input: Pr
     if (input.archived !== undefined) set.archived_at = input.archived ? (current.archivedAt ?? new Date()) : null;
     await trx.updateTable('projects').set(set).where('id', '=', current.id).execute();
     const action = input.archived === true ? 'project.archive' : input.archived === false ? 'project.restore' : 'project.update';
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: user.id, action, entity_type: 'project', entity_id: current.id, details: JSON.stringify({ fields: Object.keys(input) }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: user.id, action, entityType: 'project', entityId: current.id, details: { fields: Object.keys(input) } });
   });
   return getProject(db, user, id);
 }

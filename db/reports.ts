@@ -1,4 +1,5 @@
 import type { DB } from './index';
+import { writeAudit } from './audit';
 import type { ReviewOutcome } from './types';
 
 export type IssuedReport = {
@@ -51,10 +52,7 @@ export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'created
       })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: r.createdBy, action: 'report.issue', entity_type: 'report', entity_id: row.id, details: JSON.stringify({ code: r.code, sha256: r.sha256, checkId: r.checkId }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: r.createdBy, action: 'report.issue', entityType: 'report', entityId: row.id, details: { code: r.code, sha256: r.sha256, checkId: r.checkId } });
     return toReport(row);
   });
 }
@@ -105,10 +103,7 @@ export async function recordSend(
       })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: s.actorId, action: `report.send.${s.status}`, entity_type: 'report', entity_id: s.reportId, details: JSON.stringify({ to: s.to, error: s.error }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, error: s.error } });
     return row;
   });
 }
@@ -177,10 +172,7 @@ export async function insertReview(
       .values({ report_id: r.reportId, created_by: r.inspectorId, outcome: r.outcome, comment: r.comment, finding_comments: JSON.stringify(r.findingComments) })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await trx
-      .insertInto('audit_log')
-      .values({ actor_user_id: r.inspectorId, action: `review.${r.outcome}`, entity_type: 'report', entity_id: r.reportId, details: JSON.stringify({ comment: r.comment }) })
-      .execute();
+    await writeAudit(trx, { actorUserId: r.inspectorId, action: `review.${r.outcome}`, entityType: 'report', entityId: r.reportId, details: { comment: r.comment } });
     return row;
   });
 }

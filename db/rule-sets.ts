@@ -145,16 +145,13 @@ export async function createPublishedVersion(
       .set({ status: 'published', published_at: now, published_by: input.actorUserId })
       .where('id', '=', draft.id)
       .execute();
-    await trx
-      .insertInto('audit_log')
-      .values({
-        actor_user_id: input.actorUserId,
-        action: 'rule-set.publish',
-        entity_type: 'rule_set',
-        entity_id: draft.id,
-        details: JSON.stringify({ jurisdictionId: input.jurisdictionId, version, changelog: input.changelog }),
-      })
-      .execute();
+    await writeAudit(trx, {
+      actorUserId: input.actorUserId,
+      action: 'rule-set.publish',
+      entityType: 'rule_set',
+      entityId: draft.id,
+      details: { jurisdictionId: input.jurisdictionId, version, changelog: input.changelog },
+    });
     const row = await versionQuery(trx).where('s.id', '=', draft.id).executeTakeFirstOrThrow();
     return toVersion(row);
   });

@@ -1,6 +1,7 @@
 import type { FieldError } from '@/lib/errors';
 import { ruleSetParametersSchema } from '@/lib/params';
 import { validateRuleAgainstCatalog, type StoredRule } from '@/rules';
+import { ValidationError } from '@/lib/errors';
 
 /**
  * Everything a version must satisfy before it becomes immutable: valid parameters, every rule
@@ -19,4 +20,10 @@ export function publishErrors(draft: { parameters: unknown; rules: StoredRule[] 
   });
   if (!draft.rules.some((r) => r.enabled)) errors.push({ path: 'rules', message: 'Enable at least one rule before publishing.' });
   return errors;
+}
+
+/** Throws the field errors that stop a draft from being published, under the given headline. */
+export function assertPublishable(draft: { parameters: unknown; rules: StoredRule[] }, headline: string): void {
+  const errors = publishErrors(draft);
+  if (errors.length) throw new ValidationError(errors, headline);
 }

@@ -1,10 +1,9 @@
 import { getDb } from '@/db';
 import { requireRuleSet } from '@/db/rule-admin';
 import { publishDraft } from '@/db/rule-sets';
-import { publishErrors } from '@/lib/admin/publish-check';
+import { assertPublishable } from '@/lib/admin/publish-check';
 import { publishSchema } from '@/lib/admin/requests';
 import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
 import { json, parseBody, route } from '@/lib/http';
 
 /** Publishes the draft revision the admin reviewed; the previous published version is retired with it. */
@@ -18,10 +17,7 @@ export const POST = route<{ params: Promise<{ id: string }> }>(async (request, {
     revision: body.revision,
     changelog: body.changelog,
     actorUserId: user.id,
-    validate: (draft) => {
-      const errors = publishErrors(draft);
-      if (errors.length) throw new ValidationError(errors, 'This draft cannot be published yet.');
-    },
+    validate: (draft) => assertPublishable(draft, 'This draft cannot be published yet.'),
   });
   return json(result);
 });

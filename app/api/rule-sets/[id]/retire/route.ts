@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
 import { requireRuleSet } from '@/db/rule-admin';
 import { publishDraft } from '@/db/rule-sets';
-import { publishErrors } from '@/lib/admin/publish-check';
+import { assertPublishable } from '@/lib/admin/publish-check';
 import { retireSchema } from '@/lib/admin/requests';
 import { requireUser } from '@/lib/auth/session';
 import { ConflictError, ValidationError } from '@/lib/errors';
@@ -27,10 +27,7 @@ export const POST = route<{ params: Promise<{ id: string }> }>(async (request, {
     revision: body.revision,
     changelog: body.changelog,
     actorUserId: user.id,
-    validate: (draft) => {
-      const errors = publishErrors(draft);
-      if (errors.length) throw new ValidationError(errors, 'The successor cannot be published yet.');
-    },
+    validate: (draft) => assertPublishable(draft, 'The successor cannot be published yet.'),
   });
   return json(result);
 });
