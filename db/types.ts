@@ -205,6 +205,13 @@ export interface InspectionReviewsTable {
   created_at: CreatedAt;
 }
 
+/** Counters of the shared rate limiter (rate-limiter-flexible's PostgreSQL store); expire is epoch milliseconds. */
+export interface RateLimitsTable {
+  key: string;
+  points: Generated<number>;
+  expire: number | null;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -221,6 +228,7 @@ export interface Database {
   reports: ReportsTable;
   report_sends: ReportSendsTable;
   inspection_reviews: InspectionReviewsTable;
+  rate_limits: RateLimitsTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

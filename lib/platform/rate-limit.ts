@@ -1,0 +1,123 @@
+import 'server-only';
+import { createHash } from 'node:crypto';
+import type pg from 'pg';
+import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
+import { getPool } from '@/db';
+import { TooManyRequestsError } from '@/lib/errors';
+
+/**
+ * One limit: at most `points` within `durationSeconds` per key; once over, the key stays refused for
+ * `blockSeconds` (default: until the window ends). `message` is what the person who hit it reads.
+ */
+export type LimitPolicy = {
+  name: string;
+  points: number;
+  durationSeconds: number;
+  blockSeconds?: number;
+  message: string;
+};
+
+export type LimitState = { consumed: number; remaining: number; retryAfterSeconds: number };
+
+const TABLE = 'rate_limits';
+
+function state(policy: LimitPolicy, res: RateLimiterRes | null): LimitState {
+  if (!res) return { consumed: 0, remaining: policy.points, retryAfterSeconds: 0 };
+  return { consumed: res.consumedPoints, remaining: res.remainingPoints, retryAfterSeconds: Math.max(1, Math.ceil(res.msBeforeNext / 1000)) };
+}
+
+/**
+ * Counters live in PostgreSQL (rate-limiter-flexible's store), so every app server counts against the same
+ * limit. Keys are hashed: they may be e-mail addresses, which the counter table has no need to hold.
+ */
+export class SharedLimiter {
+  private readonly limiters = new Map<string, RateLimiterPostgres>();
+
+  constructor(private readonly pool: pg.Pool) {}
+
+  private limiter(policy: LimitPolicy): RateLimiterPostgres {
+    let limiter = this.limiters.get(policy.name);
+    if (!limiter) {
+      limiter = new RateLimiterPostgres({
+        storeClient: this.pool,
+        storeType: 'pool',
+        tableName: TABLE,
+        tableCreated: true, // made by a migration, not at run time
+        clearExpiredByTimeout: false, // expired rows are removed by sweepExpired()
+        keyPrefix: policy.name,
+        points: policy.points,
+        duration: policy.durationSeconds,
+        blockDuration: policy.blockSeconds ?? 0,
+      });
+      this.limiters.set(policy.name, limiter);
+    }
+    return limiter;
+  }
+
+  private static key(key: string): string {
+    return createHash('sha256').update(key).digest('base64url');
+  }
+
+  /** Counts one request; over the limit it throws TooManyRequestsError (429 with Retry-After). */
+  async consume(policy: LimitPolicy, key: string, points = 1): Promise<LimitState> {
+    try {
+      return state(policy, await this.limiter(policy).consume(SharedLimiter.key(key), points));
+    } catch (err) {
+      if (err instanceof RateLimiterRes) throw new TooManyRequestsError(policy.message, state(policy, err).retryAfterSeconds);
+      throw err;
+    }
+  }
+
+  /** Counts without refusing (a failed attempt, say); the answer tells whether the key is now over. */
+  async penalize(policy: LimitPolicy, key: string, points = 1): Promise<LimitState> {
+    const res = await this.limiter(policy).penalty(SharedLimiter.key(key), points);
+    return state(policy, res);
+  }
+
+  /** Throws TooManyRequestsError when the key is already over the limit; counts nothing. */
+  async assertUnder(policy: LimitPolicy, key: string): Promise<void> {
+    const s = state(policy, await this.limiter(policy).get(SharedLimiter.key(key)));
+    if (s.consumed >= policy.points && s.consumed > 0) throw new TooManyRequestsError(policy.message, s.retryAfterSeconds);
+  }
+
+  async peek(policy: LimitPolicy, key: string): Promise<LimitState> {
+    return state(policy, await this.limiter(policy).get(SharedLimiter.key(key)));
+  }
+
+  async reset(policy: LimitPolicy, key: string): Promise<void> {
+    await this.limiter(policy).delete(SharedLimiter.key(key));
+  }
+
+  /** Deletes counters whose window ended; any app server may run it, as often as it likes. */
+  async sweepExpired(now = Date.now()): Promise<number> {
+    const res = await this.pool.query(`DELETE FROM ${TABLE} WHERE expire IS NOT NULL AND expire < $1`, [now]);
+    return res.rowCount ?? 0;
+  }
+}
+
+const globalForLimiter = globalThis as unknown as { nookpassLimiter?: SharedLimiter; nookpassLimiterSweep?: NodeJS.Timeout };
+
+const SWEEP_EVERY_MS = 10 * 60_000;
+
+/** The app's limiter over the app's pool; expired counters are swept every ten minutes. */
+export function sharedLimiter(): SharedLimiter {
+  if (!globalForLimiter.nookpassLimiter) {
+    const limiter = new SharedLimiter(getPool());
+    globalForLimiter.nookpassLimiter = limiter;
+    const sweep = setInterval(() => limiter.sweepExpired().catch(() => undefined), SWEEP_EVERY_MS);
+    sweep.unref();
+    globalForLimiter.nookpassLimiterSweep = sweep;
+  }
+  return globalForLimiter.nookpassLimiter;
+}
+
+/**
+ * The client's address for per-address limits: the right-most X-Forwarded-For entry, which is the one the
+ * nearest proxy appended (Next.js fills the header with the socket's address when no proxy sent one).
+ * Behind a reverse proxy, set it to append the client address ($proxy_add_x_forwarded_for or equivalent).
+ */
+export function clientAddress(request: Request): string {
+  const forwarded = request.headers.get('x-forwarded-for');
+  const last = forwarded?.split(',').map((s) => s.trim()).filter(Boolean).at(-1);
+  return last || request.headers.get('x-real-ip') || 'unknown';
+}
