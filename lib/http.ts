@@ -37,11 +37,33 @@ export async function readJson(request: Request): Promise<unknown> {
   const declared = Number(request.headers.get('content-length') ?? '0');
   if (declared > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
   const text = await readTextUpTo(request, MAX_JSON_BYTES);
+  let body: unknown;
   try {
-    return JSON.parse(text);
+    body = JSON.parse(text);
   } catch {
     throw new ValidationError([{ path: '(body)', message: 'The body is not valid JSON.' }]);
   }
+  const broken = findLoneSurrogate(body);
+  if (broken !== null) {
+    throw new ValidationError([{ path: broken || '(body)', message: 'This text holds half of a character (a lone UTF-16 surrogate, e.g. \\ud800); send it as valid Unicode.' }]);
+  }
+  return body;
+}
+
+// JSON may escape half a surrogate pair ("\ud800"), which no UTF-8 text (nor PostgreSQL) can hold.
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** The dotted path of the first key or string value with a lone surrogate ('' for the body itself), or null. */
+export function findLoneSurrogate(value: unknown, path = ''): string | null {
+  if (typeof value === 'string') return LONE_SURROGATE.test(value) ? path : null;
+  if (value === null || typeof value !== 'object') return null;
+  for (const [key, child] of Object.entries(value)) {
+    const childPath = path ? `${path}.${key}` : key;
+    if (LONE_SURROGATE.test(key)) return childPath;
+    const found = findLoneSurrogate(child, childPath);
+    if (found !== null) return found;
+  }
+  return null;
 }
 
 /**

@@ -1,7 +1,8 @@
 import { z } from 'zod';
+import { positiveIntSchema } from '@/lib/integers';
 import { ruleSetParametersSchema } from '@/lib/params';
 
-const revision = z.number({ error: 'Send the draft revision you loaded.' }).int().positive();
+const revision = z.number({ error: 'Send the draft revision you loaded.' }).pipe(positiveIntSchema('The draft revision'));
 
 /** Where a new draft comes from. */
 export const draftCreateSchema = z
@@ -30,4 +31,6 @@ export const retireSchema = z
   })
   .strict();
 
-export const revisionQuerySchema = z.object({ revision: z.coerce.number().int().positive() });
+export const revisionQuerySchema = z.object({
+  revision: z.coerce.number({ error: 'Send the draft revision you loaded (?revision=<n>).' }).pipe(positiveIntSchema('The draft revision')),
+});

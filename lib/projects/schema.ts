@@ -23,7 +23,8 @@ export const projectListQuerySchema = z.object({
   q: z.string().trim().max(120).optional(),
   sort: z.enum(projectSorts).default('updated'),
   dir: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).default(1),
+  // A million pages of a hundred is far past any company's projects, and keeps OFFSET inside bigint.
+  page: z.coerce.number().int().min(1).max(1_000_000, 'Pages go up to 1,000,000.').default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(20),
   archived: z.enum(['0', '1', 'all']).default('0'),
 });

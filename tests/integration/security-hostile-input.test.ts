@@ -21,6 +21,7 @@ let draftId: string;
 let draftRevision: number;
 let draftParameters: Record<string, unknown>;
 let draftRule: Record<string, unknown>;
+let jurisdictionSlug: string;
 
 const RUNS = 50;
 const LIMIT = 512 * 1024; // lib/http.ts
@@ -34,6 +35,7 @@ beforeAll(async () => {
   expect(p.status).toBe(201);
   projectId = p.body.id;
   const slug = `it-hostile-${randomBytes(4).toString('hex')}`;
+  jurisdictionSlug = slug;
   const j = await api(
     '/api/jurisdictions',
     postJson(
@@ -347,6 +349,51 @@ describe('the NUL character', () => {
     expectClearRefusal(await api('/api/tokens', postJson({ name: 'tok\u0000en' }, { cookie: own })), 'token name');
     expectClearRefusal(await api(`/api/projects/${projectId}`, postJson({ notes: 'a\u0000b' }, { cookie: installer, method: 'PATCH' })), 'notes');
     for (const path of ['/api/reports/%00', '/api/reports/%00/pdf']) expect([400, 404], path).toContain((await api(path, { cookie: installer })).status);
+  });
+});
+
+describe('numbers PostgreSQL cannot hold and text that is not Unicode', () => {
+  // PostgreSQL `integer` is signed 32-bit (PostgreSQL 15 manual, 8.1.1): 2147483647 is the largest.
+  const TOO_BIG = 2_147_483_648;
+
+  it('a lone surrogate in a project or token name is a 400 naming the field, and nothing is stored', async () => {
+    const name = `surrogate ${randomBytes(4).toString('hex')}`;
+    const project = await api('/api/projects', postJson({ name: `${name}\ud800`, siteAddress: '6 Half Street', jurisdiction: 'demo-county' }, { cookie: installer }));
+    expectClearRefusal(project, 'project name');
+    expect(project.body.errors[0].path).toBe('name');
+    expect(await db.selectFrom('projects').select('id').where('name', 'like', `${name}%`).execute()).toEqual([]);
+    const token = await api('/api/tokens', postJson({ name: 'half \udc00 token' }, { cookie: installer }));
+    expectClearRefusal(token, 'token name');
+    expect(token.body.errors[0].path).toBe('name');
+    // A whole pair is a real character and is kept.
+    const emoji = await api('/api/projects', postJson({ name: `${name} \ud83d\ude00`, siteAddress: '6 Half Street', jurisdiction: 'demo-county' }, { cookie: installer }));
+    expect(emoji.status, JSON.stringify(emoji.body)).toBe(201);
+  });
+
+  it('a plan revision number past the integer range is a 404, a body or query revision a 400 naming it', async () => {
+    const plan = await api(`/api/projects/${projectId}/plans/${TOO_BIG}`, { cookie: installer });
+    expect(plan.status, JSON.stringify(plan.body)).toBe(404);
+    const check = await api(`/api/projects/${projectId}/checks`, postJson({ revision: TOO_BIG }, { cookie: installer }));
+    expectClearRefusal(check, 'check revision');
+    expect(check.body.errors[0].path).toBe('revision');
+    const save = await api(`/api/rule-sets/${draftId}`, postJson({ revision: TOO_BIG, changelog: 'x' }, { cookie: admin, method: 'PATCH' }));
+    expectClearRefusal(save, 'draft revision');
+    expect(save.body.errors[0]).toMatchObject({ path: 'revision', message: expect.stringContaining('2,147,483,647') });
+    const discard = await api(`/api/rule-sets/${draftId}?revision=${TOO_BIG}`, { cookie: admin, method: 'DELETE' });
+    expectClearRefusal(discard, 'discard revision');
+    expect(await api(`/api/rule-sets/${draftId}`, { cookie: admin }).then((r) => r.status)).toBe(200);
+    const page = await api(`/api/projects?page=${10 ** 20}`, { cookie: installer });
+    expectClearRefusal(page, 'project list page');
+  });
+
+  it('the version comparison page without both versions asks for them instead of failing', async () => {
+    for (const query of ['', '?from=1', '?from=1&to=abc', `?from=1&to=${TOO_BIG}`]) {
+      const res = await fetch(`${baseUrl}/rules/${jurisdictionSlug}/diff${query}`, { headers: { cookie: admin }, redirect: 'manual' });
+      expect(res.status, query).toBe(200);
+      expect(await res.text(), query).toContain('Pick the two versions to compare');
+    }
+    const ok = await fetch(`${baseUrl}/rules/${jurisdictionSlug}/diff?from=1&to=2`, { headers: { cookie: admin }, redirect: 'manual' });
+    expect(ok.status).toBe(200);
   });
 });
 

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb, type DB } from '@/db';
+import { parsePositiveInt } from '@/lib/integers';
 import { getCheck, listChecks } from '@/db/checks';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
 import { getPlanRevision } from '@/db/plan-revisions';
@@ -40,8 +41,8 @@ export default async function DrawingPage({ params, searchParams }: { params: Pr
   const { revision: revParam } = await searchParams;
   const { user, project, published } = await loadProjectPage(id, `/projects/${id}/drawing`);
   const db = getDb();
-  const wanted = revParam ? Number(revParam) : 'latest';
-  if (wanted !== 'latest' && (!Number.isInteger(wanted) || wanted < 1)) notFound();
+  const wanted = revParam ? parsePositiveInt(revParam) : 'latest';
+  if (wanted === null) notFound();
   const [revision, checks] = await Promise.all([getPlanRevision(db, user, id, wanted), listChecks(db, user, id)]);
   if (wanted !== 'latest' && !revision) notFound();
 

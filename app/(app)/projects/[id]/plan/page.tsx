@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
+import { parsePositiveInt } from '@/lib/integers';
 import { getPlanRevision } from '@/db/plan-revisions';
 import { PlanEditor } from '@/components/plan-editor/plan-editor';
 import { ProjectHeader } from '@/components/projects/project-header';
@@ -18,8 +19,8 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
   const { revision: revParam } = await searchParams;
   const { user, project, published } = await loadProjectPage(id, `/projects/${id}/plan`);
   const db = getDb();
-  const wanted = revParam ? Number(revParam) : 'latest';
-  if (wanted !== 'latest' && (!Number.isInteger(wanted) || wanted < 1)) notFound();
+  const wanted = revParam ? parsePositiveInt(revParam) : 'latest';
+  if (wanted === null) notFound();
   const [revision, latest] = await Promise.all([getPlanRevision(db, user, id, wanted), getPlanRevision(db, user, id, 'latest')]);
   if (wanted !== 'latest' && !revision) notFound();
   const rules = published ? await getRuleSetById(db, published.id) : null;

@@ -3,12 +3,13 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { getVersionByNumber } from '@/db/rule-sets';
+import { getVersionByNumber, listVersions } from '@/db/rule-sets';
 import { DiffView } from '@/components/admin/diff-view';
 import { PageHeader } from '@/components/ui/page-header';
 import { diffRuleSets } from '@/lib/admin/diff';
 import { pageRoles } from '@/lib/auth/roles';
 import { requirePageUser } from '@/lib/auth/session';
+import { parsePositiveInt } from '@/lib/integers';
 
 export const metadata: Metadata = { title: 'Compare rule set versions' };
 
@@ -19,10 +20,13 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
   const db = getDb();
   const jurisdiction = await findJurisdictionBySlug(db, slug);
   if (!jurisdiction) notFound();
-  const [from, to] = await Promise.all([
-    getVersionByNumber(db, jurisdiction.id, Number(query.from)),
-    getVersionByNumber(db, jurisdiction.id, Number(query.to)),
-  ]);
+  const fromNumber = parsePositiveInt(query.from);
+  const toNumber = parsePositiveInt(query.to);
+  if (fromNumber === null || toNumber === null) {
+    const versions = await listVersions(db, jurisdiction.id);
+    return <PickVersions slug={slug} name={jurisdiction.name} versions={versions.map((v) => ({ version: v.version, status: v.status }))} from={query.from} to={query.to} />;
+  }
+  const [from, to] = await Promise.all([getVersionByNumber(db, jurisdiction.id, fromNumber), getVersionByNumber(db, jurisdiction.id, toNumber)]);
   if (!from || !to) notFound();
   const label = (s: typeof from) => `v${s.version} (${s.status})`;
   return (
@@ -31,6 +35,45 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
         <Link href={`/rules/${slug}`} className="btn-secondary">All versions</Link>
       </PageHeader>
       <DiffView diff={diffRuleSets(from, to)} fromLabel={label(from)} toLabel={label(to)} />
+    </>
+  );
+}
+
+type VersionOption = { version: number; status: string };
+
+/** Reached without two version numbers (a hand-typed or cut-off link): say so and let the admin pick them. */
+function PickVersions({ slug, name, versions, from, to }: { slug: string; name: string; versions: VersionOption[]; from?: string; to?: string }) {
+  const given = from !== undefined || to !== undefined;
+  const newest = versions[0]?.version;
+  const previous = versions[1]?.version ?? newest;
+  const select = (id: string, label: string, preset: number | undefined) => (
+    <div>
+      <label htmlFor={id} className="field-label">{label}</label>
+      <select id={id} name={id} defaultValue={preset} className="field-input">
+        {versions.map((v) => (
+          <option key={v.version} value={v.version}>v{v.version} ({v.status})</option>
+        ))}
+      </select>
+    </div>
+  );
+  return (
+    <>
+      <PageHeader kicker={name} title="Compare rule set versions">
+        <Link href={`/rules/${slug}`} className="btn-secondary">All versions</Link>
+      </PageHeader>
+      <p role={given ? 'alert' : undefined} className="mb-4 text-sm text-slate-700">
+        {given ? 'The link names no valid pair of versions (?from=<n>&to=<n>, each a version number). ' : ''}
+        Pick the two versions to compare.
+      </p>
+      {versions.length === 0 ? (
+        <p className="text-sm text-slate-700">This jurisdiction has no rule set versions yet.</p>
+      ) : (
+        <form method="get" className="flex flex-wrap items-end gap-4">
+          {select('from', 'From version', previous)}
+          {select('to', 'To version', newest)}
+          <button type="submit" className="btn-primary">Compare</button>
+        </form>
+      )}
     </>
   );
 }

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { positiveIntSchema } from '@/lib/integers';
 import { getDb } from '@/db';
 import { listChecks } from '@/db/checks';
 import { requireUser } from '@/lib/auth/session';
@@ -8,7 +9,7 @@ import { json, parseBody, route } from '@/lib/http';
 type Ctx = { params: Promise<{ id: string }> };
 
 const runSchema = z.strictObject({
-  revision: z.number().int().positive().optional().describe('Plan revision to check; the latest when left out.'),
+  revision: positiveIntSchema('The plan revision').optional().describe('Plan revision to check; the latest when left out.'),
 });
 
 export const GET = route<Ctx>(async (request, { params }) => {

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
+import { parsePositiveInt } from '@/lib/integers';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
 import { getPublishedVersion, getVersionByNumber } from '@/db/rule-sets';
 import { DraftWorkspace } from '@/components/admin/draft-workspace';
@@ -21,8 +22,8 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
   await requirePageUser(pageRoles['/rules'], `/rules/${slug}/versions/${version}`);
   const db = getDb();
   const jurisdiction = await findJurisdictionBySlug(db, slug);
-  const number = Number(version);
-  if (!jurisdiction || !Number.isInteger(number) || number < 1) notFound();
+  const number = parsePositiveInt(version);
+  if (!jurisdiction || number === null) notFound();
   const set = await getVersionByNumber(db, jurisdiction.id, number);
   if (!set) notFound();
   const published = await getPublishedVersion(db, jurisdiction.id);

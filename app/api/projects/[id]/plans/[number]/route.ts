@@ -3,14 +3,15 @@ import { getPlanRevision } from '@/db/plan-revisions';
 import { requireUser } from '@/lib/auth/session';
 import { NotFoundError } from '@/lib/errors';
 import { json, route } from '@/lib/http';
+import { parsePositiveInt } from '@/lib/integers';
 
 type Ctx = { params: Promise<{ id: string; number: string }> };
 
 export const GET = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer', 'admin']);
   const { id, number } = await params;
-  const n = number === 'latest' ? 'latest' : Number(number);
-  if (n !== 'latest' && (!Number.isInteger(n) || n < 1)) throw new NotFoundError('Plan revisions are numbered 1, 2, 3…');
+  const n = number === 'latest' ? 'latest' : parsePositiveInt(number);
+  if (n === null) throw new NotFoundError('Plan revisions are numbered 1, 2, 3…');
   const revision = await getPlanRevision(getDb(), user, id, n);
   if (!revision) throw new NotFoundError('This project has no such plan revision.');
   return json(revision);
