@@ -1,6 +1,6 @@
 import type { Metadata, Viewport } from 'next';
-import './globals.css';
-import { mono, sans } from './fonts';
+import '@/app/globals.css';
+import { mono, sans } from '@/app/fonts';
 
 export const metadata: Metadata = {
   title: { default: 'NookPass', template: '%s · NookPass' },

@@ -1,7 +1,7 @@
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import { toAppUser } from './users';
-import type { AppUser } from '@/lib/auth/roles';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import { toAppUser } from '@/db/users';
+import type { AppUser } from '@/lib/domain/roles';
 
 export type ApiTokenSummary = {
   id: string;

@@ -1,6 +1,6 @@
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import type { AttachmentsTable } from './types';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import type { AttachmentsTable } from '@/db/types';
 import type { Selectable } from 'kysely';
 
 export type Attachment = {

@@ -1,4 +1,4 @@
-import type { DB } from './index';
+import type { DB } from '@/db/index';
 
 export type AuditEntry = {
   actorUserId: string | null;

@@ -1,9 +1,9 @@
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import type { CheckOutcome } from './types';
-import type { AppUser } from '@/lib/auth/roles';
-import type { Evaluation, EvaluationSummary, Finding } from '@/lib/engine';
-import { getProject } from './projects';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import { outcomeOf, type CheckOutcome } from '@/lib/domain/checks/outcome';
+import type { AppUser } from '@/lib/domain/roles';
+import type { Evaluation, EvaluationSummary, Finding } from '@/lib/domain/engine';
+import { getProject } from '@/db/projects';
 
 export type StoredCheck = {
   id: string;
@@ -21,12 +21,6 @@ export type StoredCheck = {
 };
 
 export type CheckListItem = Omit<StoredCheck, 'inputs' | 'facts' | 'findings'>;
-
-export function outcomeOf(summary: EvaluationSummary): CheckOutcome {
-  if (summary.fail > 0) return 'fail';
-  if (summary.needsInfo > 0) return 'incomplete';
-  return 'pass';
-}
 
 function checkQuery(db: DB) {
   return db

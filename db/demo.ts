@@ -1,5 +1,5 @@
 // The demo scenario: invented companies, people and jurisdictions for local use and tests only.
-import type { NewJurisdiction, Role } from './types';
+import type { NewJurisdiction, Role } from '@/db/types';
 import type { RuleSetOverrides } from '@/rules';
 
 export const DEMO_EMAIL_DOMAIN = 'nookpass.demo';

@@ -1,6 +1,6 @@
 import { Kysely, PostgresDialect } from 'kysely';
 import pg from 'pg';
-import type { Database } from './types';
+import type { Database } from '@/db/types';
 
 // pg returns int8 and numeric as strings; our bigints (audit ids, counts) fit in a double.
 pg.types.setTypeParser(pg.types.builtins.INT8, (v) => Number(v));

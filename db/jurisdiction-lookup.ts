@@ -1,4 +1,4 @@
-import type { DB } from './index';
+import type { DB } from '@/db/index';
 
 /** A jurisdiction and the id of its published rule set version, in one query (the evaluation API's hot path). */
 export async function findJurisdictionWithPublished(db: DB, slug: string): Promise<{ id: string; slug: string; name: string; publishedRuleSetId: string | null } | null> {

@@ -1,7 +1,7 @@
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import type { JurisdictionRow, NewJurisdiction, PlumbingFamily } from './types';
-import { NotFoundError, ValidationError } from '@/lib/errors';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import type { JurisdictionRow, NewJurisdiction, PlumbingFamily } from '@/db/types';
+import { NotFoundError, ValidationError } from '@/lib/domain/errors';
 
 export type JurisdictionEditions = {
   building: string;

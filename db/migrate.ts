@@ -1,5 +1,5 @@
-import { createDb } from './index';
-import { migrateToLatest } from './migrator';
+import { createDb } from '@/db/index';
+import { migrateToLatest } from '@/db/migrator';
 
 async function main() {
   const url = process.env.DATABASE_URL;

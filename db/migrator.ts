@@ -1,7 +1,7 @@
 import { promises as fs } from 'node:fs';
 import path from 'node:path';
 import { FileMigrationProvider, Migrator, type MigrationResultSet } from 'kysely';
-import type { DB } from './index';
+import type { DB } from '@/db/index';
 
 export const migrationFolder = path.join(process.cwd(), 'migrations');
 

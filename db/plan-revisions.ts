@@ -1,7 +1,7 @@
-import type { DB } from './index';
-import type { AppUser } from '@/lib/auth/roles';
-import { getProject } from './projects';
-import { diffPlans, summarizeChanges, type PlanChange } from '@/lib/revisions/change-summary';
+import type { DB } from '@/db/index';
+import type { AppUser } from '@/lib/domain/roles';
+import { getProject } from '@/db/projects';
+import { diffPlans, summarizeChanges, type PlanChange } from '@/lib/domain/revisions/change-summary';
 
 export type PlanRevision = {
   id: string;

@@ -1,10 +1,10 @@
 import { sql } from 'kysely';
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import type { CheckOutcome } from './types';
-import type { ProjectInput, ProjectListQuery, ProjectUpdateInput } from '@/lib/projects/schema';
-import type { AppUser } from '@/lib/auth/roles';
-import { ForbiddenError, NotFoundError, ValidationError } from '@/lib/errors';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import type { CheckOutcome } from '@/db/types';
+import type { ProjectInput, ProjectListQuery, ProjectUpdateInput } from '@/lib/domain/projects/schema';
+import type { AppUser } from '@/lib/domain/roles';
+import { ForbiddenError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 
 export type Project = {
   id: string;

@@ -1,6 +1,6 @@
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import type { ReviewOutcome } from './types';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import type { ReviewOutcome } from '@/db/types';
 
 export type IssuedReport = {
   id: string;

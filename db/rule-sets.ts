@@ -1,9 +1,9 @@
-import type { DB } from './index';
-import { writeAudit } from './audit';
-import { ConflictError, NotFoundError, ValidationError } from '@/lib/errors';
-import type { RuleSetStatus } from './types';
-import type { RuleSetParameters } from '@/lib/params';
-import type { StoredRule } from '@/rules';
+import type { DB } from '@/db/index';
+import { writeAudit } from '@/db/audit';
+import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
+import type { RuleSetStatus } from '@/db/types';
+import type { RuleSetParameters } from '@/lib/domain/params';
+import type { StoredRule } from '@/lib/domain/rule-format';
 
 export type RuleSetVersion = {
   id: string;

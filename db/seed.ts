@@ -1,10 +1,10 @@
 import bcrypt from 'bcryptjs';
-import { createDb, type DB } from './index';
-import { demoAmendments, demoJurisdictions, demoOrganizations, demoPassword, demoProjects, demoUsers } from './demo';
-import { demoPlans } from './demo-plans';
-import { toJurisdiction } from './jurisdictions';
-import { createPublishedVersion } from './rule-sets';
-import { parsePlan } from '@/lib/plan';
+import { createDb, type DB } from '@/db/index';
+import { demoAmendments, demoJurisdictions, demoOrganizations, demoPassword, demoProjects, demoUsers } from '@/db/demo';
+import { demoPlans } from '@/db/demo-plans';
+import { toJurisdiction } from '@/db/jurisdictions';
+import { createPublishedVersion } from '@/db/rule-sets';
+import { parsePlan } from '@/lib/domain/plan';
 import { buildRuleSet } from '@/rules';
 
 /** Seeds the invented demo scenario. Idempotent: a second run changes no rows. */

@@ -1,5 +1,5 @@
 import { sql } from 'kysely';
-import type { DB } from './index';
+import type { DB } from '@/db/index';
 
 // Five failures inside fifteen minutes lock the e-mail for fifteen minutes (common practice, no published source).
 export const THROTTLE = { maxFailures: 5, windowMs: 15 * 60_000, lockMs: 15 * 60_000 };

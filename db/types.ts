@@ -4,8 +4,13 @@ type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
 type CreatedAt = ColumnType<Date, Date | string | undefined, never>;
 type Json<T> = ColumnType<T, string, string>;
 
-export type Role = 'installer' | 'inspector' | 'admin';
-export type PlumbingFamily = 'IPC' | 'UPC' | 'IRC';
+import type { CheckOutcome } from '@/lib/domain/checks/outcome';
+import type { PlumbingFamily } from '@/lib/domain/editions';
+import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
+import type { Role } from '@/lib/domain/roles';
+import type { RuleSetStatus } from '@/lib/domain/rule-sets/status';
+
+export type { CheckOutcome, PlumbingFamily, ReviewOutcome, Role, RuleSetStatus };
 
 export interface OrganizationsTable {
   id: Generated<string>;
@@ -74,7 +79,6 @@ export interface AuditLogTable {
   details: Json<Record<string, unknown>>;
 }
 
-export type RuleSetStatus = 'draft' | 'published' | 'retired';
 
 export interface RuleSetsTable {
   id: Generated<string>;
@@ -131,7 +135,6 @@ export interface PlanRevisionsTable {
   created_at: CreatedAt;
 }
 
-export type CheckOutcome = 'pass' | 'fail' | 'incomplete';
 
 export interface ChecksTable {
   id: Generated<string>;
@@ -192,7 +195,6 @@ export interface ReportSendsTable {
   created_at: CreatedAt;
 }
 
-export type ReviewOutcome = 'approved' | 'corrections-needed';
 
 export interface InspectionReviewsTable {
   id: Generated<string>;

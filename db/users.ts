@@ -1,6 +1,6 @@
-import type { DB } from './index';
-import type { Role, UserRow } from './types';
-import type { AppUser } from '@/lib/auth/roles';
+import type { DB } from '@/db/index';
+import type { Role, UserRow } from '@/db/types';
+import type { AppUser } from '@/lib/domain/roles';
 
 export function toAppUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'organization_id' | 'jurisdiction_id' | 'is_demo'>): AppUser {
   return {

@@ -1,4 +1,4 @@
-import { all, commonPractice, cond, manufacturer, type RuleDefinition } from './define';
+import { all, commonPractice, cond, manufacturer, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const MAKER = "The maker's clearances are part of a safe installation: a dryer boxed in too tightly runs hot.";
 

@@ -1,4 +1,4 @@
-import { all, commonPractice, cond, param, type RuleDefinition } from './define';
+import { all, commonPractice, cond, param, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const HINGED = all('hinged-doors', cond('has-hinged-doors', 'doors.hingedDoorCount', 'greaterThan', 0));
 

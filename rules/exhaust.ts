@@ -1,4 +1,4 @@
-import { all, any, cond, param, paramCond, type CitationEntry, type RuleDefinition } from './define';
+import { all, any, cond, param, paramCond, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const irc = (section: string, confidence: CitationEntry['confidence'], years?: number[]): CitationEntry => ({
   source: 'building',

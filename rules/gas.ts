@@ -1,4 +1,4 @@
-import { all, cond, param, type CitationEntry, type RuleDefinition } from './define';
+import { all, cond, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const gas = (irc: string, ifgc: string, confidence: CitationEntry['confidence'], ifgcConfidence = confidence): CitationEntry[] => [
   { source: 'fuelGas', code: 'IRC', section: irc, confidence },

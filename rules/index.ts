@@ -1,17 +1,15 @@
-import { editionsSchema, type Editions } from '@/lib/editions';
-import { defaultParameters, mergeParameters, ruleSetParametersSchema, type DeepPartial, type RuleSetParameters } from '@/lib/params';
-import { clearanceRules } from './clearances';
-import { resolveCitation, type RuleDefinition, type StoredRule } from './define';
-import { doorHardwareRules } from './door-hardware';
-import { electricalRules } from './electrical';
-import { exhaustRules } from './exhaust';
-import { gasRules } from './gas';
-import { makeupAirRules } from './makeup-air';
-import { plumbingRules } from './plumbing';
-import { serviceRules } from './service';
+import { editionsSchema, type Editions } from '@/lib/domain/editions';
+import { defaultParameters, mergeParameters, ruleSetParametersSchema, type DeepPartial, type RuleSetParameters } from '@/lib/domain/params';
+import { clearanceRules } from '@/rules/clearances';
+import { resolveCitation, type RuleDefinition, type StoredRule } from '@/lib/domain/rule-format/define';
+import { doorHardwareRules } from '@/rules/door-hardware';
+import { electricalRules } from '@/rules/electrical';
+import { exhaustRules } from '@/rules/exhaust';
+import { gasRules } from '@/rules/gas';
+import { makeupAirRules } from '@/rules/makeup-air';
+import { plumbingRules } from '@/rules/plumbing';
+import { serviceRules } from '@/rules/service';
 
-export * from './define';
-export { conditionFacts, conditionSchema, operators, storedRuleSchema, validateRuleAgainstCatalog, type FieldError, type StoredCondition } from './stored-rule';
 
 /** Every baseline rule with its per-edition citation list. */
 export const baselineRules: readonly RuleDefinition[] = [

@@ -1,4 +1,4 @@
-import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from './define';
+import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const imc = (section: string, confidence: CitationEntry['confidence'], years: number[]): CitationEntry => ({
   source: 'mechanical',

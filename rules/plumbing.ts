@@ -1,4 +1,4 @@
-import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from './define';
+import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const code = (family: 'IRC' | 'IPC' | 'UPC', section: string, confidence: CitationEntry['confidence']): CitationEntry => ({
   source: 'plumbing',

@@ -1,4 +1,4 @@
-import { all, commonPractice, cond, type RuleDefinition } from './define';
+import { all, commonPractice, cond, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 export const serviceRules: RuleDefinition[] = [
   {

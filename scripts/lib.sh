@@ -203,8 +203,8 @@ export NOOKPASS_S3_PORT="${NOOKPASS_S3_PORT:-54327}"
 start_fake() {
   local name="$1" suffix="${2:-}"
   case "$name" in
-    smtp) NOOKPASS_MAIL_DIR="$NP_DATA/mail$suffix" node_modules/.bin/tsx lib/fakes/fake-smtp.ts > "$NP_DATA/fake-smtp$suffix.log" 2>&1 & ;;
-    s3) NOOKPASS_S3_DIR="$NP_DATA/s3$suffix" node_modules/.bin/tsx lib/fakes/fake-s3.ts > "$NP_DATA/fake-s3$suffix.log" 2>&1 & ;;
+    smtp) NOOKPASS_MAIL_DIR="$NP_DATA/mail$suffix" node_modules/.bin/tsx lib/platform/fakes/fake-smtp.ts > "$NP_DATA/fake-smtp$suffix.log" 2>&1 & ;;
+    s3) NOOKPASS_S3_DIR="$NP_DATA/s3$suffix" node_modules/.bin/tsx lib/platform/fakes/fake-s3.ts > "$NP_DATA/fake-s3$suffix.log" 2>&1 & ;;
     *) die "unknown fake service '$name'" ;;
   esac
   echo $! > "$NP_DATA/fake-$name$suffix.pid"

@@ -2,8 +2,8 @@ import Link from 'next/link';
 import { redirect } from 'next/navigation';
 import { NavLinks } from '@/components/shell/nav-links';
 import { Wordmark } from '@/components/ui/logo';
-import { navigationFor } from '@/lib/auth/roles';
-import { optionalPageUser } from '@/lib/auth/session';
+import { navigationFor } from '@/lib/domain/roles';
+import { optionalPageUser } from '@/lib/platform/auth/session';
 
 export const dynamic = 'force-dynamic';
 

@@ -1,5 +1,5 @@
-import type { RuleSetDiff, ValueChange } from '@/lib/admin/diff';
-import type { StoredRule } from '@/rules';
+import type { RuleSetDiff, ValueChange } from '@/lib/domain/rule-sets/diff';
+import type { StoredRule } from '@/lib/domain/rule-format';
 
 function show(value: unknown): string {
   if (value === null || value === undefined) return '—';

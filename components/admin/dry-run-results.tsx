@@ -1,5 +1,5 @@
 import { statusLabel, StatusMark } from '@/components/ui/status-badge';
-import type { FindingDelta, Outcome, SubjectComparison } from '@/lib/admin/dry-run';
+import type { FindingDelta, Outcome, SubjectComparison } from '@/lib/domain/rule-sets/dry-run';
 
 const outcomeLabel: Record<Outcome, string> = { pass: 'passes', fail: 'fails', incomplete: 'incomplete' };
 

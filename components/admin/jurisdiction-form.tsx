@@ -5,8 +5,8 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm, type FieldErrors } from 'react-hook-form';
 import { z } from 'zod';
-import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/admin/jurisdiction-schema';
-import { ApiError, fetchJson } from '@/lib/client/fetch-json';
+import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
+import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 
 type Values = {
   slug: string;

@@ -3,10 +3,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
-import { fieldsOf, readPath, type FormField } from '@/lib/admin/form-schema';
-import { ApiError } from '@/lib/client/fetch-json';
-import { ruleSetParametersSchema, type RuleSetParameters } from '@/lib/params';
-import { formatLength } from '@/lib/units';
+import { fieldsOf, readPath, type FormField } from '@/lib/domain/rule-sets/form-schema';
+import { ApiError } from '@/lib/platform/client/fetch-json';
+import { ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
+import { formatLength } from '@/lib/domain/units';
 
 // Generated once from the zod schema: a parameter added there appears here with its description as label.
 const FIELDS = fieldsOf(ruleSetParametersSchema);

@@ -2,10 +2,10 @@
 
 import { useState } from 'react';
 import { useForm, type FieldErrors, type Resolver } from 'react-hook-form';
-import { blankRule, parseRuleInput, ruleToInput, type RuleFormValues } from '@/lib/admin/rule-input';
-import { ApiError } from '@/lib/client/fetch-json';
-import { factCatalog } from '@/lib/facts';
-import { areas, type StoredRule } from '@/rules';
+import { blankRule, parseRuleInput, ruleToInput, type RuleFormValues } from '@/lib/domain/rule-sets/rule-input';
+import { ApiError } from '@/lib/platform/client/fetch-json';
+import { factCatalog } from '@/lib/domain/facts';
+import { areas, type StoredRule } from '@/lib/domain/rule-format';
 
 // Fields whose errors are shown per part (citation.code, messages.fail); every other path goes to its top-level field.
 const NESTED = new Set(['citation', 'messages']);

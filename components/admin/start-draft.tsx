@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { fetchJson } from '@/lib/client/fetch-json';
+import { fetchJson } from '@/lib/platform/client/fetch-json';
 
 /** Starts the jurisdiction's draft: a full copy of the published version, or the model-code baseline for its editions. */
 export function StartDraft({ slug, hasPublished }: { slug: string; hasPublished: boolean }) {

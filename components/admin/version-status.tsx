@@ -1,4 +1,4 @@
-import type { RuleSetStatus } from '@/db/types';
+import { ruleSetStatusLabels as labels, type RuleSetStatus } from '@/lib/domain/rule-sets/status';
 
 const styles: Record<RuleSetStatus, string> = {
   draft: 'border-dashed border-ink/40 text-ink-soft',
@@ -6,7 +6,6 @@ const styles: Record<RuleSetStatus, string> = {
   retired: 'border-rule bg-paper-deep text-ink-faint line-through decoration-1',
 };
 
-const labels: Record<RuleSetStatus, string> = { draft: 'Draft', published: 'Published', retired: 'Retired' };
 
 /** A rule set version's state: dashed outline = draft (editable), solid = published (unchangeable), struck = retired. */
 export function VersionStatus({ status }: { status: RuleSetStatus }) {

@@ -1,9 +1,9 @@
 'use client';
 
 import { useMemo, useState } from 'react';
-import type { Finding } from '@/lib/engine';
+import type { Finding } from '@/lib/domain/engine';
 import { StatusBadge, type Status } from '@/components/ui/status-badge';
-import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/areas';
+import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/domain/areas';
 
 type Filter = 'all' | 'problems' | 'fail';
 

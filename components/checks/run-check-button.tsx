@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { fetchJson } from '@/lib/client/fetch-json';
+import { fetchJson } from '@/lib/platform/client/fetch-json';
 
 export function RunCheckButton({ projectId, label = 'Run check', className = 'btn-primary' }: { projectId: string; label?: string; className?: string }) {
   const router = useRouter();

@@ -1,5 +1,5 @@
 import { StatusMark, type Status } from '@/components/ui/status-badge';
-import type { EvaluationSummary } from '@/lib/engine';
+import type { EvaluationSummary } from '@/lib/domain/engine';
 
 const items: Array<[keyof EvaluationSummary, Status, string]> = [
   ['fail', 'fail', 'fail'],

@@ -1,8 +1,8 @@
-import type { Drawing } from '@/lib/drawing';
+import type { Drawing } from '@/lib/domain/drawing';
 import { StatusMark } from '@/components/ui/status-badge';
-import { labelForPath } from '@/lib/units';
-import { DrawingLegend } from './drawing-legend';
-import { DrawingSvg } from './drawing-svg';
+import { labelForPath } from '@/lib/domain/units';
+import { DrawingLegend } from '@/components/drawings/drawing-legend';
+import { DrawingSvg } from '@/components/drawings/drawing-svg';
 
 const scaleLabel: Record<Drawing['scale'], string> = {
   'to-scale': 'to scale',

@@ -1,6 +1,6 @@
-import type { Drawing, MarkStatus, ShapeRole } from '@/lib/drawing';
+import type { Drawing, MarkStatus, ShapeRole } from '@/lib/domain/drawing';
 import { StatusMark } from '@/components/ui/status-badge';
-import { hatchStroke, roleLegend, roleStyle, statusStroke } from './drawing-style';
+import { hatchStroke, roleLegend, roleStyle, statusStroke } from '@/components/drawings/drawing-style';
 
 function Swatch({ role, status }: { role: ShapeRole; status?: MarkStatus }) {
   const style = roleStyle[role];

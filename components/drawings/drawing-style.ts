@@ -1,4 +1,4 @@
-import type { MarkStatus, ShapeRole } from '@/lib/drawing';
+import type { MarkStatus, ShapeRole } from '@/lib/domain/drawing';
 
 /**
  * How each role looks on screen and paper, in the palette of tailwind.config.ts. Weights and

@@ -1,5 +1,5 @@
-import { dimensionGeometry, type Drawing, type MarkShape, type Point, type Shape } from '@/lib/drawing';
-import { hatchStroke, roleStyle, statusFill, statusStroke, type HatchName } from './drawing-style';
+import { dimensionGeometry, type Drawing, type MarkShape, type Point, type Shape } from '@/lib/domain/drawing';
+import { hatchStroke, roleStyle, statusFill, statusStroke, type HatchName } from '@/components/drawings/drawing-style';
 
 const HATCHES: HatchName[] = ['zone', 'kick', 'transition', 'fail', 'caution'];
 

@@ -1,7 +1,7 @@
-import type { DoorHingeLayout } from '@/lib/drawing';
-import { formatLength, type UnitSystem } from '@/lib/units';
-import { DrawingFigure, DrawingNotes, MissingFields } from './drawing-figure';
-import { DrawingSvg } from './drawing-svg';
+import type { DoorHingeLayout } from '@/lib/domain/drawing';
+import { formatLength, type UnitSystem } from '@/lib/domain/units';
+import { DrawingFigure, DrawingNotes, MissingFields } from '@/components/drawings/drawing-figure';
+import { DrawingSvg } from '@/components/drawings/drawing-svg';
 
 function length(value: number | null, units: UnitSystem): string {
   if (value === null) return 'not known';

@@ -1,12 +1,12 @@
 'use client';
 
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
-import { fittingEquivalentIn } from '@/lib/facts/exhaust';
-import type { RuleSetParameters } from '@/lib/params';
-import type { RunItem } from '@/lib/plan';
-import { formatLength, parseLength, type UnitSystem } from '@/lib/units';
-import { runItemFields } from './field-spec';
-import { PlanField } from './measure-field';
+import { fittingEquivalentIn } from '@/lib/domain/facts/exhaust';
+import type { RuleSetParameters } from '@/lib/domain/params';
+import type { RunItem } from '@/lib/domain/plan';
+import { formatLength, parseLength, type UnitSystem } from '@/lib/domain/units';
+import { runItemFields } from '@/components/plan-editor/field-spec';
+import { PlanField } from '@/components/plan-editor/measure-field';
 
 type FormRunItem = { straight?: string; elbow?: string; fitting?: string };
 

@@ -6,7 +6,7 @@ import {
   ductMaterials,
   fittingKinds,
   spaceKinds,
-} from '@/lib/plan';
+} from '@/lib/domain/plan';
 
 export type FieldKind = 'length' | 'area' | 'number' | 'bool' | 'enum' | 'int-enum' | 'length-list' | 'presence';
 

@@ -1,6 +1,6 @@
 // Converts between a saved plan (as the installer entered it) and the editor's string-valued form.
-import type { PlanInput } from '@/lib/plan';
-import { runItemFields, sections, type FieldSpec, type FormValues } from './field-spec';
+import type { PlanInput } from '@/lib/domain/plan';
+import { runItemFields, sections, type FieldSpec, type FormValues } from '@/components/plan-editor/field-spec';
 
 function getAt(obj: any, path: string): any {
   return path.split('.').reduce((o, k) => (o == null ? undefined : o[k]), obj);

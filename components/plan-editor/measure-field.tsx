@@ -1,8 +1,8 @@
 'use client';
 
 import { useFormContext, useWatch, get } from 'react-hook-form';
-import { formatArea, formatLength, parseArea, parseLength, type UnitSystem } from '@/lib/units';
-import type { FieldSpec } from './field-spec';
+import { formatArea, formatLength, parseArea, parseLength, type UnitSystem } from '@/lib/domain/units';
+import type { FieldSpec } from '@/components/plan-editor/field-spec';
 
 /** Shows a typed length or area in the other unit system, so a mixed-unit entry can be checked at a glance. */
 function OtherUnits({ name, kind }: { name: string; kind: 'length' | 'area' }) {

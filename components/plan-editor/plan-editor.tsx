@@ -3,13 +3,13 @@
 import { useRouter } from 'next/navigation';
 import { useEffect, useMemo, useState } from 'react';
 import { FormProvider, useFieldArray, useForm, useFormContext, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
-import { ApiError, fetchJson } from '@/lib/client/fetch-json';
-import type { RuleSetParameters } from '@/lib/params';
-import { parsePlan, type PlanInput } from '@/lib/plan';
-import { ExhaustRouteBuilder } from './exhaust-route-builder';
-import { sections, type FormValues, type ListSpec } from './field-spec';
-import { formToPlan, planToForm } from './form-values';
-import { PlanField } from './measure-field';
+import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
+import type { RuleSetParameters } from '@/lib/domain/params';
+import { parsePlan, type PlanInput } from '@/lib/domain/plan';
+import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
+import { sections, type FormValues, type ListSpec } from '@/components/plan-editor/field-spec';
+import { formToPlan, planToForm } from '@/components/plan-editor/form-values';
+import { PlanField } from '@/components/plan-editor/measure-field';
 
 type FieldError = { path: string; message: string };
 

@@ -2,7 +2,7 @@
 
 import { useRef, useState } from 'react';
 import useSWR from 'swr';
-import { fetchJson, swrFetcher } from '@/lib/client/fetch-json';
+import { fetchJson, swrFetcher } from '@/lib/platform/client/fetch-json';
 
 type A = { id: string; kind: 'photo' | 'document'; filename: string; caption: string; byteSize: number; createdAt: string };
 

@@ -4,8 +4,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { ApiError, fetchJson } from '@/lib/client/fetch-json';
-import { projectInputSchema, type ProjectInput } from '@/lib/projects/schema';
+import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
+import { projectInputSchema, type ProjectInput } from '@/lib/domain/projects/schema';
 
 type Jurisdiction = { slug: string; name: string; editions: { building: string; electrical: string; plumbing: string } };
 

@@ -3,7 +3,7 @@
 import Link from 'next/link';
 import { useEffect, useState } from 'react';
 import useSWR from 'swr';
-import { swrFetcher } from '@/lib/client/fetch-json';
+import { swrFetcher } from '@/lib/platform/client/fetch-json';
 import { StatusBadge } from '@/components/ui/status-badge';
 
 type Item = {

@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { ApiError, fetchJson } from '@/lib/client/fetch-json';
+import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 
 export function ReportActions({ checkId, inspectorEmail, canSend }: { checkId: string; inspectorEmail: string | null; canSend: boolean }) {
   const router = useRouter();

@@ -3,8 +3,8 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { ApiError, fetchJson } from '@/lib/client/fetch-json';
-import { reviewSchema, type ReviewInput } from '@/lib/report/review-schema';
+import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
+import { reviewSchema, type ReviewInput } from '@/lib/domain/reports/review-schema';
 
 type F = { ruleKey: string; title: string; status: string };
 

@@ -2,7 +2,7 @@
 
 import Link from 'next/link';
 import { usePathname } from 'next/navigation';
-import type { NavItem } from '@/lib/auth/roles';
+import type { NavItem } from '@/lib/domain/roles';
 
 export function NavLinks({ items }: { items: NavItem[] }) {
   const pathname = usePathname();

@@ -3,7 +3,7 @@ import { createHash } from 'node:crypto';
 import type pg from 'pg';
 import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
 import { getPool } from '@/db';
-import { TooManyRequestsError } from '@/lib/errors';
+import { TooManyRequestsError } from '@/lib/domain/errors';
 
 /**
  * One limit: at most `points` within `durationSeconds` per key; once over, the key stays refused for

@@ -1,8 +1,8 @@
 import { performance } from 'node:perf_hooks';
 import { Engine, type RuleProperties } from 'json-rules-engine';
-import { evaluate, toEngineRules } from '@/lib/engine';
-import { computeFacts } from '@/lib/facts';
-import { parsePlan } from '@/lib/plan';
+import { evaluate, toEngineRules } from '@/lib/domain/engine';
+import { computeFacts } from '@/lib/domain/facts';
+import { parsePlan } from '@/lib/domain/plan';
 import { buildRuleSet } from '@/rules';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
 

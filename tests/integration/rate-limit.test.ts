@@ -1,7 +1,7 @@
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { migrateToLatest } from '@/db/migrator';
-import { TooManyRequestsError } from '@/lib/errors';
+import { TooManyRequestsError } from '@/lib/domain/errors';
 import { clientAddress, SharedLimiter, type LimitPolicy } from '@/lib/platform/rate-limit';
 import { createScratchDb } from './helpers';
 

@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { citationMismatches } from '@/lib/admin/citations';
-import { diffRuleSets, diffValues, isEmptyDiff } from '@/lib/admin/diff';
-import { compareFindingSets, outcomeFor, summarizeComparisons } from '@/lib/admin/dry-run';
-import { fieldsOf, leafFields, readPath } from '@/lib/admin/form-schema';
-import { publishErrors } from '@/lib/admin/publish-check';
-import { parseRuleInput, ruleToInput } from '@/lib/admin/rule-input';
-import { stableStringify } from '@/lib/admin/stable-json';
-import { evaluate } from '@/lib/engine';
-import { ruleSetParametersSchema } from '@/lib/params';
-import { parsePlan } from '@/lib/plan';
+import { citationMismatches } from '@/lib/domain/rule-sets/citations';
+import { diffRuleSets, diffValues, isEmptyDiff } from '@/lib/domain/rule-sets/diff';
+import { compareFindingSets, outcomeFor, summarizeComparisons } from '@/lib/domain/rule-sets/dry-run';
+import { fieldsOf, leafFields, readPath } from '@/lib/domain/rule-sets/form-schema';
+import { publishErrors } from '@/lib/domain/rule-sets/publish-check';
+import { parseRuleInput, ruleToInput } from '@/lib/domain/rule-sets/rule-input';
+import { stableStringify } from '@/lib/domain/rule-sets/stable-json';
+import { evaluate } from '@/lib/domain/engine';
+import { ruleSetParametersSchema } from '@/lib/domain/params';
+import { parsePlan } from '@/lib/domain/plan';
 import { buildRuleSet } from '@/rules';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
 

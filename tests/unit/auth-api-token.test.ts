@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { describe, expect, it } from 'vitest';
-import { bearerToken, generateApiToken, hashApiToken, looksLikeApiToken, tokenMatches } from '@/lib/auth/api-token';
+import { bearerToken, generateApiToken, hashApiToken, looksLikeApiToken, tokenMatches } from '@/lib/platform/auth/api-token';
 
 describe('personal API tokens', () => {
   it('generates a prefixed 256-bit token and stores only its SHA-256', () => {

@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import { describe, expect, it } from 'vitest';
-import { DUMMY_HASH, MIN_PASSWORD_LENGTH, hashPassword, verifyPassword } from '@/lib/auth/password';
+import { DUMMY_HASH, MIN_PASSWORD_LENGTH, hashPassword, verifyPassword } from '@/lib/platform/auth/password';
 
 describe('password hashing', () => {
   it('stores a bcrypt hash that verifies the password and nothing else', async () => {

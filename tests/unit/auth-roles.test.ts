@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { hasRole, navigationFor, pageRoles, roles } from '@/lib/auth/roles';
+import { hasRole, navigationFor, pageRoles, roles } from '@/lib/domain/roles';
 
 describe('role helper', () => {
   it('allows only the listed roles', () => {

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { boundsOf, dimensionGeometry, frame, frontElevation, planView, type RectShape, type Shape } from '@/lib/drawing';
-import { computeFacts } from '@/lib/facts';
-import { defaultParameters } from '@/lib/params';
-import { parsePlan, type Plan } from '@/lib/plan';
+import { boundsOf, dimensionGeometry, frame, frontElevation, planView, type RectShape, type Shape } from '@/lib/domain/drawing';
+import { computeFacts } from '@/lib/domain/facts';
+import { defaultParameters } from '@/lib/domain/params';
+import { parsePlan, type Plan } from '@/lib/domain/plan';
 import { gasWalkInBedroomPlan, hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
 import { check, EDITIONS_2018, variant } from './support/check';
 

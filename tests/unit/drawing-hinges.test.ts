@@ -2,9 +2,9 @@ import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 import { DrawingSvg } from '@/components/drawings/drawing-svg';
-import { CUP_DIAMETER_MM, hingeLayouts, PLATE_SETBACK_MM, TEMPLATE_SHEET_IN, type Shape } from '@/lib/drawing';
-import { defaultParameters } from '@/lib/params';
-import { parsePlan, type Plan } from '@/lib/plan';
+import { CUP_DIAMETER_MM, hingeLayouts, PLATE_SETBACK_MM, TEMPLATE_SHEET_IN, type Shape } from '@/lib/domain/drawing';
+import { defaultParameters } from '@/lib/domain/params';
+import { parsePlan, type Plan } from '@/lib/domain/plan';
 import { gasWalkInBedroomPlan, hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
 import { check, EDITIONS_2018, variant } from './support/check';
 

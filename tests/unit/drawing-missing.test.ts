@@ -3,9 +3,9 @@ import { createElement } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 import { DrawingFigure } from '@/components/drawings/drawing-figure';
-import { boundsOf, exhaustSchematic, frontElevation, hingeLayouts, planView, type Drawing } from '@/lib/drawing';
-import { defaultParameters } from '@/lib/params';
-import { parsePlan, type Plan } from '@/lib/plan';
+import { boundsOf, exhaustSchematic, frontElevation, hingeLayouts, planView, type Drawing } from '@/lib/domain/drawing';
+import { defaultParameters } from '@/lib/domain/params';
+import { parsePlan, type Plan } from '@/lib/domain/plan';
 import { demoPlans, hallClosetPassPlan } from '@/tests/fixtures/plans';
 import { EDITIONS_2018, type LoosePlan } from './support/check';
 

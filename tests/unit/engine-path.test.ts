@@ -1,7 +1,7 @@
 import { JSONPath } from 'jsonpath-plus';
 import { describe, expect, it } from 'vitest';
-import { resolveSimplePath } from '@/lib/engine';
-import { defaultParameters, readParam } from '@/lib/params';
+import { resolveSimplePath } from '@/lib/domain/engine';
+import { defaultParameters, readParam } from '@/lib/domain/params';
 
 const params = defaultParameters({ building: 'IRC 2021', electrical: 'NEC 2023', plumbing: 'UPC 2021', plumbingFamily: 'UPC', mechanical: 'IMC 2021', fuelGas: 'IFGC 2021' });
 

@@ -1,9 +1,10 @@
 import { Engine } from 'json-rules-engine';
 import { describe, expect, it, vi } from 'vitest';
-import { clearCompiledRuleSets, evaluate } from '@/lib/engine';
-import { factCatalog } from '@/lib/facts';
-import { parsePlan } from '@/lib/plan';
-import { baselineRules, buildRuleSet, storedRuleSchema, validateRuleAgainstCatalog, type StoredRule } from '@/rules';
+import { clearCompiledRuleSets, evaluate } from '@/lib/domain/engine';
+import { factCatalog } from '@/lib/domain/facts';
+import { parsePlan } from '@/lib/domain/plan';
+import { baselineRules, buildRuleSet } from '@/rules';
+import { storedRuleSchema, validateRuleAgainstCatalog, type StoredRule } from '@/lib/domain/rule-format';
 import { gasWalkInBedroomPlan, hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
 import { check, EDITIONS_2018, finding, variant } from './support/check';
 

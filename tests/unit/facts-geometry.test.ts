@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { computeFacts, hingesRequired, nominalSizeIn } from '@/lib/facts';
-import { defaultParameters } from '@/lib/params';
-import { parsePlan } from '@/lib/plan';
+import { computeFacts, hingesRequired, nominalSizeIn } from '@/lib/domain/facts';
+import { defaultParameters } from '@/lib/domain/params';
+import { parsePlan } from '@/lib/domain/plan';
 import { EDITIONS_2018, findingFor, variant } from './support/check';
 
 const params = defaultParameters(EDITIONS_2018);

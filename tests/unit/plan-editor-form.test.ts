@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { formToPlan, planToForm } from '@/components/plan-editor/form-values';
-import { parsePlan } from '@/lib/plan';
+import { parsePlan } from '@/lib/domain/plan';
 import { demoPlans } from '@/tests/fixtures/plans';
-import { diffPlans, summarizeChanges } from '@/lib/revisions/change-summary';
+import { diffPlans, summarizeChanges } from '@/lib/domain/revisions/change-summary';
 
 function canonical(input: unknown) {
   const parsed = parsePlan(input);

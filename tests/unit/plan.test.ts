@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { parsePlan, planInputSchema } from '@/lib/plan';
+import { parsePlan, planInputSchema } from '@/lib/domain/plan';
 import { demoPlans, gasWalkInBedroomPlan, hallClosetPassPlan } from '@/tests/fixtures/plans';
 
 function parsed(input: unknown) {

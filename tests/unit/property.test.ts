@@ -1,8 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { evaluate } from '@/lib/engine';
-import type { Editions } from '@/lib/editions';
-import { parsePlan } from '@/lib/plan';
+import { evaluate } from '@/lib/domain/engine';
+import type { Editions } from '@/lib/domain/editions';
+import { parsePlan } from '@/lib/domain/plan';
 import { baselineRules, buildRuleSet } from '@/rules';
 import { EDITIONS_2018, EDITIONS_2021 } from './support/check';
 

@@ -1,10 +1,10 @@
 import { randomBytes } from 'node:crypto';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { describe, expect, it } from 'vitest';
-import { evaluate } from '@/lib/engine';
-import { parsePlan } from '@/lib/plan';
-import { countPdfPages, newReportCode, renderReportPdf, sha256Hex } from '@/lib/report/render';
-import type { ReportData } from '@/lib/report/report-data';
+import { evaluate } from '@/lib/domain/engine';
+import { parsePlan } from '@/lib/domain/plan';
+import { countPdfPages, newReportCode, renderReportPdf, sha256Hex } from '@/lib/platform/pdf/render';
+import type { ReportData } from '@/lib/domain/reports/report-data';
 import { buildRuleSet } from '@/rules';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
 

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { findLoneSurrogate } from '@/lib/http';
-import { parsePositiveInt, PG_INTEGER_MAX, positiveIntSchema } from '@/lib/integers';
+import { findLoneSurrogate } from '@/lib/platform/http';
+import { parsePositiveInt, PG_INTEGER_MAX, positiveIntSchema } from '@/lib/domain/integers';
 
 describe('parsePositiveInt', () => {
   it('takes whole numbers from 1 to the largest PostgreSQL integer', () => {

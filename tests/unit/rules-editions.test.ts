@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { editionsSchema, parseEdition } from '@/lib/editions';
-import { defaultParameters, ruleSetParametersSchema } from '@/lib/params';
+import { editionsSchema, parseEdition } from '@/lib/domain/editions';
+import { defaultParameters, ruleSetParametersSchema } from '@/lib/domain/params';
 import { buildRuleSet } from '@/rules';
 import { EDITIONS_2018, EDITIONS_2021, findingFor, variant } from './support/check';
 

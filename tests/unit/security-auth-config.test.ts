@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { encode } from 'next-auth/jwt';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { authOptions } from '@/lib/auth/options';
+import { authOptions } from '@/lib/platform/auth/options';
 
 const SECRET = 'unit-test-secret-not-used-anywhere-else';
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
-import { PayloadTooLargeError, ValidationError } from '@/lib/errors';
-import { parseBody, readJson, route } from '@/lib/http';
+import { PayloadTooLargeError, ValidationError } from '@/lib/domain/errors';
+import { parseBody, readJson, route } from '@/lib/platform/http';
 
 const KiB = 1024;
 // lib/http.ts refuses JSON bodies over 512 KiB; a full plan is a few KiB, so this is generous.

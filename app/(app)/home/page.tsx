@@ -1,6 +1,6 @@
 import { redirect } from 'next/navigation';
-import { navigationFor } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { navigationFor } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export default async function HomePage() {
   const user = await requirePageUser(undefined, '/home');

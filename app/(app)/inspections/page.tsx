@@ -5,9 +5,9 @@ import { listInspections } from '@/db/reports';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
-import type { EvaluationSummary } from '@/lib/engine';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
+import type { EvaluationSummary } from '@/lib/domain/engine';
 
 export const metadata: Metadata = { title: 'Inspections' };
 

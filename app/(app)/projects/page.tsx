@@ -3,8 +3,8 @@ import Link from 'next/link';
 import { ProjectsTable } from '@/components/projects/projects-table';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Projects' };
 

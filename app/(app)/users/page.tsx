@@ -2,8 +2,8 @@ import type { Metadata } from 'next';
 import { getDb } from '@/db';
 import { listUsers } from '@/db/users';
 import { PageHeader } from '@/components/ui/page-header';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Users' };
 

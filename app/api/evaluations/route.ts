@@ -1,12 +1,12 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
 import { findJurisdictionWithPublished } from '@/db/jurisdiction-lookup';
-import { requireUser } from '@/lib/auth/session';
-import { loadImmutableRuleSet } from '@/lib/checks/rule-set-cache';
-import { evaluate } from '@/lib/engine';
-import { NotFoundError, ValidationError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
-import { parsePlan } from '@/lib/plan';
+import { requireUser } from '@/lib/platform/auth/session';
+import { loadImmutableRuleSet } from '@/lib/services/checks/rule-set-cache';
+import { evaluate } from '@/lib/domain/engine';
+import { NotFoundError, ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
+import { parsePlan } from '@/lib/domain/plan';
 
 const bodySchema = z.strictObject({
   jurisdiction: z.string().min(1, 'Give the jurisdiction slug, e.g. "demo-county".'),

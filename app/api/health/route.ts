@@ -1,6 +1,6 @@
 import { sql } from 'kysely';
 import { getDb } from '@/db';
-import { json } from '@/lib/http';
+import { json } from '@/lib/platform/http';
 
 export const dynamic = 'force-dynamic';
 

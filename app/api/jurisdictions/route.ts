@@ -1,12 +1,12 @@
 import { getDb } from '@/db';
 import { listJurisdictions } from '@/db/jurisdictions';
-import { createJurisdictionWithDraft } from '@/db/rule-admin';
+import { createJurisdictionWithDraft } from '@/lib/services/rule-sets/rule-admin';
 import { publishedVersionsByJurisdiction } from '@/db/rule-sets';
-import { jurisdictionCreateSchema } from '@/lib/admin/jurisdiction-schema';
-import { publishErrors } from '@/lib/admin/publish-check';
-import { ValidationError } from '@/lib/errors';
-import { requireUser } from '@/lib/auth/session';
-import { json, parseBody, route } from '@/lib/http';
+import { jurisdictionCreateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
+import { publishErrors } from '@/lib/domain/rule-sets/publish-check';
+import { ValidationError } from '@/lib/domain/errors';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 export const GET = route(async (request) => {
   await requireUser(request);

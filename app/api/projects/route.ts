@@ -1,9 +1,9 @@
 import { getDb } from '@/db';
 import { createProject, listProjects } from '@/db/projects';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, parseBody, route, zodErrors } from '@/lib/http';
-import { projectInputSchema, projectListQuerySchema } from '@/lib/projects/schema';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route, zodErrors } from '@/lib/platform/http';
+import { projectInputSchema, projectListQuerySchema } from '@/lib/domain/projects/schema';
 
 export const GET = route(async (request) => {
   const user = await requireUser(request, ['installer', 'admin']);

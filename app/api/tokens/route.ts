@@ -1,10 +1,10 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
 import { countRecentTokens, createApiToken, listApiTokens } from '@/db/api-tokens';
-import { generateApiToken } from '@/lib/auth/api-token';
-import { requireUser } from '@/lib/auth/session';
-import { TooManyRequestsError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
+import { generateApiToken } from '@/lib/platform/auth/api-token';
+import { requireUser } from '@/lib/platform/auth/session';
+import { TooManyRequestsError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 const newTokenSchema = z.strictObject({
   name: z.string().trim().min(1, 'Give the token a name, e.g. "office laptop".').max(80, 'Keep the name under 80 characters.'),

@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
 import { listUsers } from '@/db/users';
-import { requireUser } from '@/lib/auth/session';
-import { json, route } from '@/lib/http';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, route } from '@/lib/platform/http';
 
 export const GET = route(async (request) => {
   await requireUser(request, ['admin']);

@@ -6,7 +6,7 @@ import { SummaryCounts } from '@/components/checks/summary-counts';
 import { VerifyDrop } from '@/components/reports/verify-drop';
 import { Wordmark } from '@/components/ui/logo';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import type { EvaluationSummary } from '@/lib/engine';
+import type { EvaluationSummary } from '@/lib/domain/engine';
 
 export const metadata: Metadata = { title: 'Verify a report' };
 export const dynamic = 'force-dynamic';

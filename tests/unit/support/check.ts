@@ -1,6 +1,6 @@
-import { evaluate, type Evaluation, type Finding } from '@/lib/engine';
-import type { Editions } from '@/lib/editions';
-import { parsePlan, type PlanInput } from '@/lib/plan';
+import { evaluate, type Evaluation, type Finding } from '@/lib/domain/engine';
+import type { Editions } from '@/lib/domain/editions';
+import { parsePlan, type PlanInput } from '@/lib/domain/plan';
 import { buildRuleSet, type RuleSetOverrides } from '@/rules';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
 

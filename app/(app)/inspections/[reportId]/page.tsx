@@ -7,9 +7,9 @@ import { SummaryCounts } from '@/components/checks/summary-counts';
 import { ReviewForm } from '@/components/reports/review-form';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import { requirePageUser } from '@/lib/auth/session';
-import { NotFoundError } from '@/lib/errors';
-import { loadInspection } from '@/lib/report/inspection';
+import { requirePageUser } from '@/lib/platform/auth/session';
+import { NotFoundError } from '@/lib/domain/errors';
+import { loadInspection } from '@/lib/services/reports/inspection';
 
 export const metadata: Metadata = { title: 'Inspection' };
 

@@ -5,8 +5,8 @@ import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
 import { JurisdictionForm } from '@/components/admin/jurisdiction-form';
 import { PageHeader } from '@/components/ui/page-header';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Jurisdiction' };
 

@@ -9,7 +9,7 @@ import { listProjectSends, listReviewsForProject } from '@/db/reports';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { loadProjectPage } from '@/lib/projects/project-page';
+import { loadProjectPage } from '@/lib/services/projects/project-page';
 
 export const metadata: Metadata = { title: 'Project' };
 

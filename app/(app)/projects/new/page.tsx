@@ -3,7 +3,7 @@ import { getDb } from '@/db';
 import { listJurisdictions } from '@/db/jurisdictions';
 import { ProjectForm } from '@/components/projects/project-form';
 import { PageHeader } from '@/components/ui/page-header';
-import { requirePageUser } from '@/lib/auth/session';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'New project' };
 

@@ -3,14 +3,14 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { listJurisdictionAudit } from '@/db/rule-admin';
+import { listJurisdictionAudit } from '@/lib/services/rule-sets/rule-admin';
 import { listVersions } from '@/db/rule-sets';
 import { AuditList } from '@/components/admin/audit-list';
 import { StartDraft } from '@/components/admin/start-draft';
 import { VersionStatus } from '@/components/admin/version-status';
 import { PageHeader } from '@/components/ui/page-header';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Rule set versions' };
 

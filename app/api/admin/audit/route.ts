@@ -1,9 +1,9 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
 import { listAudit } from '@/db/audit';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, route, zodErrors } from '@/lib/http';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, route, zodErrors } from '@/lib/platform/http';
 
 const querySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) });
 

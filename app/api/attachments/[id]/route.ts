@@ -2,11 +2,11 @@ import { z } from 'zod';
 import { getDb } from '@/db';
 import { attachmentSentToJurisdiction, displayKey, findAttachment, markAttachmentDeleted, updateCaption, type Attachment } from '@/db/attachments';
 import { getProject } from '@/db/projects';
-import type { AppUser } from '@/lib/auth/roles';
-import { requireUser } from '@/lib/auth/session';
-import { NotFoundError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
-import { deleteObject, getObject } from '@/lib/storage';
+import type { AppUser } from '@/lib/domain/roles';
+import { requireUser } from '@/lib/platform/auth/session';
+import { NotFoundError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
+import { deleteObject, getObject } from '@/lib/platform/storage';
 
 type Ctx = { params: Promise<{ id: string }> };
 

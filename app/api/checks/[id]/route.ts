@@ -1,8 +1,8 @@
 import { getDb } from '@/db';
 import { getCheck } from '@/db/checks';
-import { requireUser } from '@/lib/auth/session';
-import { NotFoundError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
+import { requireUser } from '@/lib/platform/auth/session';
+import { NotFoundError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ id: string }> };
 

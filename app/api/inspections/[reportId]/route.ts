@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
-import { requireUser } from '@/lib/auth/session';
-import { json, route } from '@/lib/http';
-import { loadInspection } from '@/lib/report/inspection';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, route } from '@/lib/platform/http';
+import { loadInspection } from '@/lib/services/reports/inspection';
 
 type Ctx = { params: Promise<{ reportId: string }> };
 

@@ -1,10 +1,10 @@
 import { getDb } from '@/db';
 import { updateJurisdiction } from '@/db/jurisdictions';
-import { requireJurisdiction } from '@/db/rule-admin';
+import { requireJurisdiction } from '@/lib/services/rule-sets/rule-admin';
 import { listVersions } from '@/db/rule-sets';
-import { jurisdictionUpdateSchema } from '@/lib/admin/jurisdiction-schema';
-import { requireUser } from '@/lib/auth/session';
-import { json, parseBody, route } from '@/lib/http';
+import { jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ slug: string }> };
 

@@ -1,8 +1,8 @@
 import { getDb } from '@/db';
 import { getProject, updateProject } from '@/db/projects';
-import { requireUser } from '@/lib/auth/session';
-import { json, parseBody, route } from '@/lib/http';
-import { projectUpdateSchema } from '@/lib/projects/schema';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, parseBody, route } from '@/lib/platform/http';
+import { projectUpdateSchema } from '@/lib/domain/projects/schema';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
 import { publicReportFacts } from '@/db/reports';
-import { NotFoundError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
+import { NotFoundError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ code: string }> };
 

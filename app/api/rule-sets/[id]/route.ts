@@ -1,12 +1,12 @@
 import { getDb } from '@/db';
 import { findJurisdictionById } from '@/db/jurisdictions';
-import { requireRuleSet } from '@/db/rule-admin';
+import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
 import { discardDraft, saveDraft } from '@/db/rule-sets';
-import { citationMismatches } from '@/lib/admin/citations';
-import { draftSaveSchema, revisionQuerySchema } from '@/lib/admin/requests';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, parseBody, route, zodErrors } from '@/lib/http';
+import { citationMismatches } from '@/lib/domain/rule-sets/citations';
+import { draftSaveSchema, revisionQuerySchema } from '@/lib/domain/rule-sets/requests';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route, zodErrors } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { json } from '@/lib/http';
-import { planInputSchema } from '@/lib/plan';
+import { json } from '@/lib/platform/http';
+import { planInputSchema } from '@/lib/domain/plan';
 
 // Public and static: integrators build against it before they have an account.
 const schema = z.toJSONSchema(planInputSchema, { io: 'input', unrepresentable: 'any' });

@@ -1,9 +1,9 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
 import { revokeApiToken } from '@/db/api-tokens';
-import { requireUser } from '@/lib/auth/session';
-import { NotFoundError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
+import { requireUser } from '@/lib/platform/auth/session';
+import { NotFoundError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb, type DB } from '@/db';
-import { parsePositiveInt } from '@/lib/integers';
+import { parsePositiveInt } from '@/lib/domain/integers';
 import { getCheck, listChecks } from '@/db/checks';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
 import { getPlanRevision } from '@/db/plan-revisions';
@@ -13,10 +13,10 @@ import { PrintButton } from '@/components/drawings/print-button';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/drawing';
-import { defaultParameters, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/params';
-import { parsePlan } from '@/lib/plan';
-import { loadProjectPage } from '@/lib/projects/project-page';
+import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/domain/drawing';
+import { defaultParameters, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
+import { parsePlan } from '@/lib/domain/plan';
+import { loadProjectPage } from '@/lib/services/projects/project-page';
 
 export const metadata: Metadata = { title: 'Drawing' };
 

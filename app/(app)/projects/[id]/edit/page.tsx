@@ -4,8 +4,8 @@ import { listJurisdictions } from '@/db/jurisdictions';
 import { getProject } from '@/db/projects';
 import { ProjectForm } from '@/components/projects/project-form';
 import { PageHeader } from '@/components/ui/page-header';
-import { requirePageUser } from '@/lib/auth/session';
-import { loadProjectOr404 } from '@/lib/projects/page-data';
+import { requirePageUser } from '@/lib/platform/auth/session';
+import { loadProjectOr404 } from '@/lib/platform/page-data';
 
 export const metadata: Metadata = { title: 'Edit project' };
 

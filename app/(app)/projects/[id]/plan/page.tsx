@@ -2,14 +2,14 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
-import { parsePositiveInt } from '@/lib/integers';
+import { parsePositiveInt } from '@/lib/domain/integers';
 import { getPlanRevision } from '@/db/plan-revisions';
 import { PlanEditor } from '@/components/plan-editor/plan-editor';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import { defaultParameters } from '@/lib/params';
-import type { PlanInput } from '@/lib/plan';
-import { loadProjectPage } from '@/lib/projects/project-page';
+import { defaultParameters } from '@/lib/domain/params';
+import type { PlanInput } from '@/lib/domain/plan';
+import { loadProjectPage } from '@/lib/services/projects/project-page';
 import { getRuleSetById } from '@/db/rule-sets';
 
 export const metadata: Metadata = { title: 'Plan' };

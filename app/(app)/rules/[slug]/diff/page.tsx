@@ -6,10 +6,10 @@ import { findJurisdictionBySlug } from '@/db/jurisdictions';
 import { getVersionByNumber, listVersions } from '@/db/rule-sets';
 import { DiffView } from '@/components/admin/diff-view';
 import { PageHeader } from '@/components/ui/page-header';
-import { diffRuleSets } from '@/lib/admin/diff';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
-import { parsePositiveInt } from '@/lib/integers';
+import { diffRuleSets } from '@/lib/domain/rule-sets/diff';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
+import { parsePositiveInt } from '@/lib/domain/integers';
 
 export const metadata: Metadata = { title: 'Compare rule set versions' };
 

@@ -3,11 +3,11 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { computeImpact, type ImpactItem } from '@/db/rule-admin';
+import { computeImpact, type ImpactItem } from '@/lib/services/rule-sets/rule-admin';
 import { FindingChanges } from '@/components/admin/dry-run-results';
 import { PageHeader } from '@/components/ui/page-header';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Impact on projects' };
 

@@ -1,8 +1,8 @@
 import { getDb } from '@/db';
-import { requireUser } from '@/lib/auth/session';
-import { ForbiddenError } from '@/lib/errors';
-import { route } from '@/lib/http';
-import { issueReport, reportFilename } from '@/lib/report/issue';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ForbiddenError } from '@/lib/domain/errors';
+import { route } from '@/lib/platform/http';
+import { issueReport, reportFilename } from '@/lib/services/reports/issue';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,11 +1,11 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
 import { recordSend } from '@/db/reports';
-import { requireUser } from '@/lib/auth/session';
-import { ServiceUnavailableError, ValidationError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
-import { sendMail } from '@/lib/mail';
-import { issueReport, publicBaseUrl, reportFilename } from '@/lib/report/issue';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ServiceUnavailableError, ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
+import { sendMail } from '@/lib/platform/mail';
+import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,12 +1,12 @@
 import { getDb } from '@/db';
 import { insertReview } from '@/db/reports';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
-import { sendMail } from '@/lib/mail';
-import { loadInspection } from '@/lib/report/inspection';
-import { publicBaseUrl } from '@/lib/report/issue';
-import { reviewSchema } from '@/lib/report/review-schema';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
+import { sendMail } from '@/lib/platform/mail';
+import { loadInspection } from '@/lib/services/reports/inspection';
+import { publicBaseUrl } from '@/lib/services/reports/issue';
+import { reviewSchema } from '@/lib/domain/reports/review-schema';
 
 type Ctx = { params: Promise<{ reportId: string }> };
 

@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
-import { listJurisdictionAudit, requireJurisdiction } from '@/db/rule-admin';
-import { requireUser } from '@/lib/auth/session';
-import { json, route } from '@/lib/http';
+import { listJurisdictionAudit, requireJurisdiction } from '@/lib/services/rule-sets/rule-admin';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, route } from '@/lib/platform/http';
 
 export const GET = route<{ params: Promise<{ slug: string }> }>(async (request, { params }) => {
   await requireUser(request, ['admin']);

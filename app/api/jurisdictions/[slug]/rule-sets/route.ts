@@ -1,9 +1,9 @@
 import { getDb } from '@/db';
-import { requireJurisdiction, resolveDraftSource } from '@/db/rule-admin';
+import { requireJurisdiction, resolveDraftSource } from '@/lib/services/rule-sets/rule-admin';
 import { createDraft, listVersions } from '@/db/rule-sets';
-import { draftCreateSchema } from '@/lib/admin/requests';
-import { requireUser } from '@/lib/auth/session';
-import { json, parseBody, route } from '@/lib/http';
+import { draftCreateSchema } from '@/lib/domain/rule-sets/requests';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ slug: string }> };
 

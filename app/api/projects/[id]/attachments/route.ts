@@ -2,11 +2,11 @@ import { randomUUID } from 'node:crypto';
 import { getDb } from '@/db';
 import { displayKey, insertAttachment, listAttachments } from '@/db/attachments';
 import { getProject } from '@/db/projects';
-import { requireUser } from '@/lib/auth/session';
-import { PayloadTooLargeError, ValidationError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
-import { deleteObject, putObject } from '@/lib/storage';
-import { checkUpload, MAX_UPLOAD_BYTES } from '@/lib/uploads';
+import { requireUser } from '@/lib/platform/auth/session';
+import { PayloadTooLargeError, ValidationError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
+import { deleteObject, putObject } from '@/lib/platform/storage';
+import { checkUpload, MAX_UPLOAD_BYTES } from '@/lib/platform/uploads';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,10 +1,10 @@
 import { z } from 'zod';
-import { positiveIntSchema } from '@/lib/integers';
+import { positiveIntSchema } from '@/lib/domain/integers';
 import { getDb } from '@/db';
 import { listChecks } from '@/db/checks';
-import { requireUser } from '@/lib/auth/session';
-import { runCheck } from '@/lib/checks/run-check';
-import { json, parseBody, route } from '@/lib/http';
+import { requireUser } from '@/lib/platform/auth/session';
+import { runCheck } from '@/lib/services/checks/run-check';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,10 +1,10 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
 import { createPlanRevision, listPlanRevisions } from '@/db/plan-revisions';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
-import { parsePlan } from '@/lib/plan';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
+import { parsePlan } from '@/lib/domain/plan';
 
 type Ctx = { params: Promise<{ id: string }> };
 

@@ -1,10 +1,10 @@
 import { getDb } from '@/db';
 import { findReportByCode } from '@/db/reports';
-import { requireUser } from '@/lib/auth/session';
-import { NotFoundError } from '@/lib/errors';
-import { route } from '@/lib/http';
-import { assertCanReadReport } from '@/lib/report/access';
-import { getObject } from '@/lib/storage';
+import { requireUser } from '@/lib/platform/auth/session';
+import { NotFoundError } from '@/lib/domain/errors';
+import { route } from '@/lib/platform/http';
+import { assertCanReadReport } from '@/lib/services/reports/access';
+import { getObject } from '@/lib/platform/storage';
 
 type Ctx = { params: Promise<{ code: string }> };
 

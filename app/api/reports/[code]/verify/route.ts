@@ -1,8 +1,8 @@
 import { getDb } from '@/db';
 import { findReportByCode } from '@/db/reports';
-import { NotFoundError, PayloadTooLargeError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
-import { sha256Hex } from '@/lib/report/render';
+import { NotFoundError, PayloadTooLargeError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
+import { sha256Hex } from '@/lib/platform/pdf/render';
 
 type Ctx = { params: Promise<{ code: string }> };
 const MAX = 30 * 1024 * 1024;

@@ -1,9 +1,9 @@
 import { getDb } from '@/db';
-import { requireRuleSet } from '@/db/rule-admin';
-import { diffRuleSets } from '@/lib/admin/diff';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
+import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
+import { diffRuleSets } from '@/lib/domain/rule-sets/diff';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
 
 /** GET /api/rule-sets/<id>/diff?against=<other id>: what changed from the other version to this one. */
 export const GET = route<{ params: Promise<{ id: string }> }>(async (request, { params }) => {

@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
-import { requireRuleSet, runDryRun } from '@/db/rule-admin';
-import { requireUser } from '@/lib/auth/session';
-import { json, route } from '@/lib/http';
+import { requireRuleSet, runDryRun } from '@/lib/services/rule-sets/rule-admin';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, route } from '@/lib/platform/http';
 
 /** Evaluates demo plans and every project's latest plan under the published version and this one; stores nothing. */
 export const POST = route<{ params: Promise<{ id: string }> }>(async (request, { params }) => {

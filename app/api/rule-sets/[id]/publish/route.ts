@@ -1,10 +1,10 @@
 import { getDb } from '@/db';
-import { requireRuleSet } from '@/db/rule-admin';
+import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
 import { publishDraft } from '@/db/rule-sets';
-import { assertPublishable } from '@/lib/admin/publish-check';
-import { publishSchema } from '@/lib/admin/requests';
-import { requireUser } from '@/lib/auth/session';
-import { json, parseBody, route } from '@/lib/http';
+import { assertPublishable } from '@/lib/domain/rule-sets/publish-check';
+import { publishSchema } from '@/lib/domain/rule-sets/requests';
+import { requireUser } from '@/lib/platform/auth/session';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 /** Publishes the draft revision the admin reviewed; the previous published version is retired with it. */
 export const POST = route<{ params: Promise<{ id: string }> }>(async (request, { params }) => {

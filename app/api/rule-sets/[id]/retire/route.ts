@@ -1,11 +1,11 @@
 import { getDb } from '@/db';
-import { requireRuleSet } from '@/db/rule-admin';
+import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
 import { publishDraft } from '@/db/rule-sets';
-import { assertPublishable } from '@/lib/admin/publish-check';
-import { retireSchema } from '@/lib/admin/requests';
-import { requireUser } from '@/lib/auth/session';
-import { ConflictError, ValidationError } from '@/lib/errors';
-import { json, parseBody, route } from '@/lib/http';
+import { assertPublishable } from '@/lib/domain/rule-sets/publish-check';
+import { retireSchema } from '@/lib/domain/rule-sets/requests';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ConflictError, ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route } from '@/lib/platform/http';
 
 /**
  * Retires the published version by publishing its successor in the same transaction. A

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { getCheck, previousCheck } from '@/db/checks';
-import { citationText } from '@/lib/areas';
+import { citationText } from '@/lib/domain/areas';
 import { FindingsList } from '@/components/checks/findings-list';
 import { ReportActions } from '@/components/reports/report-actions';
 import { RunCheckButton } from '@/components/checks/run-check-button';
@@ -11,8 +11,8 @@ import { SummaryCounts } from '@/components/checks/summary-counts';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { statusLabel } from '@/components/ui/status-badge';
-import { compareFindings } from '@/lib/checks/compare';
-import { loadProjectPage } from '@/lib/projects/project-page';
+import { compareFindings } from '@/lib/domain/checks/compare';
+import { loadProjectPage } from '@/lib/services/projects/project-page';
 
 export const metadata: Metadata = { title: 'Check' };
 

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
-import { parsePositiveInt } from '@/lib/integers';
+import { parsePositiveInt } from '@/lib/domain/integers';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
 import { getPublishedVersion, getVersionByNumber } from '@/db/rule-sets';
 import { DraftWorkspace } from '@/components/admin/draft-workspace';
@@ -11,9 +11,9 @@ import { RuleTable } from '@/components/admin/rule-editor';
 import { VersionStatus } from '@/components/admin/version-status';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import { citationMismatches } from '@/lib/admin/citations';
-import { pageRoles } from '@/lib/auth/roles';
-import { requirePageUser } from '@/lib/auth/session';
+import { citationMismatches } from '@/lib/domain/rule-sets/citations';
+import { pageRoles } from '@/lib/domain/roles';
+import { requirePageUser } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Rule set version' };
 

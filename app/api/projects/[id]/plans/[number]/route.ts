@@ -1,9 +1,9 @@
 import { getDb } from '@/db';
 import { getPlanRevision } from '@/db/plan-revisions';
-import { requireUser } from '@/lib/auth/session';
-import { NotFoundError } from '@/lib/errors';
-import { json, route } from '@/lib/http';
-import { parsePositiveInt } from '@/lib/integers';
+import { requireUser } from '@/lib/platform/auth/session';
+import { NotFoundError } from '@/lib/domain/errors';
+import { json, route } from '@/lib/platform/http';
+import { parsePositiveInt } from '@/lib/domain/integers';
 
 type Ctx = { params: Promise<{ id: string; number: string }> };
 

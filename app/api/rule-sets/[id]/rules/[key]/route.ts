@@ -1,11 +1,11 @@
 import { getDb } from '@/db';
-import { requireRuleSet } from '@/db/rule-admin';
+import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
 import { editDraftRule } from '@/db/rule-sets';
-import { revisionQuerySchema, ruleSaveSchema } from '@/lib/admin/requests';
-import { parseRuleInput } from '@/lib/admin/rule-input';
-import { requireUser } from '@/lib/auth/session';
-import { ValidationError } from '@/lib/errors';
-import { json, parseBody, route, zodErrors } from '@/lib/http';
+import { revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
+import { parseRuleInput } from '@/lib/domain/rule-sets/rule-input';
+import { requireUser } from '@/lib/platform/auth/session';
+import { ValidationError } from '@/lib/domain/errors';
+import { json, parseBody, route, zodErrors } from '@/lib/platform/http';
 
 type Ctx = { params: Promise<{ id: string; key: string }> };
 

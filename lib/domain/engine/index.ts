@@ -1,0 +1,359 @@
+import { Engine, type RuleProperties, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
+import { computeFactsWithMissing, factsSchema, type FactKind, type Facts, type FactValue } from '@/lib/domain/facts';
+import type { Plan } from '@/lib/domain/plan';
+import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
+import { computeRemedy } from '@/lib/domain/remedies';
+import { formatArea, formatLength, labelForPath, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
+import { conditionFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
+
+export type FindingStatus = 'pass' | 'fail' | 'caution' | 'needs-info' | 'not-applicable';
+export type LimitValue = number | boolean | string | { min: number; max: number } | null;
+
+export interface Finding {
+  ruleKey: string;
+  title: string;
+  area: Area;
+  status: FindingStatus;
+  measured: FactValue;
+  limit: LimitValue;
+  unit: FactKind;
+  /** measured and limit as text in the plan's units. */
+  display: { measured: string | null; limit: string | null };
+  citation: Citation;
+  confidence: Confidence;
+  citationNote: string | null;
+  message: string;
+  /** Name of the condition that failed (fail/caution only). */
+  failedCondition: string | null;
+  /** Plan fields to fill in (needs-info only). */
+  missing: string[];
+  /** Smallest change that would pass (fail/caution only). */
+  remedy: string | null;
+  /** The locally adopted code and the AHJ govern; source confidence. */
+  note: string;
+}
+
+export interface EvaluationSummary {
+  pass: number;
+  fail: number;
+  caution: number;
+  needsInfo: number;
+  notApplicable: number;
+}
+
+export interface Evaluation {
+  ruleSet: { jurisdiction: string; version: number };
+  summary: EvaluationSummary;
+  findings: Finding[];
+  facts: Facts;
+}
+
+export interface RuleSetForEvaluation {
+  /** Identity of an immutable rule set version; compiled rule JSON is cached under it. */
+  id?: string;
+  jurisdiction: string;
+  version: number;
+  parameters: RuleSetParameters;
+  rules: StoredRule[];
+}
+
+interface CompiledRule {
+  rule: StoredRule;
+  applicability: RuleProperties | null;
+  main: RuleProperties;
+  applicabilityFacts: string[];
+  requiredFacts: string[];
+}
+
+interface CompiledRuleSet {
+  parameters: RuleSetParameters;
+  rules: CompiledRule[];
+}
+
+const APPLIES = '#applies';
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const child of Object.values(value)) deepFreeze(child);
+  }
+  return value;
+}
+
+/** json-rules-engine rule JSON for a stored rule: its passing conditions and, if any, applicability. */
+export function toEngineRules(rule: StoredRule): { main: RuleProperties; applicability: RuleProperties | null } {
+  return {
+    main: { name: rule.key, conditions: rule.conditions as TopLevelCondition, event: { type: rule.key } },
+    applicability: rule.applicability
+      ? { name: rule.key + APPLIES, conditions: rule.applicability as TopLevelCondition, event: { type: rule.key + APPLIES } }
+      : null,
+  };
+}
+
+function compile(ruleSet: RuleSetForEvaluation): CompiledRuleSet {
+  const parameters = ruleSetParametersSchema.parse(ruleSet.parameters);
+  const rules = ruleSet.rules
+    .filter((rule) => rule.enabled)
+    .map((rule) => {
+      const { main, applicability } = toEngineRules(rule);
+      return {
+        rule,
+        main,
+        applicability,
+        applicabilityFacts: conditionFacts(rule.applicability as StoredCondition | null),
+        requiredFacts: [...new Set([...rule.requires, ...conditionFacts(rule.conditions as StoredCondition)])],
+      };
+    });
+  // Frozen so no run can alter JSON shared by later evaluations.
+  return deepFreeze({ parameters, rules });
+}
+
+const CACHE_LIMIT = 200;
+const compiledCache = new Map<string, CompiledRuleSet>();
+
+function compiledFor(ruleSet: RuleSetForEvaluation): CompiledRuleSet {
+  if (ruleSet.id === undefined) return compile(ruleSet);
+  const cached = compiledCache.get(ruleSet.id);
+  if (cached) return cached;
+  const compiled = compile(ruleSet);
+  if (compiledCache.size >= CACHE_LIMIT) compiledCache.delete(compiledCache.keys().next().value as string);
+  compiledCache.set(ruleSet.id, compiled);
+  return compiled;
+}
+
+/** Forgets compiled rule JSON (tests; an unpublished draft reusing an id). */
+export function clearCompiledRuleSets(): void {
+  compiledCache.clear();
+}
+
+/** `$.a.b` paths as json-rules-engine's default resolver reads them, for the plain objects our facts are. */
+export function resolveSimplePath(value: unknown, path: string): unknown {
+  if (!path.startsWith('$.')) return undefined;
+  let current: unknown = value;
+  for (const key of path.slice(2).split('.')) {
+    if (current === null || typeof current !== 'object' || !(key in (current as object))) return undefined;
+    current = (current as Record<string, unknown>)[key];
+  }
+  return current;
+}
+
+function resolveRef(ref: ValueRef, facts: Facts, params: RuleSetParameters): FactValue {
+  if (ref === null || typeof ref !== 'object') return ref;
+  if (ref.fact === 'params') return (readParam(params, ref.path ?? '') ?? null) as FactValue;
+  return facts[ref.fact] ?? null;
+}
+
+function resolveLimit(limit: Limit | null, facts: Facts, params: RuleSetParameters): LimitValue {
+  if (limit === null) return null;
+  if (typeof limit === 'object' && 'min' in limit) {
+    const min = resolveRef(limit.min, facts, params);
+    const max = resolveRef(limit.max, facts, params);
+    return typeof min === 'number' && typeof max === 'number' ? { min, max } : null;
+  }
+  return resolveRef(limit as ValueRef, facts, params);
+}
+
+const TEXT_DISPLAY: Record<string, string> = {
+  'rigid-metal': 'rigid metal',
+  'semi-rigid-metal': 'semi-rigid metal',
+  'flexible-foil': 'flexible foil',
+  'flexible-vinyl': 'flexible vinyl',
+  'listed-fans': 'any listed fan',
+  'power-ventilators-only': 'only listed dryer exhaust duct power ventilators',
+  'power-ventilator': 'a dryer exhaust duct power ventilator',
+  booster: 'a booster fan',
+};
+
+function display(value: FactValue, unit: FactKind, units: UnitSystem, style: LengthStyle | undefined): string | null {
+  if (value === null) return null;
+  if (typeof value === 'boolean') return value ? 'yes' : 'no';
+  if (typeof value === 'string') return TEXT_DISPLAY[value] ?? value;
+  switch (unit) {
+    case 'length':
+      return formatLength(value, units, style);
+    case 'area':
+      return formatArea(value, units);
+    case 'cfm':
+      return `${value} cfm`;
+    case 'amps':
+      return `${value} A`;
+    case 'volts':
+      return `${value} V`;
+    default:
+      return String(value);
+  }
+}
+
+function displayLimit(limit: LimitValue, unit: FactKind, units: UnitSystem, style: LengthStyle | undefined): string | null {
+  if (limit !== null && typeof limit === 'object') {
+    return `${display(limit.min, unit, units, style)} to ${display(limit.max, unit, units, style)}`;
+  }
+  return display(limit, unit, units, style);
+}
+
+type ConditionResult = { name?: string; result?: boolean; all?: ConditionResult[]; any?: ConditionResult[]; not?: ConditionResult };
+
+/** The first clause that failed, leaf-first inside `all`; an `any` or `not` reports its own name. */
+function failedClause(node: ConditionResult): string | null {
+  if (node.all) {
+    for (const child of node.all) {
+      if (child.result === false) return failedClause(child) ?? child.name ?? node.name ?? null;
+    }
+    return node.name ?? null;
+  }
+  return node.result === false || node.result === undefined ? (node.name ?? null) : null;
+}
+
+const CONFIDENCE_NOTES: Record<Confidence, string> = {
+  V: '',
+  S: ' Source confirmed only by secondary sources; check the adopted text.',
+  M: ' Section or value from memory, not yet verified; check the adopted text before relying on it.',
+  CP: ' Common practice, not a code requirement.',
+};
+
+function citationText(citation: Citation): string {
+  return [citation.code, citation.edition, citation.section].filter(Boolean).join(' ');
+}
+
+function noteFor(rule: StoredRule, jurisdiction: string): string {
+  const base = `Checked against ${citationText(rule.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
+  return `${base}${CONFIDENCE_NOTES[rule.confidence]}${rule.citationNote ? ` ${rule.citationNote}` : ''}`;
+}
+
+function fill(template: string, measured: string | null, limit: string | null): string {
+  return template.replace(/\{measured\}/g, measured ?? 'not given').replace(/\{limit\}/g, limit ?? 'the limit');
+}
+
+type FindingBase = Omit<Finding, 'status' | 'message' | 'failedCondition' | 'missing' | 'remedy'>;
+
+// Written out field by field: object spread compiles to a slow helper under some transpilers and
+// dominated evaluate()'s own cost.
+function finish(
+  base: FindingBase,
+  status: FindingStatus,
+  message: string,
+  failedCondition: string | null,
+  missing: string[],
+  remedy: string | null,
+): Finding {
+  return {
+    ruleKey: base.ruleKey,
+    title: base.title,
+    area: base.area,
+    status,
+    measured: base.measured,
+    limit: base.limit,
+    unit: base.unit,
+    display: base.display,
+    citation: base.citation,
+    confidence: base.confidence,
+    citationNote: base.citationNote,
+    message,
+    failedCondition,
+    missing,
+    remedy,
+    note: base.note,
+  };
+}
+
+function needsInfoFinding(base: FindingBase, missing: string[], summary: EvaluationSummary): Finding {
+  summary.needsInfo += 1;
+  const message =
+    missing.length > 0
+      ? `Needs: ${missing.map(labelForPath).join('; ')}. Add them to the plan to check this.`
+      : 'Needs more detail in the plan to check this.';
+  return finish(base, 'needs-info', message, null, missing, null);
+}
+
+function missingPaths(facts: string[], values: Facts, missing: Record<string, string[]>): string[] | null {
+  const nullFacts = facts.filter((fact) => values[fact] === null || values[fact] === undefined);
+  if (nullFacts.length === 0) return null;
+  return [...new Set(nullFacts.flatMap((fact) => missing[fact] ?? []))];
+}
+
+/**
+ * Evaluates a canonical plan against one rule set version: exactly one finding per enabled rule.
+ * Facts are computed and type-checked first; a rule whose facts are missing is needs-info
+ * without running. A fresh json-rules-engine Engine is built for every call.
+ */
+export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promise<Evaluation> {
+  const compiled = compiledFor(ruleSet);
+  const { parameters } = compiled;
+  const computed = computeFactsWithMissing(plan, parameters);
+  const facts = factsSchema.parse(computed.facts) as Facts;
+
+  // Our paths are plain `$.a.b` into the parameters: a direct walk instead of a general JSONPath query
+  // keeps the engine's overhead over raw json-rules-engine small (see npm run bench).
+  const engine = new Engine([], { allowUndefinedFacts: false, pathResolver: resolveSimplePath });
+  engine.addFact('params', parameters);
+  for (const [name, value] of Object.entries(facts)) if (value !== null) engine.addFact(name, value);
+
+  const early = new Map<string, string[]>();
+  const missingRequired = new Map<string, string[]>();
+  const pendingMain = new Set<string>();
+  for (const entry of compiled.rules) {
+    const key = entry.rule.key;
+    const missingForApplicability = missingPaths(entry.applicabilityFacts, facts, computed.missing);
+    if (missingForApplicability) {
+      early.set(key, missingForApplicability);
+      continue;
+    }
+    if (entry.applicability) engine.addRule(entry.applicability);
+    const missingForRule = missingPaths(entry.requiredFacts, facts, computed.missing);
+    if (missingForRule) missingRequired.set(key, missingForRule);
+    else {
+      engine.addRule(entry.main);
+      pendingMain.add(key);
+    }
+  }
+
+  const results = new Map<string, RuleResult>();
+  if (pendingMain.size > 0 || compiled.rules.some((r) => r.applicability && !early.has(r.rule.key))) {
+    const run = await engine.run();
+    for (const result of [...run.results, ...run.failureResults]) results.set(result.name, result);
+  }
+
+  const summary: EvaluationSummary = { pass: 0, fail: 0, caution: 0, needsInfo: 0, notApplicable: 0 };
+  const findings = compiled.rules.map(({ rule }): Finding => {
+    const measured = rule.measured ? (facts[rule.measured] ?? null) : null;
+    const limit = resolveLimit(rule.limit, facts, parameters);
+    const shown = {
+      measured: display(measured, rule.unit, plan.units, rule.lengthStyle),
+      limit: displayLimit(limit, rule.unit, plan.units, rule.lengthStyle),
+    };
+    const base: FindingBase = {
+      ruleKey: rule.key,
+      title: rule.title,
+      area: rule.area,
+      measured,
+      limit,
+      unit: rule.unit,
+      display: shown,
+      citation: rule.citation,
+      confidence: rule.confidence,
+      citationNote: rule.citationNote,
+      note: noteFor(rule, ruleSet.jurisdiction),
+    };
+    const earlyMissing = early.get(rule.key);
+    if (earlyMissing) return needsInfoFinding(base, earlyMissing, summary);
+    if (rule.applicability && results.get(rule.key + APPLIES)?.result !== true) {
+      summary.notApplicable += 1;
+      return finish(base, 'not-applicable', rule.messages.notApplicable, null, [], null);
+    }
+    const missing = missingRequired.get(rule.key);
+    if (missing) return needsInfoFinding(base, missing, summary);
+
+    const result = results.get(rule.key);
+    if (result?.result === true) {
+      summary.pass += 1;
+      return finish(base, 'pass', fill(rule.messages.pass, shown.measured, shown.limit), null, [], null);
+    }
+    const failedCondition = result ? failedClause(result.conditions as ConditionResult) : null;
+    if (rule.severity === 'fail') summary.fail += 1;
+    else summary.caution += 1;
+    const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });
+    return finish(base, rule.severity, fill(rule.messages.fail, shown.measured, shown.limit), failedCondition, [], remedy);
+  });
+
+  return { ruleSet: { jurisdiction: ruleSet.jurisdiction, version: ruleSet.version }, summary, findings, facts };
+}

@@ -1,0 +1,44 @@
+import type { RuleSetParameters } from '@/lib/domain/params';
+import { define, nominalSizeIn, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
+
+export const plumbingFactDefinitions: FactDefinition[] = [
+  define('plumbing.standpipeHeightIn', 'length', 'Standpipe height above the trap weir.', ['plumbing.standpipeHeight']),
+  define('plumbing.trapSizeIn', 'length', 'Nominal size of the washer trap.', ['plumbing.trapSize']),
+  define('plumbing.drainPanRequired', 'boolean', 'The jurisdiction requires a drain pan under the washer here.', ['space.overFinishedSpace']),
+  define('plumbing.drainPanPresent', 'boolean', 'A drain pan is installed.', ['plumbing.drainPan']),
+  define('plumbing.drainPanDrained', 'boolean', 'The drain pan has a drain to a receptor or floor drain.', ['plumbing.drainPan.present', 'plumbing.drainPan.drainsTo']),
+  define('plumbing.valvesAccessible', 'boolean', 'The supply valves can be reached with the appliances installed.', ['plumbing.valvesAccessible']),
+  define('plumbing.hammerArrestors', 'boolean', 'Water-hammer arrestors are installed.', ['plumbing.hammerArrestors']),
+  define('plumbing.leakShutoffRequired', 'boolean', 'The jurisdiction requires an automatic leak shut-off here.', ['space.overFinishedSpace']),
+  define('plumbing.leakShutoff', 'boolean', 'An automatic leak shut-off is installed.', ['plumbing.leakShutoff']),
+];
+
+type Policy = RuleSetParameters['plumbing']['drainPanPolicy'];
+
+export function computePlumbingFacts(ctx: FactContext): void {
+  const { plan, params } = ctx;
+  const plumbing = plan.plumbing;
+  const required = (policy: Policy) => (need: <T>(path: string, value: T | null | undefined) => T) => {
+    if (policy === 'never') return false;
+    if (policy === 'always') return true;
+    return need('space.overFinishedSpace', plan.space?.overFinishedSpace);
+  };
+
+  ctx.fact('plumbing.standpipeHeightIn', (need) => need('plumbing.standpipeHeight', plumbing?.standpipeHeight));
+  ctx.fact('plumbing.trapSizeIn', (need) => nominalSizeIn(need('plumbing.trapSize', plumbing?.trapSize)));
+  ctx.fact('plumbing.drainPanRequired', required(params.plumbing.drainPanPolicy));
+  // A null pan means none is installed; a missing one means the installer has not said.
+  ctx.fact('plumbing.drainPanPresent', (need) => {
+    const pan = need('plumbing.drainPan', plumbing?.drainPan === null ? false : plumbing?.drainPan);
+    return pan !== false && need('plumbing.drainPan.present', pan.present) === true;
+  });
+  ctx.fact('plumbing.drainPanDrained', (need) => {
+    const pan = need('plumbing.drainPan', plumbing?.drainPan === null ? false : plumbing?.drainPan);
+    if (pan === false || !need('plumbing.drainPan.present', pan.present)) return false;
+    return need('plumbing.drainPan.drainsTo', pan.drainsTo) !== 'none';
+  });
+  ctx.fact('plumbing.valvesAccessible', (need) => need('plumbing.valvesAccessible', plumbing?.valvesAccessible));
+  ctx.fact('plumbing.hammerArrestors', (need) => need('plumbing.hammerArrestors', plumbing?.hammerArrestors));
+  ctx.fact('plumbing.leakShutoffRequired', required(params.plumbing.leakShutoffPolicy));
+  ctx.fact('plumbing.leakShutoff', (need) => need('plumbing.leakShutoff', plumbing?.leakShutoff));
+}

@@ -1,0 +1,27 @@
+import type { EvaluationSummary, Finding } from '@/lib/domain/engine';
+import type { RuleSetParameters } from '@/lib/domain/params';
+import type { Plan } from '@/lib/domain/plan';
+
+/** Everything the report shows, gathered before rendering so the PDF is a pure function of it. */
+export type ReportData = {
+  code: string;
+  verifyUrl: string;
+  generatedAt: Date;
+  project: { name: string; siteAddress: string; permitNumber: string | null; isDemo: boolean };
+  organization: { name: string; licenseNumber: string | null };
+  jurisdiction: {
+    name: string;
+    region: string;
+    editions: { building: string; electrical: string; plumbing: string; plumbingFamily: string; mechanical: string; fuelGas: string };
+    amendmentNotes: string;
+  };
+  ruleSet: { version: number; publishedAt: Date | null; changelog: string };
+  planRevision: { number: number; savedBy: string | null; savedAt: Date };
+  check: { id: string; createdAt: Date; runBy: string | null; summary: EvaluationSummary; outcome: string };
+  findings: Finding[];
+  plan: Plan;
+  parameters: RuleSetParameters;
+  photos: { caption: string; filename: string; image: Buffer; width: number; height: number }[];
+  documents: { caption: string; filename: string; contentType: string }[];
+  preparedBy: string;
+};

@@ -1,0 +1,47 @@
+import { labelForPath } from '@/lib/domain/units';
+
+export type PlanChange = { path: string; label: string; from: unknown; to: unknown };
+
+function isObject(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+function walk(prev: unknown, next: unknown, path: string, out: PlanChange[]) {
+  if (isObject(prev) && isObject(next)) {
+    for (const key of new Set([...Object.keys(prev), ...Object.keys(next)])) {
+      walk(prev[key], next[key], path ? `${path}.${key}` : key, out);
+    }
+    return;
+  }
+  // Lists such as the exhaust run compare item by item, so reordering shows as changed positions.
+  if (Array.isArray(prev) && Array.isArray(next)) {
+    const n = Math.max(prev.length, next.length);
+    for (let i = 0; i < n; i++) walk(prev[i], next[i], `${path}.${i}`, out);
+    return;
+  }
+  if (JSON.stringify(prev) !== JSON.stringify(next)) {
+    out.push({ path, label: labelForPath(path), from: prev, to: next });
+  }
+}
+
+/** What changed between two plan revisions, as the installer entered them. */
+export function diffPlans(prev: unknown, next: unknown): PlanChange[] {
+  const out: PlanChange[] = [];
+  walk(prev ?? {}, next ?? {}, '', out);
+  return out;
+}
+
+function show(v: unknown): string {
+  if (v === undefined) return '—';
+  if (v === null) return 'none';
+  if (typeof v === 'string') return v;
+  return JSON.stringify(v);
+}
+
+/** A one-line summary for the revision list: "Enclosure width 54 → 56; 2 more changes". */
+export function summarizeChanges(changes: PlanChange[], max = 3): string {
+  if (changes.length === 0) return 'No changes';
+  const parts = changes.slice(0, max).map((c) => `${c.label} ${show(c.from)} → ${show(c.to)}`);
+  const more = changes.length - max;
+  return parts.join('; ') + (more > 0 ? `; ${more} more change${more === 1 ? '' : 's'}` : '');
+}

@@ -1,0 +1,42 @@
+export type Role = 'installer' | 'inspector' | 'admin';
+export const roles: readonly Role[] = ['installer', 'inspector', 'admin'];
+
+export type AppUser = {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  organizationId: string | null;
+  jurisdictionId: string | null;
+  isDemo: boolean;
+};
+
+export function hasRole(user: Pick<AppUser, 'role'> | null | undefined, allowed: readonly Role[]): boolean {
+  return !!user && allowed.includes(user.role);
+}
+
+export type NavItem = { href: string; label: string };
+
+/** The app shell's navigation for each role. */
+export function navigationFor(role: Role): NavItem[] {
+  const byRole: Record<Role, NavItem[]> = {
+    installer: [{ href: '/projects', label: 'Projects' }],
+    inspector: [{ href: '/inspections', label: 'Inspections' }],
+    admin: [
+      { href: '/rules', label: 'Rules' },
+      { href: '/jurisdictions', label: 'Jurisdictions' },
+      { href: '/users', label: 'Users' },
+    ],
+  };
+  return [...byRole[role], { href: '/account', label: 'Account' }];
+}
+
+/** Which app pages each role may open; the page itself checks again server-side. */
+export const pageRoles: Record<string, readonly Role[]> = {
+  '/projects': ['installer', 'admin'],
+  '/inspections': ['inspector', 'admin'],
+  '/rules': ['admin'],
+  '/jurisdictions': ['admin'],
+  '/users': ['admin'],
+  '/account': roles,
+};

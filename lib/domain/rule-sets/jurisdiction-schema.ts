@@ -1,0 +1,36 @@
+import { z } from 'zod';
+import { editionsSchema } from '@/lib/domain/editions';
+
+const optionalEmail = z.preprocess(
+  (value) => (typeof value === 'string' && value.trim() === '' ? null : value),
+  z.email('Enter an e-mail address, e.g. permits@example.gov, or leave it empty.').nullable(),
+);
+
+const fields = {
+  name: z.string().trim().min(1, 'Give the jurisdiction a name.').max(120),
+  region: z.string().trim().min(1, 'Name the state or region.').max(120),
+  editions: editionsSchema,
+  inspectorEmail: optionalEmail,
+  amendmentNotes: z.string().max(4000, 'Keep the notes under 4000 characters.'),
+};
+
+/** Creating a jurisdiction: its identity, adopted editions, and where its first draft comes from. */
+export const jurisdictionCreateSchema = z
+  .object({
+    slug: z
+      .string()
+      .trim()
+      .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Use lower-case letters, digits and single hyphens, e.g. north-county.')
+      .max(60),
+    ...fields,
+    // 'baseline' = the model codes for the adopted editions; otherwise another jurisdiction's slug.
+    startFrom: z.string().trim().min(1, 'Choose where the first draft comes from.'),
+    // Set to publish the starting rules unchanged at once, with this changelog note.
+    publishChangelog: z.string().trim().min(1, 'Write the changelog note for the first version.').max(4000).optional(),
+  })
+  .strict();
+
+export const jurisdictionUpdateSchema = z.object(fields).partial().strict();
+
+export type JurisdictionCreateInput = z.infer<typeof jurisdictionCreateSchema>;
+export type JurisdictionUpdateInput = z.infer<typeof jurisdictionUpdateSchema>;

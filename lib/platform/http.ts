@@ -1,0 +1,144 @@
+import 'server-only';
+import { randomUUID } from 'node:crypto';
+import type { z } from 'zod';
+import {
+  ConflictError,
+  DomainError,
+  ForbiddenError,
+  NotFoundError,
+  PayloadTooLargeError,
+  TooManyRequestsError,
+  ServiceUnavailableError,
+  UnauthorizedError,
+  ValidationError,
+  type FieldError,
+} from '@/lib/domain/errors';
+
+const MAX_JSON_BYTES = 512 * 1024;
+
+export function json(body: unknown, init?: number | ResponseInit): Response {
+  const opts = typeof init === 'number' ? { status: init } : init;
+  return Response.json(body, { ...opts, headers: { 'cache-control': 'no-store', ...(opts?.headers ?? {}) } });
+}
+
+export function zodErrors(error: z.ZodError): FieldError[] {
+  return error.issues.map((issue) => ({
+    path: issue.path.map(String).join('.') || '(body)',
+    message: issue.message,
+  }));
+}
+
+/** Reads a JSON body: wrong content type, oversize or malformed JSON become a 400/413, never a 500. */
+export async function readJson(request: Request): Promise<unknown> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!/^application\/(.+\+)?json\b/i.test(type)) {
+    throw new ValidationError([{ path: '(body)', message: 'Send the body as JSON with Content-Type: application/json.' }]);
+  }
+  const declared = Number(request.headers.get('content-length') ?? '0');
+  if (declared > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
+  const text = await readTextUpTo(request, MAX_JSON_BYTES);
+  let body: unknown;
+  try {
+    body = JSON.parse(text);
+  } catch {
+    throw new ValidationError([{ path: '(body)', message: 'The body is not valid JSON.' }]);
+  }
+  const broken = findLoneSurrogate(body);
+  if (broken !== null) {
+    throw new ValidationError([{ path: broken || '(body)', message: 'This text holds half of a character (a lone UTF-16 surrogate, e.g. \\ud800); send it as valid Unicode.' }]);
+  }
+  return body;
+}
+
+// JSON may escape half a surrogate pair ("\ud800"), which no UTF-8 text (nor PostgreSQL) can hold.
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** The dotted path of the first key or string value with a lone surrogate ('' for the body itself), or null. */
+export function findLoneSurrogate(value: unknown, path = ''): string | null {
+  if (typeof value === 'string') return LONE_SURROGATE.test(value) ? path : null;
+  if (value === null || typeof value !== 'object') return null;
+  for (const [key, child] of Object.entries(value)) {
+    const childPath = path ? `${path}.${key}` : key;
+    if (LONE_SURROGATE.test(key)) return childPath;
+    const found = findLoneSurrogate(child, childPath);
+    if (found !== null) return found;
+  }
+  return null;
+}
+
+/**
+ * Reads the body as UTF-8, stopping once it passes the limit: a chunked body declares no length,
+ * so counting as it arrives is what keeps an endless upload from being buffered whole.
+ */
+async function readTextUpTo(request: Request, limit: number): Promise<string> {
+  if (!request.body) return '';
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    size += value.byteLength;
+    if (size > limit) {
+      await reader.cancel().catch(() => undefined);
+      throw new PayloadTooLargeError(`The body is over ${limit / 1024} KiB.`);
+    }
+    chunks.push(value);
+  }
+  return new TextDecoder().decode(Buffer.concat(chunks));
+}
+
+export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
+  const result = schema.safeParse(await readJson(request));
+  if (!result.success) throw new ValidationError(zodErrors(result.error));
+  return result.data;
+}
+
+function isDatabaseDown(err: unknown): boolean {
+  const code = (err as { code?: string })?.code;
+  return ['ECONNREFUSED', 'ECONNRESET', '57P01', '57P03', 'ETIMEDOUT'].includes(code ?? '') ||
+    /Connection terminated|timeout exceeded when trying to connect/i.test((err as Error)?.message ?? '');
+}
+
+/**
+ * PostgreSQL text and jsonb cannot hold U+0000 (22021 character_not_in_repertoire, 22P05
+ * untranslatable_character): input that still carries one is the client's mistake, not ours.
+ */
+function isUnstorableText(err: unknown): boolean {
+  const code = (err as { code?: string })?.code;
+  return code === '22021' || code === '22P05';
+}
+
+export function errorResponse(err: unknown): Response {
+  if (err instanceof ValidationError) return json({ error: err.message, errors: err.errors }, 400);
+  if (isUnstorableText(err)) {
+    return json({ error: 'The request was refused.', errors: [{ path: '(request)', message: 'Text in the request cannot contain the NUL character (U+0000); remove it and try again.' }] }, 400);
+  }
+  if (err instanceof UnauthorizedError) return json({ error: err.message }, 401);
+  if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
+  if (err instanceof NotFoundError) return json({ error: err.message }, 404);
+  if (err instanceof ConflictError) return json({ error: err.message }, 409);
+  if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
+  // RFC 6585 §4: 429 with how long to wait.
+  if (err instanceof TooManyRequestsError) return json({ error: err.message }, { status: 429, headers: { 'retry-after': String(err.retryAfterSeconds) } });
+  if (err instanceof ServiceUnavailableError) return json({ error: err.message }, { status: 503, headers: { 'retry-after': '5' } });
+  if (isDatabaseDown(err)) {
+    return json({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);
+  }
+  const requestId = randomUUID();
+  console.error(`[api] request ${requestId} failed:`, err instanceof DomainError ? err.message : err);
+  return json({ error: 'Something went wrong on our side.', requestId }, 500);
+}
+
+type Handler<C> = (request: Request, context: C) => Promise<Response>;
+
+/** Wraps a route handler so every thrown domain error becomes its status, in one place. */
+export function route<C = unknown>(handler: Handler<C>): Handler<C> {
+  return async (request, context) => {
+    try {
+      return await handler(request, context);
+    } catch (err) {
+      return errorResponse(err);
+    }
+  };
+}

@@ -1,0 +1,313 @@
+import path from 'node:path';
+import { Document, Font, Image, Page, Path, Rect, StyleSheet, Svg, Text, View } from '@react-pdf/renderer';
+import { areaTitles as areaTitle } from '@/lib/domain/areas';
+import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/domain/drawing';
+import type { Finding } from '@/lib/domain/engine';
+import { PdfDrawing } from '@/lib/platform/pdf/pdf-drawing';
+import type { ReportData } from '@/lib/domain/reports/report-data';
+
+// Full (not subset) font files: the PDF font engine needs complete glyph tables.
+const fontDir = path.join(process.cwd(), 'public', 'fonts', 'pdf');
+let fontsRegistered = false;
+export function registerReportFonts() {
+  if (fontsRegistered) return;
+  Font.register({
+    family: 'Plex',
+    fonts: [
+      { src: path.join(fontDir, 'IBMPlexSans-Regular.ttf'), fontWeight: 400 },
+      { src: path.join(fontDir, 'IBMPlexSans-Italic.ttf'), fontWeight: 400, fontStyle: 'italic' },
+      { src: path.join(fontDir, 'IBMPlexSans-SemiBold.ttf'), fontWeight: 600 },
+      { src: path.join(fontDir, 'IBMPlexSans-Bold.ttf'), fontWeight: 700 },
+    ],
+  });
+  Font.register({ family: 'PlexMono', fonts: [{ src: path.join(fontDir, 'IBMPlexMono-Regular.ttf'), fontWeight: 400 }] });
+  // Codes and section numbers must never be split by hyphenation.
+  Font.registerHyphenationCallback((word) => [word]);
+  fontsRegistered = true;
+}
+
+const ink = '#1c2a3a';
+const soft = '#3d4d60';
+const faint = '#6b7785';
+const rule = '#d6d0c2';
+const brass = '#a8741a';
+const statusColour: Record<Finding['status'], string> = {
+  pass: '#2e7d5b',
+  fail: '#b23a2a',
+  caution: '#b8860b',
+  'needs-info': '#4a58b8',
+  'not-applicable': '#7a7f86',
+};
+const statusWord: Record<Finding['status'], string> = {
+  pass: 'PASS',
+  fail: 'FAILS',
+  caution: 'CAUTION',
+  'needs-info': 'NEEDS INFO',
+  'not-applicable': 'N/A',
+};
+
+const s = StyleSheet.create({
+  page: { fontFamily: 'Plex', fontSize: 9, color: ink, paddingTop: 42, paddingBottom: 56, paddingHorizontal: 42 },
+  kicker: { fontSize: 8, color: brass, letterSpacing: 1.2, textTransform: 'uppercase', fontWeight: 600 },
+  h1: { fontSize: 20, fontWeight: 700, marginTop: 4, marginBottom: 2 },
+  h2: { fontSize: 13, fontWeight: 700, marginTop: 14, marginBottom: 6 },
+  h3: { fontSize: 10.5, fontWeight: 700, marginTop: 10, marginBottom: 4 },
+  muted: { color: soft },
+  faint: { color: faint, fontSize: 8 },
+  grid: { flexDirection: 'row', flexWrap: 'wrap', marginTop: 8 },
+  cell: { width: '50%', paddingVertical: 3, paddingRight: 8 },
+  label: { fontSize: 7.5, color: faint, textTransform: 'uppercase', letterSpacing: 0.6 },
+  value: { fontSize: 9.5 },
+  box: { borderWidth: 1, borderColor: rule, borderRadius: 3, padding: 8, marginTop: 8 },
+  caution: { borderLeftWidth: 3, borderLeftColor: brass, backgroundColor: '#f3e6c8', padding: 8, marginTop: 10 },
+  row: { flexDirection: 'row', borderBottomWidth: 0.5, borderBottomColor: rule, paddingVertical: 4 },
+  th: { fontSize: 7.5, color: faint, textTransform: 'uppercase', fontWeight: 600 },
+  footer: { position: 'absolute', bottom: 24, left: 42, right: 42, flexDirection: 'row', justifyContent: 'space-between', fontSize: 7.5, color: faint, borderTopWidth: 0.5, borderTopColor: rule, paddingTop: 4 },
+  mono: { fontFamily: 'PlexMono', fontSize: 8 },
+});
+
+function StatusMark({ status, size = 8 }: { status: Finding['status']; size?: number }) {
+  const c = statusColour[status];
+  return (
+    <Svg width={size} height={size} viewBox="0 0 16 16">
+      {status === 'pass' && <Path d="M8 1.5 A6.5 6.5 0 1 1 7.99 1.5 Z" fill={c} />}
+      {status === 'fail' && (
+        <>
+          <Rect x={1.5} y={1.5} width={13} height={13} fill={c} />
+          <Path d="M5 5 L11 11 M11 5 L5 11" stroke="#ffffff" strokeWidth={2} />
+        </>
+      )}
+      {status === 'caution' && <Path d="M8 1.5 L15 14.5 L1 14.5 Z" fill={c} />}
+      {status === 'needs-info' && <Path d="M8 1.5 L14.5 8 L8 14.5 L1.5 8 Z" fill="none" stroke={c} strokeWidth={2} />}
+      {status === 'not-applicable' && <Path d="M3 8 L13 8" stroke={c} strokeWidth={2.5} />}
+    </Svg>
+  );
+}
+
+function Field({ label, value }: { label: string; value: string }) {
+  return (
+    <View style={s.cell}>
+      <Text style={s.label}>{label}</Text>
+      <Text style={s.value}>{value}</Text>
+    </View>
+  );
+}
+
+const fmtDate = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace('T', ' ') + ' UTC' : '—');
+const citation = (c: Finding['citation']) => [c.code, c.edition, c.section].filter(Boolean).join(' ');
+
+function Footer({ code }: { code: string }) {
+  return (
+    <View style={s.footer} fixed>
+      <Text>NookPass report {code}</Text>
+      <Text render={({ pageNumber, totalPages }) => `Page ${pageNumber} of ${totalPages}`} />
+    </View>
+  );
+}
+
+const SAFETY =
+  'This report records a check of the installer’s plan against the rules the jurisdiction’s administrator recorded in NookPass. The locally adopted code, the authority having jurisdiction (AHJ) and licensed trades govern; the appliance makers’ installation instructions apply alongside the code. Lint in a dryer exhaust can catch fire; a gas dryer can produce carbon monoxide; receptacles and dryer circuits carry shock risk; a leaking washer can damage the structure. Gas and electrical work belong to licensed trades, and only the inspection approves the work.';
+
+export function ReportDocument({ data }: { data: ReportData }) {
+  const order = Object.keys(areaTitle);
+  const byArea = order
+    .map((area) => ({ area, items: data.findings.filter((f) => f.area === area) }))
+    .filter((g) => g.items.length > 0);
+  const options = { params: data.parameters, marks: data.findings };
+  const elevation = frontElevation(data.plan, options);
+  const topView = planView(data.plan, options);
+  const schematic = exhaustSchematic(data.plan, options);
+  const hinges = hingeLayouts(data.plan, options);
+  const e = data.jurisdiction.editions;
+  const sum = data.check.summary;
+
+  return (
+    <Document title={`NookPass report ${data.code} — ${data.project.name}`} author={data.organization.name} subject="Laundry closet check report" creator="NookPass" producer="NookPass">
+      <Page size="LETTER" style={s.page}>
+        <Text style={s.kicker}>NookPass · laundry closet check report{data.project.isDemo ? ' · DEMO DATA (invented)' : ''}</Text>
+        <Text style={s.h1}>{data.project.name}</Text>
+        <Text style={s.muted}>{data.project.siteAddress}</Text>
+
+        <View style={s.grid}>
+          <Field label="Report code" value={data.code} />
+          <Field label="Verify at" value={data.verifyUrl} />
+          <Field label="Jurisdiction (AHJ)" value={`${data.jurisdiction.name}, ${data.jurisdiction.region}`} />
+          <Field label="Permit number" value={data.project.permitNumber ?? 'not given'} />
+          <Field label="Adopted editions" value={`${e.building}; ${e.electrical}; ${e.plumbing} (${e.plumbingFamily}); ${e.mechanical}; ${e.fuelGas}`} />
+          <Field label="Rule set" value={`Version ${data.ruleSet.version}, published ${fmtDate(data.ruleSet.publishedAt)}`} />
+          <Field label="Plan revision" value={`${data.planRevision.number}, saved ${fmtDate(data.planRevision.savedAt)} by ${data.planRevision.savedBy ?? 'a former user'}`} />
+          <Field label="Check" value={`${fmtDate(data.check.createdAt)}, run by ${data.check.runBy ?? 'a former user'}`} />
+          <Field label="Installer company" value={data.organization.name} />
+          <Field label="Contractor licence number" value={data.organization.licenseNumber ?? '________________________'} />
+        </View>
+
+        <Text style={s.h2}>Summary</Text>
+        <View style={{ flexDirection: 'row', gap: 10 }}>
+          {(
+            [
+              ['fail', sum.fail, 'fail'],
+              ['caution', sum.caution, 'cautions'],
+              ['needs-info', sum.needsInfo, 'need information'],
+              ['pass', sum.pass, 'pass'],
+              ['not-applicable', sum.notApplicable, 'not applicable'],
+            ] as const
+          ).map(([status, n, label]) => (
+            <View key={status} style={{ ...s.box, marginTop: 0, flexDirection: 'row', alignItems: 'center', gap: 4 }}>
+              <StatusMark status={status} size={10} />
+              <Text style={{ fontSize: 14, fontWeight: 700 }}>{n}</Text>
+              <Text style={s.muted}>{label}</Text>
+            </View>
+          ))}
+        </View>
+        <Text style={{ marginTop: 8 }}>
+          {sum.fail > 0
+            ? `The plan does not meet ${sum.fail} rule${sum.fail === 1 ? '' : 's'} of this rule set; each failure below gives the smallest change that would pass.`
+            : sum.needsInfo > 0
+              ? 'No rule fails, but some could not be checked because the plan lacks information; they are listed below.'
+              : 'Every rule that applies passes, or carries a caution for the inspector to confirm.'}
+        </Text>
+        {data.jurisdiction.amendmentNotes ? <Text style={{ ...s.faint, marginTop: 6 }}>Local notes: {data.jurisdiction.amendmentNotes}</Text> : null}
+        {data.ruleSet.changelog ? <Text style={{ ...s.faint, marginTop: 2 }}>Rule set note: {data.ruleSet.changelog}</Text> : null}
+        <View style={s.caution}><Text>{SAFETY}</Text></View>
+        <Text style={{ ...s.faint, marginTop: 6 }}>
+          Status marks: filled circle = pass, square with a cross = fails, triangle = caution, open diamond = needs information, dash = not applicable.
+          Source confidence: V verified against the code text; S secondary sources; M from memory; CP common practice. Confirm S, M and CP items with the AHJ.
+        </Text>
+        <Footer code={data.code} />
+      </Page>
+
+      <Page size="LETTER" style={s.page} wrap>
+        <Text style={s.h2}>Findings</Text>
+        {byArea.map(({ area, items }) => (
+          <View key={area}>
+            <Text style={s.h3}>{areaTitle[area] ?? area}</Text>
+            <View style={[s.row, { borderBottomWidth: 1 }]} fixed={false}>
+              <Text style={[s.th, { width: '13%' }]}>Status</Text>
+              <Text style={[s.th, { width: '33%' }]}>Rule and finding</Text>
+              <Text style={[s.th, { width: '20%' }]}>Citation</Text>
+              <Text style={[s.th, { width: '17%' }]}>Measured</Text>
+              <Text style={[s.th, { width: '17%' }]}>Limit</Text>
+            </View>
+            {items.map((f) => (
+              <View key={f.ruleKey} style={s.row} wrap={false}>
+                <View style={{ width: '13%', flexDirection: 'row', gap: 3, alignItems: 'center' }}>
+                  <StatusMark status={f.status} />
+                  <Text style={{ fontSize: 7.5, fontWeight: 700, color: statusColour[f.status] }}>{statusWord[f.status]}</Text>
+                </View>
+                <View style={{ width: '33%', paddingRight: 6 }}>
+                  <Text style={{ fontWeight: 600 }}>{f.title}</Text>
+                  <Text style={s.muted}>{f.message}</Text>
+                  {f.remedy ? <Text style={{ marginTop: 2 }}>Smallest fix: {f.remedy}</Text> : null}
+                  {f.missing.length > 0 ? <Text style={{ color: statusColour['needs-info'] }}>Missing: {f.missing.join(', ')}</Text> : null}
+                </View>
+                <View style={{ width: '20%', paddingRight: 4 }}>
+                  <Text style={s.mono}>{citation(f.citation)}</Text>
+                  <Text style={s.faint}>confidence {f.confidence}</Text>
+                </View>
+                <Text style={{ width: '17%' }}>{f.display.measured ?? '—'}</Text>
+                <Text style={{ width: '17%' }}>{f.display.limit ?? '—'}</Text>
+              </View>
+            ))}
+          </View>
+        ))}
+        <Footer code={data.code} />
+      </Page>
+
+      <Page size="LETTER" style={s.page}>
+        <Text style={s.h2}>Closet drawings</Text>
+        <Text style={s.faint}>{elevation.caution}</Text>
+        <View style={{ flexDirection: 'row', gap: 12, marginTop: 8 }}>
+          <View style={{ width: '50%' }}>
+            <Text style={s.h3}>{elevation.title}</Text>
+            <PdfDrawing drawing={elevation} maxWidthPt={250} maxHeightPt={250} />
+            {elevation.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {elevation.missing.join(', ')}</Text>}
+          </View>
+          <View style={{ width: '50%' }}>
+            <Text style={s.h3}>{topView.title}</Text>
+            <PdfDrawing drawing={topView} maxWidthPt={250} maxHeightPt={250} />
+            {topView.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {topView.missing.join(', ')}</Text>}
+          </View>
+        </View>
+        <Text style={s.h3}>{schematic.title}</Text>
+        <PdfDrawing drawing={schematic} maxWidthPt={528} maxHeightPt={230} />
+        {schematic.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
+        <Footer code={data.code} />
+      </Page>
+
+      <Page size="LETTER" style={s.page}>
+        <Text style={s.h2}>Hinge layout</Text>
+        {hinges.length === 0 ? (
+          <Text style={s.muted}>The plan has no hinged enclosure doors, so there is no hinge layout.</Text>
+        ) : (
+          hinges.map((h) => (
+            <View key={h.doorIndex} wrap={false} style={{ marginBottom: 10 }}>
+              <Text style={s.h3}>Door {h.doorIndex + 1} — hinges on the {h.hingeSide} edge</Text>
+              <View style={{ flexDirection: 'row', gap: 12 }}>
+                <PdfDrawing drawing={h.overview} maxWidthPt={220} maxHeightPt={260} />
+                <View style={{ flex: 1 }}>
+                  {h.positions.map((p) => (
+                    <Text key={p.number}>
+                      Hinge {p.number}: cup centre {p.fromDoorTopIn == null ? '—' : `${p.fromDoorTopIn.toFixed(2)} in`} from the door top; plate{' '}
+                      {p.plateFromOpeningTopIn == null ? '—' : `${p.plateFromOpeningTopIn.toFixed(2)} in`} below the opening top, {h.plateSetbackIn.toFixed(2)} in from the front edge
+                    </Text>
+                  ))}
+                  {h.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
+                  {h.missing.length > 0 && <Text style={s.faint}>Missing: {h.missing.join(', ')}</Text>}
+                </View>
+              </View>
+            </View>
+          ))
+        )}
+        <Text style={s.faint}>Full-size drilling templates print from the project’s Drawing page in NookPass.</Text>
+        <Footer code={data.code} />
+      </Page>
+
+      {data.photos.length > 0 && (
+        <Page size="LETTER" style={s.page} wrap>
+          <Text style={s.h2}>Photos</Text>
+          <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: 12 }}>
+            {data.photos.map((p, i) => {
+              const w = 250;
+              const h = Math.min(240, (w * p.height) / Math.max(1, p.width));
+              return (
+                <View key={i} wrap={false} style={{ width: w }}>
+                  <Image src={p.image} style={{ width: w, height: h, objectFit: 'contain' }} />
+                  <Text style={{ marginTop: 2 }}>{p.caption || p.filename}</Text>
+                </View>
+              );
+            })}
+          </View>
+          {data.documents.length > 0 && (
+            <>
+              <Text style={s.h3}>Documents on file</Text>
+              {data.documents.map((d, i) => <Text key={i}>{d.caption || d.filename} ({d.filename})</Text>)}
+            </>
+          )}
+          <Footer code={data.code} />
+        </Page>
+      )}
+
+      <Page size="LETTER" style={s.page}>
+        <Text style={s.h2}>Statement and signatures</Text>
+        <View style={s.caution}><Text>{SAFETY}</Text></View>
+        <Text style={{ marginTop: 10 }}>
+          The installer states that the plan described in this report is the work as {data.check.outcome === 'pass' ? 'planned or built' : 'planned'} at {data.project.siteAddress}, and that
+          the appliance makers’ installation instructions are available to the inspector on site.
+        </Text>
+        {[['Installer', `${data.preparedBy}, ${data.organization.name}`], ['Inspector', data.jurisdiction.name]].map(([who, line]) => (
+          <View key={who} style={{ marginTop: 28 }}>
+            <View style={{ borderBottomWidth: 0.8, borderBottomColor: ink, height: 24 }} />
+            <View style={{ flexDirection: 'row', justifyContent: 'space-between' }}>
+              <Text style={s.faint}>{who} signature — {line}</Text>
+              <Text style={s.faint}>Date</Text>
+            </View>
+          </View>
+        ))}
+        <Text style={{ ...s.faint, marginTop: 24 }}>
+          Report {data.code} was generated {fmtDate(data.generatedAt)}. NookPass records the SHA-256 of this file; drop the file on {data.verifyUrl} to confirm it is unaltered.
+        </Text>
+        <Footer code={data.code} />
+      </Page>
+    </Document>
+  );
+}

@@ -1,0 +1,72 @@
+import 'server-only';
+import { createHash } from 'node:crypto';
+import { fileTypeFromBuffer } from 'file-type';
+import sharp from 'sharp';
+import { PayloadTooLargeError, ValidationError } from '@/lib/domain/errors';
+
+export const MAX_UPLOAD_BYTES = 15 * 1024 * 1024;
+// 40 megapixels covers any phone camera; more is a decompression bomb, refused before decoding.
+export const MAX_IMAGE_PIXELS = 40_000_000;
+
+const IMAGE_TYPES = new Set(['image/jpeg', 'image/png', 'image/webp']);
+const DOCUMENT_TYPES = new Set(['application/pdf']);
+const EXT: Record<string, string[]> = {
+  'image/jpeg': ['jpg', 'jpeg'],
+  'image/png': ['png'],
+  'image/webp': ['webp'],
+  'application/pdf': ['pdf'],
+};
+
+/** A safe display name: no folders, no control characters, a sane length. */
+export function safeFilename(name: string): string {
+  const base = name.replace(/\\/g, '/').split('/').pop() ?? '';
+  const cleaned = base.replace(/[\u0000-\u001f\u007f<>:"|?*]/g, '').replace(/^\.+/, '').trim();
+  return (cleaned || 'upload').slice(0, 120);
+}
+
+export type CheckedUpload = {
+  kind: 'photo' | 'document';
+  contentType: string;
+  filename: string;
+  bytes: Buffer;
+  sha256: string;
+  width: number | null;
+  height: number | null;
+  thumbnail: Buffer | null;
+  display: Buffer | null;
+};
+
+/** Checks the real type from the bytes (not the name or the browser's claim), the size and the image itself. */
+export async function checkUpload(bytes: Buffer, declaredName: string): Promise<CheckedUpload> {
+  if (bytes.length === 0) throw new ValidationError([{ path: 'file', message: 'The file is empty.' }]);
+  if (bytes.length > MAX_UPLOAD_BYTES) throw new PayloadTooLargeError(`Files can be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
+  const filename = safeFilename(declaredName);
+  const detected = await fileTypeFromBuffer(bytes);
+  const type = detected?.mime;
+  if (!type || (!IMAGE_TYPES.has(type) && !DOCUMENT_TYPES.has(type))) {
+    throw new ValidationError([{ path: 'file', message: 'Upload a photo (JPEG, PNG or WebP) or a PDF document; this file is neither.' }]);
+  }
+  const ext = filename.includes('.') ? filename.split('.').pop()!.toLowerCase() : '';
+  if (ext && !EXT[type].includes(ext)) {
+    throw new ValidationError([{ path: 'file', message: `The file is a ${EXT[type][0].toUpperCase()} but is named .${ext}; rename it or upload the right file.` }]);
+  }
+  const sha256 = createHash('sha256').update(bytes).digest('hex');
+  if (DOCUMENT_TYPES.has(type)) {
+    return { kind: 'document', contentType: type, filename, bytes, sha256, width: null, height: null, thumbnail: null, display: null };
+  }
+  try {
+    const image = sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' });
+    const meta = await image.metadata();
+    if (!meta.width || !meta.height) throw new Error('no dimensions');
+    // Thumbnails for the page, a moderate JPEG for the report; both re-encoded, so no metadata rides along.
+    const thumbnail = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate().resize(480, 480, { fit: 'inside' }).jpeg({ quality: 78 }).toBuffer();
+    const display = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate().resize(1400, 1400, { fit: 'inside', withoutEnlargement: true }).jpeg({ quality: 80 }).toBuffer();
+    return { kind: 'photo', contentType: type, filename, bytes, sha256, width: meta.width, height: meta.height, thumbnail, display };
+  } catch (err) {
+    const msg = String((err as Error).message);
+    if (/pixel limit/i.test(msg)) {
+      throw new ValidationError([{ path: 'file', message: `The image has more than ${MAX_IMAGE_PIXELS / 1e6} megapixels; resize it before uploading.` }]);
+    }
+    throw new ValidationError([{ path: 'file', message: 'The image could not be read; it may be damaged.' }]);
+  }
+}

@@ -1,0 +1,17 @@
+import 'server-only';
+import type { DB } from '@/db';
+import { getProject } from '@/db/projects';
+import { reportSentToJurisdiction, type IssuedReport } from '@/db/reports';
+import type { AppUser } from '@/lib/domain/roles';
+import { NotFoundError } from '@/lib/domain/errors';
+
+/** A report is readable by its company and admins, and by inspectors of a jurisdiction it was sent to. */
+export async function assertCanReadReport(db: DB, user: AppUser, report: IssuedReport): Promise<{ projectId: string }> {
+  const check = await db.selectFrom('checks').select(['project_id']).where('id', '=', report.checkId).executeTakeFirstOrThrow();
+  if (user.role === 'inspector') {
+    if (user.jurisdictionId && (await reportSentToJurisdiction(db, report.id, user.jurisdictionId))) return { projectId: check.project_id };
+    throw new NotFoundError('No such report for your jurisdiction.');
+  }
+  await getProject(db, user, check.project_id);
+  return { projectId: check.project_id };
+}

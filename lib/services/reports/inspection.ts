@@ -1,0 +1,39 @@
+import 'server-only';
+import type { DB } from '@/db';
+import { listAttachments } from '@/db/attachments';
+import { findReportById } from '@/db/reports';
+import type { AppUser } from '@/lib/domain/roles';
+import type { Finding, EvaluationSummary } from '@/lib/domain/engine';
+import { NotFoundError } from '@/lib/domain/errors';
+import { assertCanReadReport } from '@/lib/services/reports/access';
+
+/** One report as the inspector sees it: the check's findings, photos it included, and earlier outcomes. */
+export async function loadInspection(db: DB, user: AppUser, reportId: string) {
+  const report = await findReportById(db, reportId);
+  if (!report) throw new NotFoundError('No such report for your jurisdiction.');
+  const { projectId } = await assertCanReadReport(db, user, report);
+  const check = await db.selectFrom('checks').select(['findings', 'summary', 'created_at', 'plan_revision_id']).where('id', '=', report.checkId).executeTakeFirstOrThrow();
+  const project = await db
+    .selectFrom('projects as p')
+    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
+    .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
+    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'p.is_demo'])
+    .where('p.id', '=', projectId)
+    .executeTakeFirstOrThrow();
+  const included = new Set(report.attachmentIds);
+  const attachments = (await listAttachments(db, projectId)).filter((a) => included.has(a.id)).map(({ storageKey: _s, thumbnailKey: _t, ...a }) => a);
+  const reviews = await db
+    .selectFrom('inspection_reviews as v')
+    .leftJoin('users as u', 'u.id', 'v.created_by')
+    .select(['v.id', 'v.outcome', 'v.comment', 'v.finding_comments', 'v.created_at', 'u.name as inspector_name'])
+    .where('v.report_id', '=', report.id)
+    .orderBy('v.created_at', 'desc')
+    .execute();
+  return {
+    report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount },
+    project,
+    check: { findings: check.findings as Finding[], summary: check.summary as EvaluationSummary, createdAt: check.created_at },
+    attachments,
+    reviews,
+  };
+}

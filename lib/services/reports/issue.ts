@@ -1,0 +1,97 @@
+import 'server-only';
+import { randomBytes } from 'node:crypto';
+import type { DB } from '@/db';
+import { displayKey, listAttachments } from '@/db/attachments';
+import { getCheck, type StoredCheck } from '@/db/checks';
+import { getProject, type Project } from '@/db/projects';
+import { insertReport, type IssuedReport } from '@/db/reports';
+import { getRuleSetById } from '@/db/rule-sets';
+import type { AppUser } from '@/lib/domain/roles';
+import { NotFoundError } from '@/lib/domain/errors';
+import { parsePlan } from '@/lib/domain/plan';
+import { getObject, putObject } from '@/lib/platform/storage';
+import type { ReportData } from '@/lib/domain/reports/report-data';
+import { newReportCode, renderReportPdf } from '@/lib/platform/pdf/render';
+
+export function publicBaseUrl(): string {
+  return (process.env.NOOKPASS_PUBLIC_URL ?? process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000').replace(/\/$/, '');
+}
+
+export function reportFilename(project: Pick<Project, 'name'>, code: string): string {
+  const slug = project.name.normalize('NFKD').replace(/[^\w\s-]/g, '').trim().replace(/\s+/g, '-').toLowerCase().slice(0, 60) || 'project';
+  return `nookpass-${slug}-${code}.pdf`;
+}
+
+async function gather(db: DB, user: AppUser, check: StoredCheck, project: Project, code: string): Promise<{ data: ReportData; attachmentIds: string[] }> {
+  const [ruleSet, org, jur, revision, attachments] = await Promise.all([
+    getRuleSetById(db, check.ruleSet.id),
+    db.selectFrom('organizations').select(['name', 'license_number']).where('id', '=', project.organizationId).executeTakeFirstOrThrow(),
+    db.selectFrom('jurisdictions').selectAll().where('id', '=', project.jurisdiction.id).executeTakeFirstOrThrow(),
+    db.selectFrom('plan_revisions as r').leftJoin('users as u', 'u.id', 'r.created_by').select(['r.number', 'r.created_at', 'u.name']).where('r.id', '=', check.planRevision.id).executeTakeFirstOrThrow(),
+    listAttachments(db, project.id),
+  ]);
+  if (!ruleSet) throw new NotFoundError('The rule set of this check is missing.');
+  const parsed = parsePlan(check.inputs.plan);
+  if (!parsed.ok) throw new NotFoundError('The plan stored with this check no longer parses.');
+  const photos: ReportData['photos'] = [];
+  for (const a of attachments.filter((x) => x.kind === 'photo')) {
+    const image = await getObject(displayKey(a.storageKey));
+    if (image) photos.push({ caption: a.caption, filename: a.filename, image, width: a.width ?? 4, height: a.height ?? 3 });
+  }
+  const data: ReportData = {
+    code,
+    verifyUrl: `${publicBaseUrl()}/verify/${code}`,
+    generatedAt: new Date(),
+    project: { name: project.name, siteAddress: project.siteAddress, permitNumber: project.permitNumber, isDemo: project.isDemo },
+    organization: { name: org.name, licenseNumber: org.license_number },
+    jurisdiction: {
+      name: jur.name,
+      region: jur.region,
+      editions: {
+        building: jur.building_edition,
+        electrical: jur.electrical_edition,
+        plumbing: jur.plumbing_edition,
+        plumbingFamily: jur.plumbing_family,
+        mechanical: jur.mechanical_edition,
+        fuelGas: jur.fuel_gas_edition,
+      },
+      amendmentNotes: jur.amendment_notes,
+    },
+    ruleSet: { version: ruleSet.version, publishedAt: ruleSet.publishedAt, changelog: ruleSet.changelog },
+    planRevision: { number: revision.number, savedBy: revision.name, savedAt: revision.created_at },
+    check: { id: check.id, createdAt: check.createdAt, runBy: check.createdBy.name, summary: check.summary, outcome: check.outcome },
+    findings: check.findings,
+    plan: parsed.plan,
+    parameters: ruleSet.parameters,
+    photos,
+    documents: attachments.filter((x) => x.kind === 'document').map((d) => ({ caption: d.caption, filename: d.filename, contentType: d.contentType })),
+    preparedBy: user.name,
+  };
+  return { data, attachmentIds: attachments.map((a) => a.id) };
+}
+
+/** Renders a new report for a check, stores the PDF and records its code and SHA-256. */
+export async function issueReport(db: DB, user: AppUser, checkId: string): Promise<{ report: IssuedReport; pdf: Buffer; project: Project; check: StoredCheck; renderMs: number }> {
+  const check = await getCheck(db, user, checkId);
+  if (!check) throw new NotFoundError('No such check, or its project belongs to another company.');
+  const project = await getProject(db, user, check.projectId);
+  const code = newReportCode(randomBytes);
+  const { data, attachmentIds } = await gather(db, user, check, project, code);
+  const started = performance.now();
+  const { pdf, sha256, pageCount } = await renderReportPdf(data);
+  const renderMs = performance.now() - started;
+  const storageKey = `reports/${project.id}/${code}.pdf`;
+  // Stored before it is recorded: a recorded report always has its file.
+  await putObject(storageKey, pdf, 'application/pdf');
+  const report = await insertReport(db, {
+    checkId: check.id,
+    code,
+    sha256,
+    byteSize: pdf.length,
+    pageCount,
+    storageKey,
+    attachmentIds,
+    createdBy: user.id,
+  });
+  return { report, pdf, project, check, renderMs };
+}
