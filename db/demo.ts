@@ -2,8 +2,6 @@
 import type { NewJurisdiction, Role } from '@/db/types';
 import type { RuleSetOverrides } from '@/rules';
 
-export const DEMO_EMAIL_DOMAIN = 'nookpass.demo';
-
 export const demoOrganizations = [
   { key: 'closet-works', name: 'Demo Closet Works', license_number: 'DEMO-HIC-000123' },
   { key: 'second-company', name: 'Demo Second Company', license_number: 'DEMO-HIC-000456' },

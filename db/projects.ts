@@ -161,7 +161,3 @@ export async function updateProject(db: DB, user: AppUser, id: string, input: Pr
   });
   return getProject(db, user, id);
 }
-
-export async function touchProject(db: DB, projectId: string): Promise<void> {
-  await db.updateTable('projects').set({ updated_at: new Date() }).where('id', '=', projectId).execute();
-}

@@ -182,11 +182,6 @@ export async function getVersionByNumber(db: DB, jurisdictionId: string, version
   return row ? { ...toVersion(row), rules: await loadRules(db, row.id) } : null;
 }
 
-export async function getOpenDraft(db: DB, jurisdictionId: string): Promise<RuleSetVersion | null> {
-  const row = await versionQuery(db).where('s.jurisdiction_id', '=', jurisdictionId).where('s.status', '=', 'draft').orderBy('s.version', 'desc').executeTakeFirst();
-  return row ? toVersion(row) : null;
-}
-
 type PgError = { code?: string; message?: string; constraint?: string };
 
 /** The database's own refusals (immutability triggers, unique versions) become 409s with its message. */

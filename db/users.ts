@@ -1,5 +1,5 @@
 import type { DB } from '@/db/index';
-import type { Role, UserRow } from '@/db/types';
+import type { UserRow } from '@/db/types';
 import type { AppUser } from '@/lib/domain/roles';
 
 export function toAppUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'organization_id' | 'jurisdiction_id' | 'is_demo'>): AppUser {
@@ -50,9 +50,3 @@ export async function listUsers(db: DB): Promise<UserListItem[]> {
   }));
 }
 
-export async function countUsersByRole(db: DB): Promise<Record<Role, number>> {
-  const rows = await db.selectFrom('users').select(['role', db.fn.countAll<number>().as('n')]).groupBy('role').execute();
-  const out: Record<Role, number> = { installer: 0, inspector: 0, admin: 0 };
-  for (const r of rows) out[r.role] = Number(r.n);
-  return out;
-}

@@ -48,7 +48,6 @@ export function convertArea(value: number, from: AreaUnit, to: AreaUnit): number
 export const inchesToMm = (inches: number): number => convertLength(inches, 'in', 'mm');
 export const mmToInches = (mm: number): number => convertLength(mm, 'mm', 'in');
 export const feetToInches = (feet: number): number => convertLength(feet, 'ft', 'in');
-export const inchesToFeet = (inches: number): number => convertLength(inches, 'in', 'ft');
 export const sqInToCm2 = (sqIn: number): number => convertArea(sqIn, 'in2', 'cm2');
 export const cm2ToSqIn = (cm2: number): number => convertArea(cm2, 'cm2', 'in2');
 
