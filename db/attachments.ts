@@ -1,4 +1,5 @@
 import type { DB } from '@/db/index';
+import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
 import type { AttachmentsTable } from '@/db/types';
 import type { Selectable } from 'kysely';
@@ -77,7 +78,7 @@ export async function listAttachments(db: DB, projectId: string): Promise<Attach
 }
 
 export async function findAttachment(db: DB, id: string): Promise<Attachment | null> {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
+  if (!isUuid(id)) return null;
   const row = await db.selectFrom('attachments').selectAll().where('id', '=', id).where('deleted_at', 'is', null).executeTakeFirst();
   return row ? toAttachment(row) : null;
 }

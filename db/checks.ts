@@ -1,4 +1,5 @@
 import type { DB } from '@/db/index';
+import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
 import { outcomeOf, type CheckOutcome } from '@/lib/domain/checks/outcome';
 import type { AppUser } from '@/lib/domain/roles';
@@ -115,7 +116,7 @@ export async function listChecks(db: DB, user: AppUser, projectId: string): Prom
 
 /** One check, if the user may see its project. */
 export async function getCheck(db: DB, user: AppUser, checkId: string): Promise<StoredCheck | null> {
-  if (!/^[0-9a-f-]{36}$/i.test(checkId)) return null;
+  if (!isUuid(checkId)) return null;
   const check = await getCheckById(db, checkId);
   if (!check) return null;
   await getProject(db, user, check.projectId);

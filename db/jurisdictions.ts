@@ -1,16 +1,10 @@
 import type { DB } from '@/db/index';
 import { writeAudit } from '@/db/audit';
-import type { JurisdictionRow, NewJurisdiction, PlumbingFamily } from '@/db/types';
+import type { JurisdictionRow, NewJurisdiction } from '@/db/types';
+import type { Editions } from '@/lib/domain/editions';
 import { NotFoundError, ValidationError } from '@/lib/domain/errors';
 
-export type JurisdictionEditions = {
-  building: string;
-  electrical: string;
-  plumbing: string;
-  plumbingFamily: PlumbingFamily;
-  mechanical: string;
-  fuelGas: string;
-};
+export type JurisdictionEditions = Editions;
 
 export type Jurisdiction = {
   id: string;

@@ -1,4 +1,5 @@
 import { sql } from 'kysely';
+import { isUuid } from '@/lib/domain/ids';
 import type { DB } from '@/db/index';
 import { writeAudit } from '@/db/audit';
 import type { CheckOutcome } from '@/db/types';
@@ -107,7 +108,7 @@ export async function listProjects(db: DB, user: AppUser, q: ProjectListQuery): 
 
 export async function getProject(db: DB, user: AppUser, id: string): Promise<Project> {
   const scope = scopeForUser(user);
-  if (!/^[0-9a-f-]{36}$/i.test(id)) throw new NotFoundError('No such project.');
+  if (!isUuid(id)) throw new NotFoundError('No such project.');
   let query = baseQuery(db).where('p.id', '=', id);
   if (scope.organizationId) query = query.where('p.organization_id', '=', scope.organizationId);
   const row = await query.executeTakeFirst();

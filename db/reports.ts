@@ -1,4 +1,5 @@
 import type { DB } from '@/db/index';
+import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
 import type { ReviewOutcome } from '@/db/types';
 
@@ -63,7 +64,7 @@ export async function findReportByCode(db: DB, code: string): Promise<IssuedRepo
 }
 
 export async function findReportById(db: DB, id: string): Promise<IssuedReport | null> {
-  if (!/^[0-9a-f-]{36}$/i.test(id)) return null;
+  if (!isUuid(id)) return null;
   const row = await reportQuery(db).where('id', '=', id).executeTakeFirst();
   return row ? toReport(row) : null;
 }

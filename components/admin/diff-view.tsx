@@ -1,5 +1,6 @@
 import type { RuleSetDiff, ValueChange } from '@/lib/domain/rule-sets/diff';
 import type { StoredRule } from '@/lib/domain/rule-format';
+import { citationText } from '@/lib/domain/vocabulary';
 
 function show(value: unknown): string {
   if (value === null || value === undefined) return '—';
@@ -24,7 +25,7 @@ function ChangeRows({ changes }: { changes: ValueChange[] }) {
 function RuleLine({ rule }: { rule: StoredRule }) {
   return (
     <span>
-      <span className="font-mono text-xs">{rule.key}</span> — {rule.title} ({[rule.citation.code, rule.citation.edition, rule.citation.section].filter(Boolean).join(' ')}){!rule.enabled && ' · disabled'}
+      <span className="font-mono text-xs">{rule.key}</span> — {rule.title} ({citationText(rule.citation)}){!rule.enabled && ' · disabled'}
     </span>
   );
 }

@@ -4,6 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm, type FieldErrors } from 'react-hook-form';
+import type { Editions } from '@/lib/domain/editions';
 import { z } from 'zod';
 import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
@@ -12,7 +13,7 @@ type Values = {
   slug: string;
   name: string;
   region: string;
-  editions: { building: string; electrical: string; plumbing: string; plumbingFamily: 'IPC' | 'UPC' | 'IRC'; mechanical: string; fuelGas: string };
+  editions: Editions;
   inspectorEmail: string;
   amendmentNotes: string;
   startFrom: string;

@@ -6,6 +6,7 @@ import { blankRule, parseRuleInput, ruleToInput, type RuleFormValues } from '@/l
 import { ApiError } from '@/lib/platform/client/fetch-json';
 import { factCatalog } from '@/lib/domain/facts';
 import { areas, type StoredRule } from '@/lib/domain/rule-format';
+import { citationText } from '@/lib/domain/vocabulary';
 
 // Fields whose errors are shown per part (citation.code, messages.fail); every other path goes to its top-level field.
 const NESTED = new Set(['citation', 'messages']);
@@ -183,7 +184,7 @@ export function RuleTable({
                 <span className="font-mono text-xs text-ink-faint">{rule.key}</span>
                 <div className="font-semibold">{rule.title}{!rule.enabled && <span className="ml-2 text-xs font-semibold uppercase text-ink-faint">disabled</span>}</div>
                 <div className="text-xs text-ink-soft">
-                  {rule.area} · {rule.severity} · {[rule.citation.code, rule.citation.edition, rule.citation.section].filter(Boolean).join(' ')} · confidence {rule.confidence}
+                  {rule.area} · {rule.severity} · {citationText(rule.citation)} · confidence {rule.confidence}
                 </div>
               </div>
               {readOnly ? (

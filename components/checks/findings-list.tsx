@@ -3,7 +3,7 @@
 import { useMemo, useState } from 'react';
 import type { Finding } from '@/lib/domain/engine';
 import { StatusBadge, type Status } from '@/components/ui/status-badge';
-import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/domain/areas';
+import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/domain/vocabulary';
 
 type Filter = 'all' | 'problems' | 'fail';
 

@@ -10,8 +10,8 @@ import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-buil
 import { sections, type FormValues, type ListSpec } from '@/components/plan-editor/field-spec';
 import { formToPlan, planToForm } from '@/components/plan-editor/form-values';
 import { PlanField } from '@/components/plan-editor/measure-field';
+import type { FieldError } from '@/lib/domain/errors';
 
-type FieldError = { path: string; message: string };
 
 /** Maps a plan path to the editor field that shows it ("doors.0.hinges.2" → "doors.0.hinges"). */
 function formPathFor(planPath: string): string {

@@ -1,17 +1,13 @@
+import { findingStatusLabels, type FindingStatus } from '@/lib/domain/vocabulary';
+
 /**
  * NookPass's status marks: each status has its own shape as well as colour, so they read in
  * greyscale print and for colour-blind users. pass = filled circle, fail = square with a cross,
  * caution = triangle, needs-info = open diamond, not-applicable = dash.
  */
-export type Status = 'pass' | 'fail' | 'caution' | 'needs-info' | 'not-applicable';
+export type Status = FindingStatus;
 
-export const statusLabel: Record<Status, string> = {
-  pass: 'Pass',
-  fail: 'Fails',
-  caution: 'Caution',
-  'needs-info': 'Needs info',
-  'not-applicable': 'Not applicable',
-};
+export const statusLabel = Object.fromEntries(Object.entries(findingStatusLabels).map(([k, v]) => [k, v.label])) as Record<Status, string>;
 
 const colour: Record<Status, string> = {
   pass: 'text-status-pass',

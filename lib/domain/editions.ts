@@ -18,14 +18,7 @@ export const editionsSchema = z
   .strict()
   .describe('Adopted code editions.');
 
-export type Editions = {
-  building: string;
-  electrical: string;
-  plumbing: string;
-  plumbingFamily: 'IPC' | 'UPC' | 'IRC';
-  mechanical: string;
-  fuelGas: string;
-};
+export type Editions = z.infer<typeof editionsSchema>;
 
 export type PlumbingFamily = Editions['plumbingFamily'];
 

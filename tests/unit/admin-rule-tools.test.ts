@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { citationMismatches } from '@/lib/domain/rule-sets/citations';
 import { diffRuleSets, diffValues, isEmptyDiff } from '@/lib/domain/rule-sets/diff';
-import { compareFindingSets, outcomeFor, summarizeComparisons } from '@/lib/domain/rule-sets/dry-run';
+import { outcomeOf as outcomeFor } from '@/lib/domain/checks/outcome';
+import { compareFindingSets, summarizeComparisons } from '@/lib/domain/rule-sets/dry-run';
 import { fieldsOf, leafFields, readPath } from '@/lib/domain/rule-sets/form-schema';
 import { publishErrors } from '@/lib/domain/rule-sets/publish-check';
 import { parseRuleInput, ruleToInput } from '@/lib/domain/rule-sets/rule-input';

@@ -1,4 +1,5 @@
 import { Engine, type RuleProperties, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
+import { citationText, type FindingStatus } from '@/lib/domain/vocabulary';
 import { computeFactsWithMissing, factsSchema, type FactKind, type Facts, type FactValue } from '@/lib/domain/facts';
 import type { Plan } from '@/lib/domain/plan';
 import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
@@ -6,7 +7,7 @@ import { computeRemedy } from '@/lib/domain/remedies';
 import { formatArea, formatLength, labelForPath, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
 import { conditionFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
 
-export type FindingStatus = 'pass' | 'fail' | 'caution' | 'needs-info' | 'not-applicable';
+export type { FindingStatus };
 export type LimitValue = number | boolean | string | { min: number; max: number } | null;
 
 export interface Finding {
@@ -210,10 +211,6 @@ const CONFIDENCE_NOTES: Record<Confidence, string> = {
   M: ' Section or value from memory, not yet verified; check the adopted text before relying on it.',
   CP: ' Common practice, not a code requirement.',
 };
-
-function citationText(citation: Citation): string {
-  return [citation.code, citation.edition, citation.section].filter(Boolean).join(' ');
-}
 
 function noteFor(rule: StoredRule, jurisdiction: string): string {
   const base = `Checked against ${citationText(rule.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;

@@ -1,13 +1,11 @@
 import type { z } from 'zod';
+import type { FieldError } from '@/lib/domain/errors';
 import { labelForPath, type UnitSystem } from '@/lib/domain/units';
 import { canonicalPlanSchema, planInputSchema, unitSystemSchema, UNIT_ISSUE, type Plan } from '@/lib/domain/plan/schema';
 
 export * from '@/lib/domain/plan/schema';
 
-export interface FieldError {
-  path: string;
-  message: string;
-}
+export type { FieldError };
 
 export type ParsePlanResult = { ok: true; plan: Plan } | { ok: false; errors: FieldError[] };
 

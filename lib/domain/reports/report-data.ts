@@ -1,3 +1,4 @@
+import type { Editions } from '@/lib/domain/editions';
 import type { EvaluationSummary, Finding } from '@/lib/domain/engine';
 import type { RuleSetParameters } from '@/lib/domain/params';
 import type { Plan } from '@/lib/domain/plan';
@@ -12,7 +13,7 @@ export type ReportData = {
   jurisdiction: {
     name: string;
     region: string;
-    editions: { building: string; electrical: string; plumbing: string; plumbingFamily: string; mechanical: string; fuelGas: string };
+    editions: Editions;
     amendmentNotes: string;
   };
   ruleSet: { version: number; publishedAt: Date | null; changelog: string };

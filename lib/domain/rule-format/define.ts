@@ -4,25 +4,8 @@ import type { FactKind } from '@/lib/domain/facts';
 import { readParam, type RuleSetParameters } from '@/lib/domain/params';
 import type { LengthStyle } from '@/lib/domain/units';
 
-export type Area =
-  | 'exhaust'
-  | 'makeup-air'
-  | 'gas'
-  | 'electrical'
-  | 'plumbing'
-  | 'clearances'
-  | 'service'
-  | 'door-hardware';
-export const areas: readonly Area[] = [
-  'exhaust',
-  'makeup-air',
-  'gas',
-  'electrical',
-  'plumbing',
-  'clearances',
-  'service',
-  'door-hardware',
-];
+export { areas, type Area } from '@/lib/domain/vocabulary';
+import type { Area } from '@/lib/domain/vocabulary';
 
 /** V verified, S secondary sources only, M from memory, CP common practice (see TRADE.md). */
 export type Confidence = 'V' | 'S' | 'M' | 'CP';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import type { FieldError } from '@/lib/domain/errors';
 import { factsByName, isNumericKind, type FactKind } from '@/lib/domain/facts';
 import { ruleSetParametersSchema } from '@/lib/domain/params';
 import { areas, type StoredRule } from '@/lib/domain/rule-format/define';
@@ -78,10 +79,7 @@ export const storedRuleSchema = z
   })
   .strict();
 
-export interface FieldError {
-  path: string;
-  message: string;
-}
+export type { FieldError };
 
 type Leaf = z.infer<typeof leafSchema>;
 

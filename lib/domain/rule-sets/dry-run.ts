@@ -1,3 +1,5 @@
+import { outcomeOf, type CheckOutcome } from '@/lib/domain/checks/outcome';
+import { citationText } from '@/lib/domain/vocabulary';
 import type { EvaluationSummary, Finding, FindingStatus } from '@/lib/domain/engine';
 
 export type FindingSide = { status: FindingStatus; measured: string | null; limit: string | null; citation: string };
@@ -12,21 +14,11 @@ export type FindingDelta = {
   statusChanged: boolean;
 };
 
-export type Outcome = 'pass' | 'fail' | 'incomplete';
+export type Outcome = CheckOutcome;
 
-// The same reading of a summary as a stored check's outcome (db/checks.ts).
-export function outcomeFor(summary: EvaluationSummary): Outcome {
-  if (summary.fail > 0) return 'fail';
-  if (summary.needsInfo > 0) return 'incomplete';
-  return 'pass';
-}
-
-function citationText(f: Finding): string {
-  return [f.citation.code, f.citation.edition, f.citation.section].filter(Boolean).join(' ');
-}
 
 function side(f: Finding): FindingSide {
-  return { status: f.status, measured: f.display.measured, limit: f.display.limit, citation: citationText(f) };
+  return { status: f.status, measured: f.display.measured, limit: f.display.limit, citation: citationText(f.citation) };
 }
 
 /**

@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { Document, Font, Image, Page, Path, Rect, StyleSheet, Svg, Text, View } from '@react-pdf/renderer';
-import { areaTitles as areaTitle } from '@/lib/domain/areas';
+import { areaTitles as areaTitle, citationText, findingStatusLabels } from '@/lib/domain/vocabulary';
 import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/domain/drawing';
 import type { Finding } from '@/lib/domain/engine';
 import { PdfDrawing } from '@/lib/platform/pdf/pdf-drawing';
@@ -37,13 +37,6 @@ const statusColour: Record<Finding['status'], string> = {
   caution: '#b8860b',
   'needs-info': '#4a58b8',
   'not-applicable': '#7a7f86',
-};
-const statusWord: Record<Finding['status'], string> = {
-  pass: 'PASS',
-  fail: 'FAILS',
-  caution: 'CAUTION',
-  'needs-info': 'NEEDS INFO',
-  'not-applicable': 'N/A',
 };
 
 const s = StyleSheet.create({
@@ -94,7 +87,8 @@ function Field({ label, value }: { label: string; value: string }) {
 }
 
 const fmtDate = (d: Date | null) => (d ? d.toISOString().slice(0, 16).replace('T', ' ') + ' UTC' : '—');
-const citation = (c: Finding['citation']) => [c.code, c.edition, c.section].filter(Boolean).join(' ');
+const citation = citationText;
+const statusShort = Object.fromEntries(Object.entries(findingStatusLabels).map(([k, v]) => [k, v.short])) as Record<Finding['status'], string>;
 
 function Footer({ code }: { code: string }) {
   return (
@@ -192,7 +186,7 @@ export function ReportDocument({ data }: { data: ReportData }) {
               <View key={f.ruleKey} style={s.row} wrap={false}>
                 <View style={{ width: '13%', flexDirection: 'row', gap: 3, alignItems: 'center' }}>
                   <StatusMark status={f.status} />
-                  <Text style={{ fontSize: 7.5, fontWeight: 700, color: statusColour[f.status] }}>{statusWord[f.status]}</Text>
+                  <Text style={{ fontSize: 7.5, fontWeight: 700, color: statusColour[f.status] }}>{statusShort[f.status]}</Text>
                 </View>
                 <View style={{ width: '33%', paddingRight: 6 }}>
                   <Text style={{ fontWeight: 600 }}>{f.title}</Text>

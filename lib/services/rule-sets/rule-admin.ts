@@ -1,10 +1,12 @@
 import { sql } from 'kysely';
+import { isUuid } from '@/lib/domain/ids';
 import type { DB } from '@/db/index';
 import { writeAudit } from '@/db/audit';
 import { demoPlans } from '@/db/demo-plans';
 import { findJurisdictionBySlug, insertJurisdiction, listJurisdictions, type Jurisdiction, type JurisdictionFields } from '@/db/jurisdictions';
 import { getPublishedRuleSet, getRuleSetById, insertDraft, publishWithin, withConflicts, type RuleSetVersion, type RuleSetWithRules } from '@/db/rule-sets';
-import { compareFindingSets, outcomeFor, summarizeComparisons, type FindingDelta, type Outcome, type SubjectComparison } from '@/lib/domain/rule-sets/dry-run';
+import { outcomeOf } from '@/lib/domain/checks/outcome';
+import { compareFindingSets, summarizeComparisons, type FindingDelta, type Outcome, type SubjectComparison } from '@/lib/domain/rule-sets/dry-run';
 import { evaluate, type Evaluation, type EvaluationSummary, type Finding } from '@/lib/domain/engine';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { parsePlan } from '@/lib/domain/plan';
@@ -144,7 +146,7 @@ async function evaluateSafely(set: RuleSetWithRules, plan: Parameters<typeof eva
   }
 }
 
-const side = (e: Evaluation | null): { outcome: Outcome; summary: EvaluationSummary } | null => (e ? { outcome: outcomeFor(e.summary), summary: e.summary } : null);
+const side = (e: Evaluation | null): { outcome: Outcome; summary: EvaluationSummary } | null => (e ? { outcome: outcomeOf(e.summary), summary: e.summary } : null);
 
 async function compareSubject(
   subject: Pick<SubjectComparison, 'kind' | 'id' | 'name' | 'detail'>,
@@ -278,18 +280,17 @@ export async function computeImpact(db: DB, jurisdictionId: string): Promise<{ p
     }
     const now = await evaluateSafely(published, parsed.plan);
     const changes = now.evaluation ? compareFindingSets(r.findings as Finding[], now.evaluation.findings) : [];
-    const outcomeNow = now.evaluation ? outcomeFor(now.evaluation.summary) : null;
+    const outcomeNow = now.evaluation ? outcomeOf(now.evaluation.summary) : null;
     const differs = changes.some((c) => c.statusChanged) || outcomeNow !== latestCheck.outcome || !!now.error;
     items.push({ ...base, state: differs ? 'would-change' : 'unchanged', latestCheck, outcomeNow, changes, error: now.error });
   }
   return { published: published ? { id: published.id, version: published.version, changelog: published.changelog } : null, items };
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** A rule set version by id for the admin routes; a malformed id is a 404 like any unknown one. */
 export async function requireRuleSet(db: DB, id: string): Promise<RuleSetWithRules> {
-  const set = UUID.test(id) ? await getRuleSetById(db, id) : null;
+  const set = isUuid(id) ? await getRuleSetById(db, id) : null;
   if (!set) throw new NotFoundError('No such rule set version.');
   return set;
 }

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { getCheck, previousCheck } from '@/db/checks';
-import { citationText } from '@/lib/domain/areas';
+import { citationText } from '@/lib/domain/vocabulary';
 import { FindingsList } from '@/components/checks/findings-list';
 import { ReportActions } from '@/components/reports/report-actions';
 import { RunCheckButton } from '@/components/checks/run-check-button';
