@@ -16,6 +16,8 @@ const csp = [
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
+  // npm test builds into its own folder, so it never replaces the build a running npm start serves.
+  distDir: process.env.NOOKPASS_DIST_DIR || '.next',
   poweredByHeader: false,
   reactStrictMode: true,
   serverExternalPackages: ['pg', 'bcryptjs', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],

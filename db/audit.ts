@@ -1,3 +1,4 @@
+import { sql } from 'kysely';
 import type { DB } from '@/db/index';
 
 export type AuditEntry = {
@@ -38,4 +39,25 @@ export async function listAudit(db: DB, limit = 100) {
     details: r.details,
     actorEmail: r.actor_email,
   }));
+}
+
+export type AuditItem = { id: number; at: Date; action: string; actorEmail: string | null; entityId: string | null; details: Record<string, unknown> };
+
+/** The audit trail of one jurisdiction: its own edits and everything done to its rule set versions. */
+export async function listJurisdictionAudit(db: DB, jurisdictionId: string, limit = 100): Promise<AuditItem[]> {
+  const rows = await db
+    .selectFrom('audit_log as a')
+    .leftJoin('users as u', 'u.id', 'a.actor_user_id')
+    .select(['a.id', 'a.at', 'a.action', 'a.entity_id', 'a.details', 'u.email'])
+    .where((eb) =>
+      eb.or([
+        eb(sql<string>`a.details->>'jurisdictionId'`, '=', jurisdictionId),
+        eb.and([eb('a.entity_type', '=', 'jurisdiction'), eb('a.entity_id', '=', jurisdictionId)]),
+      ]),
+    )
+    .where('a.entity_type', 'in', ['jurisdiction', 'rule_set'])
+    .orderBy('a.id', 'desc')
+    .limit(limit)
+    .execute();
+  return rows.map((r) => ({ id: r.id, at: r.at, action: r.action, actorEmail: r.email, entityId: r.entity_id, details: r.details }));
 }

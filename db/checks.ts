@@ -133,3 +133,51 @@ export async function previousCheck(db: DB, check: StoredCheck): Promise<StoredC
     .executeTakeFirst();
   return row ? toCheck(row) : null;
 }
+
+export type LatestCheckOfProject = {
+  projectId: string;
+  name: string;
+  organization: string;
+  latestCheck: { id: string; version: number; outcome: CheckOutcome; createdAt: Date; revisionNumber: number; findings: Finding[]; plan: unknown } | null;
+};
+
+/** Every open project of a jurisdiction with its latest check, if any (what the impact page compares). */
+export async function listLatestChecksInJurisdiction(db: DB, jurisdictionId: string): Promise<LatestCheckOfProject[]> {
+  const rows = await db
+    .selectFrom('projects as p')
+    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom('checks as c')
+          .innerJoin('rule_sets as s', 's.id', 'c.rule_set_id')
+          .innerJoin('plan_revisions as r', 'r.id', 'c.plan_revision_id')
+          .select(['c.id as check_id', 'c.outcome', 'c.findings', 'c.inputs', 'c.created_at as checked_at', 's.version', 'r.number as revision_number'])
+          .whereRef('c.project_id', '=', 'p.id')
+          .orderBy('c.created_at', 'desc')
+          .limit(1)
+          .as('lc'),
+      (join) => join.onTrue(),
+    )
+    .select(['p.id', 'p.name', 'o.name as organization', 'lc.check_id', 'lc.outcome', 'lc.findings', 'lc.inputs', 'lc.checked_at', 'lc.version', 'lc.revision_number'])
+    .where('p.jurisdiction_id', '=', jurisdictionId)
+    .where('p.archived_at', 'is', null)
+    .orderBy('p.name')
+    .execute();
+  return rows.map((r) => ({
+    projectId: r.id,
+    name: r.name,
+    organization: r.organization,
+    latestCheck: r.check_id
+      ? {
+          id: r.check_id,
+          version: r.version!,
+          outcome: r.outcome!,
+          createdAt: r.checked_at!,
+          revisionNumber: r.revision_number!,
+          findings: r.findings as Finding[],
+          plan: (r.inputs as { plan?: unknown } | null)?.plan,
+        }
+      : null,
+  }));
+}

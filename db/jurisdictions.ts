@@ -107,3 +107,35 @@ export async function updateJurisdiction(db: DB, id: string, fields: Partial<Jur
     return toJurisdiction(row);
   });
 }
+
+export type JurisdictionOverview = Jurisdiction & {
+  published: { id: string; version: number; publishedAt: Date | null } | null;
+  draft: { id: string; version: number; updatedAt: Date } | null;
+  versions: number;
+  projects: number;
+};
+
+export async function listJurisdictionOverview(db: DB): Promise<JurisdictionOverview[]> {
+  const [list, sets, projects] = await Promise.all([
+    listJurisdictions(db),
+    db.selectFrom('rule_sets').select(['id', 'jurisdiction_id', 'version', 'status', 'published_at', 'updated_at']).execute(),
+    db
+      .selectFrom('projects')
+      .select((eb) => ['jurisdiction_id', eb.fn.countAll<number>().as('n')])
+      .where('archived_at', 'is', null)
+      .groupBy('jurisdiction_id')
+      .execute(),
+  ]);
+  return list.map((j) => {
+    const mine = sets.filter((s) => s.jurisdiction_id === j.id);
+    const pub = mine.find((s) => s.status === 'published');
+    const draft = mine.find((s) => s.status === 'draft');
+    return {
+      ...j,
+      published: pub ? { id: pub.id, version: pub.version, publishedAt: pub.published_at } : null,
+      draft: draft ? { id: draft.id, version: draft.version, updatedAt: draft.updated_at } : null,
+      versions: mine.length,
+      projects: Number(projects.find((p) => p.jurisdiction_id === j.id)?.n ?? 0),
+    };
+  });
+}

@@ -1,7 +1,6 @@
 import type { DB } from '@/db/index';
 import type { AppUser } from '@/lib/domain/roles';
 import { getProject } from '@/db/projects';
-import { diffPlans, summarizeChanges, type PlanChange } from '@/lib/domain/revisions/change-summary';
 
 export type PlanRevision = {
   id: string;
@@ -38,42 +37,42 @@ function toRevision(r: Row): PlanRevision {
   };
 }
 
-/** Saves a new plan revision; earlier revisions are never touched. */
-export async function createPlanRevision(
+/**
+ * Appends a plan revision; earlier revisions are never touched. `describe` is given the previous
+ * revision's plan (null for the first) and returns the change summary stored with the new one.
+ */
+export async function appendPlanRevision(
   db: DB,
-  user: AppUser,
-  projectId: string,
-  plan: unknown,
-  canonical: unknown,
-): Promise<{ revision: PlanRevision; changes: PlanChange[] }> {
-  const project = await getProject(db, user, projectId);
+  input: { projectId: string; plan: unknown; canonical: unknown; createdBy: string },
+  describe: (previousPlan: unknown | null) => string,
+): Promise<PlanRevision> {
+  const { projectId, plan, canonical, createdBy } = input;
   return db.transaction().execute(async (trx) => {
     // Lock the project row so two saves at once get consecutive numbers instead of a conflict.
-    await trx.selectFrom('projects').select('id').where('id', '=', project.id).forUpdate().executeTakeFirstOrThrow();
+    await trx.selectFrom('projects').select('id').where('id', '=', projectId).forUpdate().executeTakeFirstOrThrow();
     const prev = await trx
       .selectFrom('plan_revisions')
       .select(['number', 'plan'])
-      .where('project_id', '=', project.id)
+      .where('project_id', '=', projectId)
       .orderBy('number', 'desc')
       .limit(1)
       .executeTakeFirst();
-    const changes = prev ? diffPlans(prev.plan, plan) : [];
-    const summary = prev ? summarizeChanges(changes) : 'First plan';
+    const summary = describe(prev ? prev.plan : null);
     const row = await trx
       .insertInto('plan_revisions')
       .values({
-        project_id: project.id,
+        project_id: projectId,
         number: (prev?.number ?? 0) + 1,
         plan: JSON.stringify(plan),
         canonical: JSON.stringify(canonical),
         change_summary: summary,
-        created_by: user.id,
+        created_by: createdBy,
       })
       .returning('id')
       .executeTakeFirstOrThrow();
-    await trx.updateTable('projects').set({ updated_at: new Date() }).where('id', '=', project.id).execute();
+    await trx.updateTable('projects').set({ updated_at: new Date() }).where('id', '=', projectId).execute();
     const saved = await revisionQuery(trx).where('r.id', '=', row.id).executeTakeFirstOrThrow();
-    return { revision: toRevision(saved), changes };
+    return toRevision(saved);
   });
 }
 
@@ -92,4 +91,23 @@ export async function getPlanRevision(db: DB, user: AppUser, projectId: string, 
   q = number === 'latest' ? q.orderBy('r.number', 'desc').limit(1) : q.where('r.number', '=', number);
   const row = await q.executeTakeFirst();
   return row ? toRevision(row) : null;
+}
+
+export type ProjectPlanRow = { id: string; name: string; organization: string; revisionNumber: number; plan: unknown };
+
+/** The latest plan revision of every open project in a jurisdiction (what a dry run evaluates). */
+export async function listLatestPlansInJurisdiction(db: DB, jurisdictionId: string): Promise<ProjectPlanRow[]> {
+  const rows = await db
+    .selectFrom('projects as p')
+    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('plan_revisions as r').select(['r.number', 'r.plan']).whereRef('r.project_id', '=', 'p.id').orderBy('r.number', 'desc').limit(1).as('lr'),
+      (join) => join.onTrue(),
+    )
+    .select(['p.id', 'p.name', 'o.name as organization', 'lr.number', 'lr.plan'])
+    .where('p.jurisdiction_id', '=', jurisdictionId)
+    .where('p.archived_at', 'is', null)
+    .orderBy('p.name')
+    .execute();
+  return rows.map((r) => ({ id: r.id, name: r.name, organization: r.organization, revisionNumber: r.number, plan: r.plan }));
 }

@@ -5,6 +5,16 @@ source "$(dirname "$0")/lib.sh"
 TEST_PORT="${NOOKPASS_TEST_PORT:-3100}"
 DB_NAME="nookpass_test_$(date +%s)_$$"
 
+# Everything the tests start has its own place, so npm test runs beside a running npm start:
+# its own build folder, its own fake mail and storage ports, its own database in the shared cluster.
+export NOOKPASS_DIST_DIR=.next-test
+export NOOKPASS_SMTP_PORT="${NOOKPASS_TEST_SMTP_PORT:-54335}"
+export NOOKPASS_INBOX_PORT="${NOOKPASS_TEST_INBOX_PORT:-54336}"
+export NOOKPASS_S3_PORT="${NOOKPASS_TEST_S3_PORT:-54337}"
+# next build points next-env.d.ts at the build folder's route types; the committed file is put back after.
+NEXT_ENV_BACKUP="$(mktemp)"
+cp next-env.d.ts "$NEXT_ENV_BACKUP"
+
 ensure_node_modules
 ensure_postgres_installed
 ensure_chromium
@@ -23,6 +33,7 @@ cleanup() {
   if [ -n "$APP_PID" ] && kill -0 "$APP_PID" 2>/dev/null; then kill -TERM "$APP_PID" 2>/dev/null || true; wait "$APP_PID" 2>/dev/null || true; fi
   stop_fakes
   rm -rf "$NP_DATA/mail-test" "$NP_DATA/s3-test"
+  if [ -s "$NEXT_ENV_BACKUP" ]; then cp "$NEXT_ENV_BACKUP" next-env.d.ts; rm -f "$NEXT_ENV_BACKUP"; fi
   drop_database "$DB_NAME"
   # Leave a cluster that 'npm start' was already running; stop the one we started.
   if [ "$WAS_RUNNING" = "0" ]; then stop_cluster; fi
@@ -47,6 +58,10 @@ npx tsx db/seed.ts
 
 say "Building the app for the end-to-end tests…"
 npx next build
+
+say "Type check and lint…"
+npx tsc --noEmit
+npx eslint --max-warnings=0 .
 
 rm -rf "$NP_DATA/mail-test" "$NP_DATA/s3-test"
 start_fakes -test

@@ -1,4 +1,4 @@
-import type { AuditItem } from '@/lib/services/rule-sets/rule-admin';
+import type { AuditItem } from '@/db/audit';
 
 const actionLabels: Record<string, string> = {
   'jurisdiction.create': 'created the jurisdiction',

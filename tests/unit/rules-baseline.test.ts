@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Editions } from '@/lib/domain/editions';
 import { baselineRules, type RuleSetOverrides } from '@/rules';
-import { EDITIONS_2018, EDITIONS_2021, findingFor, variant, type LoosePlan } from './support/check';
+import { EDITIONS_2021, findingFor, variant, type LoosePlan } from './support/check';
 
 interface RuleCase {
   key: string;

@@ -152,7 +152,7 @@ describe('formatLength and formatArea', () => {
 
 describe('absurd magnitudes', () => {
   it('refuses lengths over 1,000 ft and areas over 1,000 sq ft, naming the field', async () => {
-    const { parseLength, parseArea, MAX_LENGTH_IN, MAX_AREA_SQ_IN } = await import('@/lib/domain/units');
+    const { parseLength, MAX_LENGTH_IN, MAX_AREA_SQ_IN } = await import('@/lib/domain/units');
     // 1,000 ft = 12,000 in; 1,000 sq ft = 144,000 sq in (1 ft = 12 in exactly, NIST SP 811).
     expect(MAX_LENGTH_IN).toBe(12_000);
     expect(MAX_AREA_SQ_IN).toBe(144_000);

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { getDb } from '@/db';
-import { listJurisdictionOverview } from '@/lib/services/rule-sets/rule-admin';
+import { listJurisdictionOverview } from '@/db/jurisdictions';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';

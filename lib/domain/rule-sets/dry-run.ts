@@ -1,4 +1,4 @@
-import { outcomeOf, type CheckOutcome } from '@/lib/domain/checks/outcome';
+import type { CheckOutcome } from '@/lib/domain/checks/outcome';
 import { citationText } from '@/lib/domain/vocabulary';
 import type { EvaluationSummary, Finding, FindingStatus } from '@/lib/domain/engine';
 

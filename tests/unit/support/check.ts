@@ -23,7 +23,6 @@ export const EDITIONS_2021: Editions = {
 };
 
 // Plans in tests are loosely typed so a case can set any field, valid or not.
-// eslint-disable-next-line @typescript-eslint/no-explicit-any
 export type LoosePlan = any;
 
 /** A copy of the passing demo plan, changed by `mutate`. */

@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
 import { getDb } from '@/db';
-import { listJurisdictionOverview } from '@/lib/services/rule-sets/rule-admin';
+import { listJurisdictionOverview } from '@/db/jurisdictions';
 import { JurisdictionForm } from '@/components/admin/jurisdiction-form';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { listJurisdictionAudit } from '@/lib/services/rule-sets/rule-admin';
+import { listJurisdictionAudit } from '@/db/audit';
 import { listVersions } from '@/db/rule-sets';
 import { AuditList } from '@/components/admin/audit-list';
 import { StartDraft } from '@/components/admin/start-draft';

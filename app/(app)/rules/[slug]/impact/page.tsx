@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { computeImpact, type ImpactItem } from '@/lib/services/rule-sets/rule-admin';
+import { computeImpact, type ImpactItem } from '@/lib/services/rule-sets/comparisons';
 import { FindingChanges } from '@/components/admin/dry-run-results';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';

@@ -1,5 +1,6 @@
 import { getDb } from '@/db';
-import { listJurisdictionAudit, requireJurisdiction } from '@/lib/services/rule-sets/rule-admin';
+import { listJurisdictionAudit } from '@/db/audit';
+import { requireJurisdiction } from '@/lib/services/rule-sets/rule-admin';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, route } from '@/lib/platform/http';
 

@@ -1,5 +1,6 @@
 import { getDb } from '@/db';
-import { computeImpact, requireJurisdiction } from '@/lib/services/rule-sets/rule-admin';
+import { computeImpact } from '@/lib/services/rule-sets/comparisons';
+import { requireJurisdiction } from '@/lib/services/rule-sets/rule-admin';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, route } from '@/lib/platform/http';
 

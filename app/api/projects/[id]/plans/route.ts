@@ -1,10 +1,9 @@
 import { z } from 'zod';
 import { getDb } from '@/db';
-import { createPlanRevision, listPlanRevisions } from '@/db/plan-revisions';
+import { listPlanRevisions } from '@/db/plan-revisions';
 import { requireUser } from '@/lib/platform/auth/session';
-import { ValidationError } from '@/lib/domain/errors';
 import { json, parseBody, route } from '@/lib/platform/http';
-import { parsePlan } from '@/lib/domain/plan';
+import { savePlan } from '@/lib/services/plans';
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -18,8 +17,6 @@ export const GET = route<Ctx>(async (request, { params }) => {
 export const POST = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
   const { plan } = await parseBody(request, saveSchema);
-  const parsed = parsePlan(plan);
-  if (!parsed.ok) throw new ValidationError(parsed.errors.map((e) => ({ path: `plan.${e.path}`, message: e.message })));
-  const { revision, changes } = await createPlanRevision(getDb(), user, (await params).id, plan, parsed.plan);
+  const { revision, changes } = await savePlan(getDb(), user, { projectId: (await params).id, plan });
   return json({ revision, changes }, 201);
 });

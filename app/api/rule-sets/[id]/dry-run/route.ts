@@ -1,5 +1,6 @@
 import { getDb } from '@/db';
-import { requireRuleSet, runDryRun } from '@/lib/services/rule-sets/rule-admin';
+import { runDryRun } from '@/lib/services/rule-sets/comparisons';
+import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, route } from '@/lib/platform/http';
 

@@ -1,0 +1,110 @@
+import 'server-only';
+import type { DB } from '@/db';
+import { writeAudit } from '@/db/audit';
+import { listLatestChecksInJurisdiction } from '@/db/checks';
+import { demoPlans } from '@/db/demo-plans';
+import { listLatestPlansInJurisdiction } from '@/db/plan-revisions';
+import { getPublishedRuleSet, getRuleSetById, type RuleSetWithRules } from '@/db/rule-sets';
+import { outcomeOf } from '@/lib/domain/checks/outcome';
+import type { Evaluation, EvaluationSummary } from '@/lib/domain/engine';
+import { NotFoundError } from '@/lib/domain/errors';
+import { compareFindingSets, summarizeComparisons, type FindingDelta, type Outcome, type SubjectComparison } from '@/lib/domain/rule-sets/dry-run';
+import { evaluateForComparison } from '@/lib/services/evaluation';
+
+const side = (e: Evaluation | null): { outcome: Outcome; summary: EvaluationSummary } | null => (e ? { outcome: outcomeOf(e.summary), summary: e.summary } : null);
+
+async function compareSubject(
+  subject: Pick<SubjectComparison, 'kind' | 'id' | 'name' | 'detail'>,
+  plan: unknown,
+  before: RuleSetWithRules | null,
+  after: RuleSetWithRules,
+): Promise<SubjectComparison> {
+  const result = await evaluateForComparison(plan, { before, after });
+  if (result.parseError) return { ...subject, before: null, after: null, changes: [], error: `The plan does not parse today: ${result.parseError}` };
+  const changes = result.after ? compareFindingSets(result.before?.findings ?? [], result.after.findings) : [];
+  return { ...subject, before: side(result.before), after: side(result.after), changes, error: result.error };
+}
+
+export type DryRunResult = {
+  draft: { id: string; version: number; revision: number };
+  published: { id: string; version: number } | null;
+  subjects: SubjectComparison[];
+  totals: ReturnType<typeof summarizeComparisons>;
+};
+
+/**
+ * Evaluates the demo plans and the latest plan revision of every open project in the
+ * jurisdiction under both the published version and the draft, and reports the findings that
+ * would change. Nothing is stored but the audit entry.
+ */
+export async function runDryRun(db: DB, draftId: string, actorUserId: string): Promise<DryRunResult> {
+  const draft = await getRuleSetById(db, draftId);
+  if (!draft) throw new NotFoundError('No such rule set version.');
+  const published = await getPublishedRuleSet(db, draft.jurisdictionId);
+  const baseline = published && published.id !== draft.id ? published : null;
+  const subjects: SubjectComparison[] = [];
+  for (const demo of demoPlans) {
+    subjects.push(await compareSubject({ kind: 'demo-plan', id: demo.slug, name: demo.name, detail: 'demo plan' }, demo.plan, baseline, draft));
+  }
+  for (const p of await listLatestPlansInJurisdiction(db, draft.jurisdictionId)) {
+    subjects.push(await compareSubject({ kind: 'project', id: p.id, name: p.name, detail: `${p.organization} · plan revision ${p.revisionNumber}` }, p.plan, baseline, draft));
+  }
+  const totals = summarizeComparisons(subjects);
+  await writeAudit(db, {
+    actorUserId,
+    action: 'rule-set.dry-run',
+    entityType: 'rule_set',
+    entityId: draft.id,
+    details: { jurisdictionId: draft.jurisdictionId, version: draft.version, revision: draft.revision, againstVersion: baseline?.version ?? null, totals },
+  });
+  return {
+    draft: { id: draft.id, version: draft.version, revision: draft.revision },
+    published: baseline ? { id: baseline.id, version: baseline.version } : null,
+    subjects,
+    totals,
+  };
+}
+
+export type ImpactItem = {
+  projectId: string;
+  name: string;
+  organization: string;
+  state: 'would-change' | 'unchanged' | 'current' | 'never-checked';
+  latestCheck: { id: string; version: number; outcome: Outcome; createdAt: Date; revisionNumber: number } | null;
+  outcomeNow: Outcome | null;
+  changes: FindingDelta[];
+  error: string | null;
+};
+
+/**
+ * After publishing: for each open project, would its latest check come out differently under the
+ * published version? The check's own stored plan is re-evaluated (it stays as it was; the
+ * installer sees that newer rules exist and re-runs).
+ */
+export async function computeImpact(db: DB, jurisdictionId: string): Promise<{ published: { id: string; version: number; changelog: string } | null; items: ImpactItem[] }> {
+  const published = await getPublishedRuleSet(db, jurisdictionId);
+  const items: ImpactItem[] = [];
+  for (const project of await listLatestChecksInJurisdiction(db, jurisdictionId)) {
+    const base = { projectId: project.projectId, name: project.name, organization: project.organization };
+    const stored = project.latestCheck;
+    if (!stored) {
+      items.push({ ...base, state: 'never-checked', latestCheck: null, outcomeNow: null, changes: [], error: null });
+      continue;
+    }
+    const latestCheck = { id: stored.id, version: stored.version, outcome: stored.outcome, createdAt: stored.createdAt, revisionNumber: stored.revisionNumber };
+    if (!published || stored.version >= published.version) {
+      items.push({ ...base, state: 'current', latestCheck, outcomeNow: latestCheck.outcome, changes: [], error: null });
+      continue;
+    }
+    const now = await evaluateForComparison(stored.plan, { before: null, after: published });
+    if (now.parseError) {
+      items.push({ ...base, state: 'would-change', latestCheck, outcomeNow: null, changes: [], error: 'The checked plan does not parse today; the installer needs to re-save it.' });
+      continue;
+    }
+    const changes = now.after ? compareFindingSets(stored.findings, now.after.findings) : [];
+    const outcomeNow = now.after ? outcomeOf(now.after.summary) : null;
+    const differs = changes.some((c) => c.statusChanged) || outcomeNow !== latestCheck.outcome || !!now.error;
+    items.push({ ...base, state: differs ? 'would-change' : 'unchanged', latestCheck, outcomeNow, changes, error: now.error });
+  }
+  return { published: published ? { id: published.id, version: published.version, changelog: published.changelog } : null, items };
+}
