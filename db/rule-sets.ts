@@ -103,58 +103,27 @@ export async function publishedVersionsByJurisdiction(db: DB): Promise<Map<strin
   return new Map(rows.map((r) => [r.jurisdiction_id, r.version]));
 }
 
-/**
- * Writes a complete version and publishes it in one transaction: the previous published version
- * is retired, and an audit entry records who did it.
- */
 /** The next version number of a jurisdiction's rule set (versions never repeat, retired ones included). */
 async function nextVersionNumber(db: DB, jurisdictionId: string): Promise<number> {
   const last = await db.selectFrom('rule_sets').select((eb) => eb.fn.max('version').as('v')).where('jurisdiction_id', '=', jurisdictionId).executeTakeFirst();
   return Number(last?.v ?? 0) + 1;
 }
 
+/**
+ * Writes a complete version and publishes it at once (the seed's first versions): the same draft
+ * and publish steps an admin goes through, in one transaction, the previous version retired.
+ */
 export async function createPublishedVersion(
   db: DB,
   input: { jurisdictionId: string; parameters: RuleSetParameters; rules: StoredRule[]; changelog: string; actorUserId: string | null },
 ): Promise<RuleSetVersion> {
-  return db.transaction().execute(async (trx) => {
-    const version = await nextVersionNumber(trx, input.jurisdictionId);
-    const draft = await trx
-      .insertInto('rule_sets')
-      .values({
-        jurisdiction_id: input.jurisdictionId,
-        version,
-        parameters: JSON.stringify(input.parameters),
-        changelog: input.changelog,
-        created_by: input.actorUserId,
-      })
-      .returning('id')
-      .executeTakeFirstOrThrow();
-    if (input.rules.length) {
-      await trx.insertInto('rules').values(input.rules.map((r, i) => ruleToRow(r, draft.id, i))).execute();
-    }
-    const now = new Date();
-    await trx
-      .updateTable('rule_sets')
-      .set({ status: 'retired', retired_at: now })
-      .where('jurisdiction_id', '=', input.jurisdictionId)
-      .where('status', '=', 'published')
-      .execute();
-    await trx
-      .updateTable('rule_sets')
-      .set({ status: 'published', published_at: now, published_by: input.actorUserId })
-      .where('id', '=', draft.id)
-      .execute();
-    await writeAudit(trx, {
-      actorUserId: input.actorUserId,
-      action: 'rule-set.publish',
-      entityType: 'rule_set',
-      entityId: draft.id,
-      details: { jurisdictionId: input.jurisdictionId, version, changelog: input.changelog },
-    });
-    const row = await versionQuery(trx).where('s.id', '=', draft.id).executeTakeFirstOrThrow();
-    return toVersion(row);
-  });
+  return withConflicts(() =>
+    db.transaction().execute(async (trx) => {
+      const draft = await insertDraft(trx, { jurisdictionId: input.jurisdictionId, parameters: input.parameters, rules: input.rules, basedOnId: null, actorUserId: input.actorUserId, source: 'complete version' });
+      await publishWithin(trx, { id: draft.id, revision: draft.revision, changelog: input.changelog, actorUserId: input.actorUserId, validate: () => {} });
+      return toVersion(await versionQuery(trx).where('s.id', '=', draft.id).executeTakeFirstOrThrow());
+    }),
+  );
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -215,7 +184,7 @@ export type DraftInput = {
   parameters: RuleSetParameters;
   rules: StoredRule[];
   basedOnId: string | null;
-  actorUserId: string;
+  actorUserId: string | null;
   source: string;
 };
 
@@ -372,7 +341,7 @@ export async function discardDraft(db: DB, input: { id: string; revision: number
   );
 }
 
-type PublishInput = { id: string; revision: number; changelog: string; actorUserId: string; validate: (draft: RuleSetWithRules) => void };
+type PublishInput = { id: string; revision: number; changelog: string; actorUserId: string | null; validate: (draft: RuleSetWithRules) => void };
 
 /** The publish steps inside the caller's transaction (also used for a new jurisdiction published at once). */
 export async function publishWithin(trx: DB, input: PublishInput): Promise<{ retired: { id: string; version: number } | null }> {
