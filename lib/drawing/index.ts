@@ -6,3 +6,4 @@ export { frontElevation, type DrawingOptions } from './front-elevation';
 export { planView } from './plan-view';
 export { exhaustSchematic, type ExhaustSchematic, type ExhaustSegment } from './exhaust-schematic';
 export { hingeLayouts, type DoorHingeLayout, type HingePosition } from './hinge-layout';
+export { drawPlan, countDrawingElements, DRAWING_ELEMENT_BUDGET, type PlanDrawings, type DrawPlanResult } from './budget';
