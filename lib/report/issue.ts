@@ -8,7 +8,7 @@ import { insertReport, type IssuedReport } from '@/db/reports';
 import { getRuleSetById } from '@/db/rule-sets';
 import type { AppUser } from '@/lib/auth/roles';
 import { NotFoundError } from '@/lib/errors';
-import { parsePlan } from '@/lib/plan';
+import { parseStoredPlan } from '@/lib/plan';
 import { getObject, putObject } from '@/lib/storage';
 import type { ReportData } from './report-data';
 import { newReportCode, renderReportPdf } from './render';
@@ -31,7 +31,8 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     listAttachments(db, project.id),
   ]);
   if (!ruleSet) throw new NotFoundError('The rule set of this check is missing.');
-  const parsed = parsePlan(check.inputs.plan);
+  // Read as stored: a plan saved before today's list limits still gets its report, without drawings.
+  const parsed = parseStoredPlan(check.inputs.plan);
   if (!parsed.ok) throw new NotFoundError('The plan stored with this check no longer parses.');
   const photos: ReportData['photos'] = [];
   for (const a of attachments.filter((x) => x.kind === 'photo')) {
@@ -62,6 +63,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     check: { id: check.id, createdAt: check.createdAt, runBy: check.createdBy.name, summary: check.summary, outcome: check.outcome },
     findings: check.findings,
     plan: parsed.plan,
+    drawingsWithheld: parsed.oversize.map((o) => o.message),
     parameters: ruleSet.parameters,
     photos,
     documents: attachments.filter((x) => x.kind === 'document').map((d) => ({ caption: d.caption, filename: d.filename, contentType: d.contentType })),
