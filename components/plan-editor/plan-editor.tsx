@@ -9,6 +9,7 @@ import { parsePlan, type PlanInput } from '@/lib/plan';
 import { ExhaustRouteBuilder } from './exhaust-route-builder';
 import { sections, type FormValues, type ListSpec } from './field-spec';
 import { formToPlan, planToForm } from './form-values';
+import { ListLimit } from './list-limit';
 import { PlanField } from './measure-field';
 
 type FieldError = { path: string; message: string };
@@ -39,8 +40,10 @@ const planResolver: Resolver<FormValues> = async (values) => {
 function ListEditor({ list }: { list: ListSpec }) {
   const { control } = useFormContext();
   const { fields, append, remove } = useFieldArray({ control, name: list.path });
+  const full = fields.length >= list.max;
+  const id = `f-${list.path.replace(/\./g, '-')}`;
   return (
-    <fieldset className="mt-4 rounded-lg border border-rule p-4">
+    <fieldset id={id} className="mt-4 rounded-lg border border-rule p-4" aria-describedby={`${id}-limit`}>
       <legend className="px-1 text-base font-semibold">{list.label}</legend>
       {fields.length === 0 && <p className="text-sm text-ink-faint">None yet.</p>}
       <ol className="space-y-4">
@@ -58,7 +61,8 @@ function ListEditor({ list }: { list: ListSpec }) {
           </li>
         ))}
       </ol>
-      <button type="button" className="btn-secondary mt-3" onClick={() => append({ ...list.newItem })}>Add {list.itemLabel.toLowerCase()}</button>
+      <button type="button" className="btn-secondary mt-3" onClick={() => append({ ...list.newItem })} disabled={full}>Add {list.itemLabel.toLowerCase()}</button>
+      <ListLimit name={list.path} count={fields.length} max={list.max} noun={list.label.toLowerCase()} />
     </fieldset>
   );
 }
