@@ -18,7 +18,8 @@ const csp = [
 const nextConfig = {
   poweredByHeader: false,
   reactStrictMode: true,
-  serverExternalPackages: ['pg', 'bcryptjs', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],
+  // piscina starts its worker threads from its own files by path, which bundling would break.
+  serverExternalPackages: ['pg', 'bcryptjs', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser', 'piscina'],
   async headers() {
     return [
       {

@@ -47,6 +47,7 @@ npx tsx db/seed.ts
 
 say "Building the app for the end-to-end tests…"
 npx next build
+node scripts/build-report-worker.mjs
 
 rm -rf "$NP_DATA/mail-test" "$NP_DATA/s3-test"
 start_fakes -test

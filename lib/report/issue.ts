@@ -11,7 +11,8 @@ import { NotFoundError } from '@/lib/errors';
 import { parseStoredPlan } from '@/lib/plan';
 import { getObject, putObject } from '@/lib/storage';
 import type { ReportData } from './report-data';
-import { newReportCode, renderReportPdf } from './render';
+import { newReportCode } from './render';
+import { renderReportOffThread } from './render-pool';
 
 export function publicBaseUrl(): string {
   return (process.env.NOOKPASS_PUBLIC_URL ?? process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000').replace(/\/$/, '');
@@ -80,7 +81,7 @@ export async function issueReport(db: DB, user: AppUser, checkId: string): Promi
   const code = newReportCode(randomBytes);
   const { data, attachmentIds } = await gather(db, user, check, project, code);
   const started = performance.now();
-  const { pdf, sha256, pageCount } = await renderReportPdf(data);
+  const { pdf, sha256, pageCount } = await renderReportOffThread(data);
   const renderMs = performance.now() - started;
   const storageKey = `reports/${project.id}/${code}.pdf`;
   // Stored before it is recorded: a recorded report always has its file.

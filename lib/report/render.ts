@@ -14,7 +14,13 @@ export function countPdfPages(pdf: Buffer): number {
   return counts.length ? Math.max(...counts) : 0;
 }
 
-export async function renderReportPdf(data: ReportData): Promise<{ pdf: Buffer; sha256: string; pageCount: number }> {
+export type RenderedReport = { pdf: Buffer; sha256: string; pageCount: number };
+
+/**
+ * Renders the report on the calling thread. CPU-bound for seconds on a large plan: request handlers
+ * go through renderReportOffThread (render-pool.ts), which runs this in a worker thread.
+ */
+export async function renderReportPdf(data: ReportData): Promise<RenderedReport> {
   registerReportFonts();
   const pdf = Buffer.from(await renderToBuffer(createElement(ReportDocument, { data }) as Parameters<typeof renderToBuffer>[0]));
   return { pdf, sha256: sha256Hex(pdf), pageCount: countPdfPages(pdf) };
