@@ -96,11 +96,14 @@ export function PlanEditor({
   initialPlan,
   baseRevision,
   params,
+  saveBeforeCheck = false,
 }: {
   projectId: string;
   initialPlan: PlanInput | null;
   baseRevision: number | null;
   params: RuleSetParameters;
+  /** The form does not show the saved revision as it is (it was cut to the plan limits): save before a check. */
+  saveBeforeCheck?: boolean;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
@@ -188,8 +191,8 @@ export function PlanEditor({
       <form onSubmit={handleSubmit(save, onInvalid)} noValidate className="space-y-5" aria-label="Closet plan">
         <div className="no-print sticky top-0 z-10 -mx-4 flex flex-wrap items-center gap-3 border-b border-rule bg-paper/95 px-4 py-3 backdrop-blur">
           <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Save plan</button>
-          <button type="button" className="btn-secondary" onClick={runCheck} disabled={running || dirty || baseRevision === null}
-            title={dirty ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
+          <button type="button" className="btn-secondary" onClick={runCheck} disabled={running || dirty || saveBeforeCheck || baseRevision === null}
+            title={dirty || saveBeforeCheck ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
             {running ? 'Running check…' : 'Run check'}
           </button>
           <span className="text-sm text-ink-soft" data-testid="editor-state">

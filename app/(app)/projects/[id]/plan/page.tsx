@@ -64,6 +64,7 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
         key={revParam ? `revision-${revParam}` : 'latest'}
         projectId={project.id}
         initialPlan={initialPlan}
+        saveBeforeCheck={oversize.length > 0}
         baseRevision={latest?.number ?? null}
         params={parameters}
       />
