@@ -19,6 +19,8 @@ export const REPORT_RENDER_TIMEOUT_MS = 30_000;
 const MAX_QUEUED_RENDERS = 8;
 /** A worker that needs more heap than this is stopped by V8; the server itself is not affected. */
 const WORKER_HEAP_MB = 512;
+/** How much lower than the request thread the render threads run (nice levels, 0 to 19). */
+const WORKER_NICE = 10;
 
 // Files beside the build, loaded by path at run time, not part of the server bundle: the paths opt out
 // of Turbopack's file tracing, which would otherwise take in the whole project.
@@ -59,6 +61,9 @@ async function reportPool(): Promise<Piscina> {
     idleTimeout: 60_000,
     maxQueue: MAX_QUEUED_RENDERS,
     resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
+    // On a busy machine the request thread is scheduled first: Linux nice applies per thread
+    // (piscina applies it through @napi-rs/nice; without that package the worker runs at normal priority).
+    niceIncrement: WORKER_NICE,
   });
   poolCode = code;
   void old?.destroy();
