@@ -11,7 +11,7 @@ import { NotFoundError } from '@/lib/errors';
 import { parseStoredPlan } from '@/lib/plan';
 import { getObject, putObject } from '@/lib/storage';
 import type { ReportData } from './report-data';
-import { newReportCode } from './render';
+import { newReportCode } from './report-code';
 import { renderReportOffThread } from './render-pool';
 
 export function publicBaseUrl(): string {

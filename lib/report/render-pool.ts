@@ -19,8 +19,13 @@ export const REPORT_RENDER_TIMEOUT_MS = 30_000;
 const MAX_QUEUED_RENDERS = 8;
 /** A worker that needs more heap than this is stopped by V8; the server itself is not affected. */
 const WORKER_HEAP_MB = 512;
-/** How much lower than the request thread the render threads run (nice levels, 0 to 19). */
+/** How much lower than the request thread the render threads run (nice levels, 0 to 19; NOOKPASS_REPORT_NICE). */
 const WORKER_NICE = 10;
+
+function workerNice(): number {
+  const fromEnv = Number(process.env.NOOKPASS_REPORT_NICE);
+  return Number.isInteger(fromEnv) && fromEnv >= 0 && fromEnv <= 19 ? fromEnv : WORKER_NICE;
+}
 
 // Files beside the build, loaded by path at run time, not part of the server bundle: the paths opt out
 // of Turbopack's file tracing, which would otherwise take in the whole project.
@@ -63,7 +68,7 @@ async function reportPool(): Promise<Piscina> {
     resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB },
     // On a busy machine the request thread is scheduled first: Linux nice applies per thread
     // (piscina applies it through @napi-rs/nice; without that package the worker runs at normal priority).
-    niceIncrement: WORKER_NICE,
+    niceIncrement: workerNice(),
   });
   poolCode = code;
   void old?.destroy();
