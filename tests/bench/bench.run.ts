@@ -73,7 +73,7 @@ it('report render time (four pages with photos)', async () => {
   } finally {
     await closeReportRenderPool();
   }
-  console.log('[bench] report through the worker pool', results.reportPool);
+  console.log('[bench] report through the worker pool', JSON.stringify(results.reportPool));
   console.log('[bench] report of the largest plan the limits allow', JSON.stringify(results.reportLargest));
   expect(results.report).toMatchObject({ pages: expect.any(Number) });
 });
