@@ -152,6 +152,7 @@ describe('a revision stored before the limits', () => {
     const editor = await timed(`/projects/${projectId}/plan`);
     expect(editor.status).toBe(200);
     expect(editor.text.includes('holds more than a plan may have today'), 'the editor warns').toBe(true);
+    expect(editor.text.includes('title="Save the plan first"'), 'a check waits for a save of what the editor shows').toBe(true);
     expect(editor.bytes.length).toBeLessThan(2_000_000);
     for (const r of [project, editor]) expect(r.ms).toBeLessThan(10_000);
     // Revision 1 still draws.
