@@ -20,7 +20,8 @@ const nextConfig = {
   distDir: process.env.NOOKPASS_DIST_DIR || '.next',
   poweredByHeader: false,
   reactStrictMode: true,
-  serverExternalPackages: ['pg', 'bcryptjs', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],
+  // piscina starts its worker threads from its own files by path, which bundling would break.
+  serverExternalPackages: ['pg', 'bcryptjs', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser', 'piscina'],
   async headers() {
     return [
       {

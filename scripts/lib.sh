@@ -183,15 +183,18 @@ ensure_auth_secret() {
   fi
 }
 
-# Builds only when a source file is newer than the last build.
+# Builds only when a source file is newer than the last build. The report worker is bundled after
+# `next build` (which empties .next), and on its own when only it is missing.
 build_if_needed() {
   local stamp=".next/BUILD_ID"
-  if [ -f "$stamp" ] && [ -z "$(find app components lib rules db proxy.ts next.config.mjs tailwind.config.ts postcss.config.mjs package-lock.json public -newer "$stamp" -print -quit 2>/dev/null)" ]; then
+  if [ -f "$stamp" ] && [ -z "$(find app components lib rules db proxy.ts next.config.mjs tailwind.config.ts postcss.config.mjs package-lock.json public scripts/build-report-worker.mjs -newer "$stamp" -print -quit 2>/dev/null)" ]; then
     say "Build is up to date (reusing .next)."
+    [ -f .next/report-worker/render-worker.mjs ] || node scripts/build-report-worker.mjs
     return 0
   fi
   say "Building the app (next build)…"
   NEXT_TELEMETRY_DISABLED=1 npx next build
+  node scripts/build-report-worker.mjs
 }
 
 export NOOKPASS_SMTP_PORT="${NOOKPASS_SMTP_PORT:-54325}"

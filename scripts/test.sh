@@ -58,6 +58,7 @@ npx tsx db/seed.ts
 
 say "Building the app for the end-to-end tests…"
 npx next build
+node scripts/build-report-worker.mjs
 
 say "Type check and lint…"
 npx tsc --noEmit

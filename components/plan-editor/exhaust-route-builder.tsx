@@ -3,10 +3,11 @@
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { fittingEquivalentIn } from '@/lib/domain/facts/exhaust';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import type { RunItem } from '@/lib/domain/plan';
+import { MAX_EXHAUST_RUN_PIECES, type RunItem } from '@/lib/domain/plan';
 import { formatLength, parseLength, type UnitSystem } from '@/lib/domain/units';
 import { runItemFields } from '@/components/plan-editor/field-spec';
 import { PlanField } from '@/components/plan-editor/measure-field';
+import { ListLimit } from '@/components/plan-editor/list-limit';
 
 type FormRunItem = { straight?: string; elbow?: string; fitting?: string };
 
@@ -47,9 +48,10 @@ export function ExhaustRouteBuilder({ params }: { params: RuleSetParameters }) {
     }
   }
   const over = developedIn > allowedIn;
+  const full = fields.length >= MAX_EXHAUST_RUN_PIECES;
 
   return (
-    <fieldset className="rounded-lg border border-rule p-4">
+    <fieldset id="f-exhaust-run" className="rounded-lg border border-rule p-4" aria-describedby="f-exhaust-run-limit">
       <legend className="px-1 text-base font-semibold">Exhaust route, from the transition connection to the terminal</legend>
       <p className="text-sm text-ink-soft">The transition duct is not counted. Each elbow counts at its equivalent length from the adopted edition’s table.</p>
 
@@ -107,10 +109,11 @@ export function ExhaustRouteBuilder({ params }: { params: RuleSetParameters }) {
       {fields.length === 0 && <p className="mt-3 text-sm text-ink-faint">No pieces yet. Start with the straight run leaving the transition connection.</p>}
 
       <div className="mt-4 flex flex-wrap gap-2">
-        <button type="button" className="btn-secondary" onClick={() => append({ straight: '', elbow: '', fitting: '' })}>Add straight run</button>
-        <button type="button" className="btn-secondary" onClick={() => append({ straight: '', elbow: '90', fitting: 'mitered' })}>Add 90° elbow</button>
-        <button type="button" className="btn-secondary" onClick={() => append({ straight: '', elbow: '45', fitting: 'mitered' })}>Add 45° elbow</button>
+        <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '', fitting: '' })}>Add straight run</button>
+        <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '90', fitting: 'mitered' })}>Add 90° elbow</button>
+        <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '45', fitting: 'mitered' })}>Add 45° elbow</button>
       </div>
+      <ListLimit name="exhaust.run" count={fields.length} max={MAX_EXHAUST_RUN_PIECES} noun="pieces in the route" />
     </fieldset>
   );
 }

@@ -5,6 +5,10 @@ import {
   drainDestinations,
   ductMaterials,
   fittingKinds,
+  MAX_DOORS,
+  MAX_HINGES_PER_DOOR,
+  MAX_MAKEUP_AIR_OPENINGS,
+  MAX_RECEPTACLES,
   spaceKinds,
 } from '@/lib/domain/plan';
 
@@ -39,6 +43,8 @@ export type ListSpec = {
   itemLabel: string;
   fields: FieldSpec[];
   newItem: Record<string, string>;
+  /** The schema's limit for the list: the editor offers no more. */
+  max: number;
 };
 
 export type SectionSpec = {
@@ -169,6 +175,7 @@ export const sections: SectionSpec[] = [
           { path: 'netFreeArea', label: 'Net free area', kind: 'area' },
         ],
         newItem: { position: 'top', netFreeArea: '' },
+        max: MAX_MAKEUP_AIR_OPENINGS,
       },
     ],
   },
@@ -197,6 +204,7 @@ export const sections: SectionSpec[] = [
           { path: 'existingCircuit', label: 'Existing circuit', kind: 'bool' },
         ],
         newItem: { serves: 'washer', volts: '120', amps: '20' },
+        max: MAX_RECEPTACLES,
       },
     ],
   },
@@ -240,9 +248,10 @@ export const sections: SectionSpec[] = [
           { path: 'width', label: 'Width', kind: 'length' },
           { path: 'height', label: 'Height', kind: 'length' },
           { path: 'thickness', label: 'Thickness', kind: 'length' },
-          { path: 'hinges', label: 'Hinge positions from the bottom edge', kind: 'length-list', noneWord: 'none', hint: 'Comma-separated, e.g. 3, 40, 77; “none” for a door without hinges.' },
+          { path: 'hinges', label: 'Hinge positions from the bottom edge', kind: 'length-list', noneWord: 'none', hint: `Comma-separated, e.g. 3, 40, 77 (at most ${MAX_HINGES_PER_DOOR}); “none” for a door without hinges.` },
         ],
         newItem: { kind: 'hinged', width: '', height: '', thickness: '3/4', hinges: '' },
+        max: MAX_DOORS,
       },
     ],
   },

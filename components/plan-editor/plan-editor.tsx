@@ -9,6 +9,7 @@ import { parsePlan, type PlanInput } from '@/lib/domain/plan';
 import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
 import { sections, type FormValues, type ListSpec } from '@/components/plan-editor/field-spec';
 import { formToPlan, planToForm } from '@/components/plan-editor/form-values';
+import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import type { FieldError } from '@/lib/domain/errors';
 
@@ -39,8 +40,10 @@ const planResolver: Resolver<FormValues> = async (values) => {
 function ListEditor({ list }: { list: ListSpec }) {
   const { control } = useFormContext();
   const { fields, append, remove } = useFieldArray({ control, name: list.path });
+  const full = fields.length >= list.max;
+  const id = `f-${list.path.replace(/\./g, '-')}`;
   return (
-    <fieldset className="mt-4 rounded-lg border border-rule p-4">
+    <fieldset id={id} className="mt-4 rounded-lg border border-rule p-4" aria-describedby={`${id}-limit`}>
       <legend className="px-1 text-base font-semibold">{list.label}</legend>
       {fields.length === 0 && <p className="text-sm text-ink-faint">None yet.</p>}
       <ol className="space-y-4">
@@ -58,7 +61,8 @@ function ListEditor({ list }: { list: ListSpec }) {
           </li>
         ))}
       </ol>
-      <button type="button" className="btn-secondary mt-3" onClick={() => append({ ...list.newItem })}>Add {list.itemLabel.toLowerCase()}</button>
+      <button type="button" className="btn-secondary mt-3" onClick={() => append({ ...list.newItem })} disabled={full}>Add {list.itemLabel.toLowerCase()}</button>
+      <ListLimit name={list.path} count={fields.length} max={list.max} noun={list.label.toLowerCase()} />
     </fieldset>
   );
 }
@@ -92,11 +96,14 @@ export function PlanEditor({
   initialPlan,
   baseRevision,
   params,
+  saveBeforeCheck = false,
 }: {
   projectId: string;
   initialPlan: PlanInput | null;
   baseRevision: number | null;
   params: RuleSetParameters;
+  /** The form does not show the saved revision as it is (it was cut to the plan limits): save before a check. */
+  saveBeforeCheck?: boolean;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
@@ -184,8 +191,8 @@ export function PlanEditor({
       <form onSubmit={handleSubmit(save, onInvalid)} noValidate className="space-y-5" aria-label="Closet plan">
         <div className="no-print sticky top-0 z-10 -mx-4 flex flex-wrap items-center gap-3 border-b border-rule bg-paper/95 px-4 py-3 backdrop-blur">
           <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Save plan</button>
-          <button type="button" className="btn-secondary" onClick={runCheck} disabled={running || dirty || baseRevision === null}
-            title={dirty ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
+          <button type="button" className="btn-secondary" onClick={runCheck} disabled={running || dirty || saveBeforeCheck || baseRevision === null}
+            title={dirty || saveBeforeCheck ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
             {running ? 'Running check…' : 'Run check'}
           </button>
           <span className="text-sm text-ink-soft" data-testid="editor-state">

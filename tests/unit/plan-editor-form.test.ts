@@ -63,4 +63,16 @@ describe('revision change summary', () => {
     expect(summarizeChanges(changes)).toBe('Enclosure width 54 → 56; Exhaust run item 2 — → {"elbow":90}');
     expect(summarizeChanges([])).toBe('No changes');
   });
+
+  it('compares a list longer than any plan may hold as one change, quickly', () => {
+    const door = { kind: 'hinged', height: 78, hinges: [3, 75] };
+    const stored = { units: 'imperial', doors: [{ ...door, hinges: Array.from({ length: 100_000 }, (_, i) => 1 + (i % 70)) }, ...Array.from({ length: 4_999 }, () => door)] };
+    const started = performance.now();
+    const changes = diffPlans(stored, { units: 'imperial', doors: [door] });
+    expect(performance.now() - started).toBeLessThan(200);
+    expect(changes).toEqual([{ path: 'doors', label: 'Doors', from: '5,000 entries', to: '1 entry' }]);
+    expect(diffPlans({ doors: [{ ...door, hinges: stored.doors[0].hinges }] }, { doors: [door] })).toEqual([
+      { path: 'doors.0.hinges', label: 'Doors item 1 hinges', from: '100,000 entries', to: '2 entries' },
+    ]);
+  });
 });

@@ -60,6 +60,23 @@ describe('report PDF', () => {
     expect(sha256).toBe(sha256Hex(pdf));
   });
 
+  it('says a plan too large to draw is not drawn, naming the list, and keeps the findings', async () => {
+    const data = await sampleData();
+    const withheld = await renderReportPdf({ ...data, drawingsWithheld: ['Doors item 1 hinges: at most 12 hinge positions on a door; this plan has 100,000.'] });
+    const { text } = await pdfText(withheld.pdf);
+    expect(text).toContain('Plan revision 2 is too large to draw, so this report has no drawings or hinge layout.');
+    expect(text).toContain('Doors item 1 hinges: at most 12 hinge positions on a door; this plan has 100,000.');
+    expect(text).not.toContain('Hinge layout');
+    expect(text).toContain('IRC 2018 M1502.4.5.1'); // the findings are still there
+
+    // A plan handed over without the notice is still measured before it is drawn.
+    const hinges = Array.from({ length: 100_000 }, (_, i) => 1 + (i % 70));
+    const started = performance.now();
+    const direct = await renderReportPdf({ ...data, plan: { ...data.plan, doors: [{ kind: 'hinged', height: 78, hinges }] } });
+    expect(performance.now() - started).toBeLessThan(10_000);
+    expect((await pdfText(direct.pdf)).text).toContain('this plan has 100,000');
+  });
+
   it('counts pages and makes readable codes', () => {
     expect(countPdfPages(Buffer.from('<< /Type /Pages /Kids [3 0 R 4 0 R 5 0 R] /Count 3 >> << /Type /Pages /Count 2 >>'))).toBe(3);
     const code = newReportCode(randomBytes);

@@ -6,3 +6,4 @@ export { frontElevation, type DrawingOptions } from '@/lib/domain/drawing/front-
 export { planView } from '@/lib/domain/drawing/plan-view';
 export { exhaustSchematic, type ExhaustSchematic, type ExhaustSegment } from '@/lib/domain/drawing/exhaust-schematic';
 export { hingeLayouts, type DoorHingeLayout, type HingePosition } from '@/lib/domain/drawing/hinge-layout';
+export { drawPlan, countDrawingElements, DRAWING_ELEMENT_BUDGET, type PlanDrawings, type DrawPlanResult } from '@/lib/domain/drawing/budget';

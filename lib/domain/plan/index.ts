@@ -1,7 +1,17 @@
 import type { z } from 'zod';
-import type { FieldError } from '@/lib/domain/errors';
 import { labelForPath, type UnitSystem } from '@/lib/domain/units';
-import { canonicalPlanSchema, planInputSchema, unitSystemSchema, UNIT_ISSUE, type Plan } from '@/lib/domain/plan/schema';
+import {
+  canonicalPlanSchema,
+  listLimitMessage,
+  PLAN_LIST_LIMITS,
+  planInputSchema,
+  storedPlanSchema,
+  unitSystemSchema,
+  UNIT_ISSUE,
+  type Plan,
+  type PlanListPath,
+} from '@/lib/domain/plan/schema';
+import type { FieldError } from '@/lib/domain/errors';
 
 export * from '@/lib/domain/plan/schema';
 
@@ -62,8 +72,12 @@ function describeIssue(issue: z.core.$ZodIssue): FieldError[] {
  * bare numbers in the plan's own units. Errors name the field path (`enclosure.width`).
  */
 export function parsePlan(input: unknown): ParsePlanResult {
+  return parseWith(input, canonicalPlanSchema);
+}
+
+function parseWith(input: unknown, schemaFor: (units: UnitSystem) => z.ZodType): ParsePlanResult {
   const units = unitSystemSchema.safeParse((input as { units?: unknown } | null)?.units);
-  const schema = units.success ? canonicalPlanSchema(units.data as UnitSystem) : planInputSchema;
+  const schema = units.success ? schemaFor(units.data as UnitSystem) : planInputSchema;
   const result = schema.safeParse(input);
   if (result.success && units.success) return { ok: true, plan: result.data as unknown as Plan };
   const issues = result.success ? [] : result.error.issues;
@@ -72,4 +86,81 @@ export function parsePlan(input: unknown): ParsePlanResult {
     errors.unshift({ path: 'units', message: "Units: must be 'imperial' or 'metric'." });
   }
   return { ok: false, errors };
+}
+
+/** A list of a stored plan that is longer than today's limit. */
+export interface OversizeList {
+  /** The list's path in the plan (`doors.0.hinges`). */
+  path: string;
+  count: number;
+  max: number;
+  message: string;
+}
+
+function field(value: unknown, key: string): unknown {
+  return value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Record<string, unknown>)[key] : undefined;
+}
+
+type BoundedList = { path: string; rule: PlanListPath; max: number; items: unknown[] };
+
+/**
+ * Every concrete list of the plan a limit applies to, with its path: `doors.*.hinges` expands per door,
+ * over the doors within their own limit only (the rest are cut, so their hinges never matter).
+ */
+function boundedLists(plan: unknown): BoundedList[] {
+  const out: BoundedList[] = [];
+  const visit = (node: unknown, keys: string[], at: string[], pattern: string[], rule: PlanListPath, max: number) => {
+    if (keys.length === 0) {
+      if (Array.isArray(node)) out.push({ path: at.join('.'), rule, max, items: node });
+      return;
+    }
+    const [key, ...rest] = keys;
+    if (key === '*') {
+      if (!Array.isArray(node)) return;
+      const outer = PLAN_LIST_LIMITS.find((l) => l.path === pattern.join('.'))?.max ?? node.length;
+      node.slice(0, outer).forEach((item, i) => visit(item, rest, [...at, String(i)], [...pattern, key], rule, max));
+    } else {
+      visit(field(node, key), rest, [...at, key], [...pattern, key], rule, max);
+    }
+  };
+  for (const limit of PLAN_LIST_LIMITS) visit(plan, limit.path.split('.'), [], [], limit.path, limit.max);
+  return out;
+}
+
+/**
+ * The lists of a plan (as entered or canonical: both have the same shape) that are longer than the
+ * limits allow. Cheap: it counts, it does not parse. Stored revisions from before the limits may have some.
+ */
+export function findOversizeLists(plan: unknown): OversizeList[] {
+  return boundedLists(plan).flatMap(({ path, rule, max, items }) => {
+    if (items.length <= max) return [];
+    return [{ path, count: items.length, max, message: `${labelForPath(path)}: ${listLimitMessage(rule, items.length)}` }];
+  });
+}
+
+/** A copy of the plan with every bounded list cut to its limit; the input is left as it is. */
+export function truncateToLimits<T>(plan: T): T {
+  if (findOversizeLists(plan).length === 0) return plan;
+  const copy = structuredClone(plan);
+  // Outer lists first (PLAN_LIST_LIMITS lists doors before their hinges), so no cut list is walked.
+  for (const limit of PLAN_LIST_LIMITS) {
+    for (const list of boundedLists(copy)) {
+      if (list.rule === limit.path && list.items.length > list.max) list.items.splice(list.max);
+    }
+  }
+  return copy;
+}
+
+export type StoredPlanResult = ParsePlanResult & { oversize: OversizeList[] };
+
+/**
+ * Reads a stored plan (a revision, or the plan kept with a check). Stored rows are never rewritten, so
+ * one saved before today's limits may hold longer lists: those are reported in `oversize`, and the
+ * plan returned is cut to the limits, so nothing downstream ever handles more than the limits allow.
+ * The other fields are read as the schema reads new input.
+ */
+export function parseStoredPlan(input: unknown): StoredPlanResult {
+  const oversize = findOversizeLists(input);
+  const result = parseWith(oversize.length ? truncateToLimits(input) : input, storedPlanSchema);
+  return { ...result, oversize };
 }

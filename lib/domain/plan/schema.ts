@@ -42,13 +42,66 @@ export const doorKinds = ['hinged', 'bifold', 'sliding'] as const;
 
 type FieldFactory = (description: string) => z.ZodType;
 
+/*
+ * Size limits of a plan. A laundry closet has a handful of each; the limits are generous for any real
+ * enclosure and keep one request from costing the server more than it can afford to check, draw and
+ * render (common practice, no published source). Forms, tests and the JSON Schema use these same numbers.
+ */
+/** Enclosure doors (a pair of bifolds is four leaves). */
+export const MAX_DOORS = 8;
+/** Hinge positions on one door; hinge makers' charts ask for 2 to 5 on a full-height door. */
+export const MAX_HINGES_PER_DOOR = 12;
+/** Straight sections and elbows in the exhaust route. */
+export const MAX_EXHAUST_RUN_PIECES = 60;
+/** Make-up air openings in the enclosure or its doors. */
+export const MAX_MAKEUP_AIR_OPENINGS = 12;
+/** Receptacle outlets serving the appliances. */
+export const MAX_RECEPTACLES = 8;
+/** Characters in a length or an area written as text ("2 ft 6-1/2 in" is 13). */
+export const MAX_MEASURE_TEXT_LENGTH = 40;
+
+/** The bounded lists of a plan; `*` stands for any index. One table for the schema, stored-plan checks and the editor. */
+export const PLAN_LIST_LIMITS = [
+  { path: 'doors', max: MAX_DOORS, noun: 'doors' },
+  { path: 'doors.*.hinges', max: MAX_HINGES_PER_DOOR, noun: 'hinge positions on a door' },
+  { path: 'exhaust.run', max: MAX_EXHAUST_RUN_PIECES, noun: 'pieces in the exhaust route' },
+  { path: 'makeupAir.openings', max: MAX_MAKEUP_AIR_OPENINGS, noun: 'make-up air openings' },
+  { path: 'electrical.receptacles', max: MAX_RECEPTACLES, noun: 'receptacles' },
+] as const;
+
+export type PlanListPath = (typeof PLAN_LIST_LIMITS)[number]['path'];
+
+/** The message for a list over its limit, without the field label (the parser adds it). */
+export function listLimitMessage(path: PlanListPath, count: number): string {
+  const limit = PLAN_LIST_LIMITS.find((l) => l.path === path)!;
+  return `at most ${limit.max} ${limit.noun}; this plan has ${count.toLocaleString('en-US')}.`;
+}
+
+export function textLimitMessage(length: number): string {
+  return `at most ${MAX_MEASURE_TEXT_LENGTH} characters; this has ${length.toLocaleString('en-US')}.`;
+}
+
+/** A measure written as text, capped so a huge string never reaches the unit parser. */
+function measureText(bounded: boolean) {
+  return bounded
+    ? z.string().max(MAX_MEASURE_TEXT_LENGTH, { error: (issue) => textLimitMessage((issue.input as string).length) })
+    : z.string();
+}
+
 /**
  * One builder yields both the raw input schema (lengths as number | string, no transforms, so
  * `z.toJSONSchema` and zodResolver can use it) and the converting schemas that turn every length
  * and area into canonical inches / square inches for a given unit system.
  */
-function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
+function buildPlanSchema(length: FieldFactory, area: FieldFactory, bounded: boolean) {
   const bool = (d: string) => z.boolean().describe(d);
+  // Stored plans are read without the limits (bounded = false), so a revision saved before them still opens.
+  const list = <T extends z.ZodType>(item: T, path: PlanListPath) => {
+    const plain = z.array(item);
+    if (!bounded) return plain;
+    const max = PLAN_LIST_LIMITS.find((l) => l.path === path)!.max;
+    return plain.max(max, { error: (issue) => listLimitMessage(path, (issue.input as unknown[]).length) });
+  };
   const opt = <T extends z.ZodType>(schema: T) => schema.optional();
   const nullish = <T extends z.ZodType>(schema: T) => schema.nullish().describe(schema.description ?? '');
 
@@ -123,7 +176,7 @@ function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
           .strict()
           .describe('The flexible transition duct from the dryer outlet to the exhaust duct.'),
       ),
-      run: opt(z.array(runItem).describe('The exhaust route from the transition connection to the terminal.')),
+      run: opt(list(runItem, 'exhaust.run').describe('The exhaust route from the transition connection to the terminal.')),
       concealed: opt(bool('Part of the exhaust duct is concealed in a wall or ceiling cavity.')),
       cavityDepth: opt(length('Depth of the wall or ceiling cavity the duct runs in (e.g. 5-1/2 in for 2x6 studs).')),
       lengthLabel: opt(bool('A permanent label giving the concealed duct length is within 6 ft of the connection.')),
@@ -160,17 +213,16 @@ function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
   const makeupAir = z
     .object({
       openings: opt(
-        z
-          .array(
-            z
-              .object({
-                position: opt(z.enum(['top', 'bottom', 'side', 'other']).describe('Where the opening is.')),
-                netFreeArea: opt(area('Net free area of the opening (louvres and grilles deducted).')),
-              })
-              .strict()
-              .describe('An opening in the closet enclosure or its doors.'),
-          )
-          .describe('Openings that let air into the closet; gaps around doors do not count.'),
+        list(
+          z
+            .object({
+              position: opt(z.enum(['top', 'bottom', 'side', 'other']).describe('Where the opening is.')),
+              netFreeArea: opt(area('Net free area of the opening (louvres and grilles deducted).')),
+            })
+            .strict()
+            .describe('An opening in the closet enclosure or its doors.'),
+          'makeupAir.openings',
+        ).describe('Openings that let air into the closet; gaps around doors do not count.'),
       ),
       providedCfm: opt(z.number().nonnegative().describe('Make-up air supplied by other means, cubic feet per minute.')),
     })
@@ -203,7 +255,7 @@ function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
           .strict()
           .describe('The laundry branch circuit.'),
       ),
-      receptacles: opt(z.array(receptacle).describe('Receptacle outlets serving the appliances.')),
+      receptacles: opt(list(receptacle, 'electrical.receptacles').describe('Receptacle outlets serving the appliances.')),
     })
     .strict()
     .describe('Electrical supply.');
@@ -244,9 +296,7 @@ function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
       height: opt(length('Height of the door leaf.')),
       thickness: opt(length('Thickness of the door leaf.')),
       hinges: opt(
-        z
-          .array(length('Distance of a hinge cup centre from the bottom edge of the door.'))
-          .describe('Hinge positions, each measured from the bottom edge of the door.'),
+        list(length('Distance of a hinge cup centre from the bottom edge of the door.'), 'doors.*.hinges').describe('Hinge positions, each measured from the bottom edge of the door.'),
       ),
     })
     .strict()
@@ -299,7 +349,7 @@ function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
       electrical: opt(electrical),
       plumbing: opt(plumbing),
       gas: nullish(gas),
-      doors: opt(z.array(door).describe('The enclosure doors.')),
+      doors: opt(list(door, 'doors').describe('The enclosure doors.')),
     })
     .strict()
     .describe('An installer’s plan of a washer and dryer in a closet or cabinet enclosure.');
@@ -307,24 +357,24 @@ function buildPlanSchema(length: FieldFactory, area: FieldFactory) {
 
 const rawLength: FieldFactory = (description) =>
   z
-    .union([z.number(), z.string()])
+    .union([z.number(), measureText(true)])
     .describe(`${description} A number in the plan's units, or text with units such as 30 in, 2' 6", 762 mm.`);
 const rawArea: FieldFactory = (description) =>
   z
-    .union([z.number(), z.string()])
+    .union([z.number(), measureText(true)])
     .describe(`${description} A number in the plan's units, or text with units such as 60 sq in, 387 cm².`);
 
 /** The raw input schema: the API body, the form (zodResolver) and `GET /api/schema/plan`. */
-export const planInputSchema = buildPlanSchema(rawLength, rawArea);
+export const planInputSchema = buildPlanSchema(rawLength, rawArea, true);
 export type PlanInput = z.input<typeof planInputSchema>;
 
 /** Marks issues raised while converting units, so messages can name the field. */
 export const UNIT_ISSUE = 'nookpass-unit';
 
-function convertingLength(units: UnitSystem): FieldFactory {
+function convertingLength(units: UnitSystem, bounded: boolean): FieldFactory {
   return (description) =>
     z
-      .union([z.number(), z.string()])
+      .union([z.number(), measureText(bounded)])
       .transform((value, ctx) => {
         const parsed = parseLength(value, units, '');
         if (parsed.ok) return parsed.value;
@@ -334,10 +384,10 @@ function convertingLength(units: UnitSystem): FieldFactory {
       .describe(description);
 }
 
-function convertingArea(units: UnitSystem): FieldFactory {
+function convertingArea(units: UnitSystem, bounded: boolean): FieldFactory {
   return (description) =>
     z
-      .union([z.number(), z.string()])
+      .union([z.number(), measureText(bounded)])
       .transform((value, ctx) => {
         const parsed = parseArea(value, units, '');
         if (parsed.ok) return parsed.value;
@@ -347,10 +397,14 @@ function convertingArea(units: UnitSystem): FieldFactory {
       .describe(description);
 }
 
-function canonicalSchema(units: UnitSystem) {
-  return buildPlanSchema(convertingLength(units), convertingArea(units)).superRefine((plan, ctx) => {
+function canonicalSchema(units: UnitSystem, bounded: boolean) {
+  return buildPlanSchema(convertingLength(units, bounded), convertingArea(units, bounded), bounded).superRefine((plan, ctx) => {
     const p = plan as unknown as Plan;
+    // A list already refused for its size is not checked item by item: one error, not thousands.
+    const over = (items: unknown[] | undefined, max: number) => bounded && (items?.length ?? 0) > max;
+    if (over(p.doors, MAX_DOORS)) return;
     p.doors?.forEach((door, doorIndex) => {
+      if (over(door.hinges, MAX_HINGES_PER_DOOR)) return;
       door.hinges?.forEach((position, hingeIndex) => {
         if (door.height !== undefined && (position <= 0 || position >= door.height)) {
           ctx.addIssue({
@@ -361,6 +415,7 @@ function canonicalSchema(units: UnitSystem) {
         }
       });
     });
+    if (over(p.exhaust?.run, MAX_EXHAUST_RUN_PIECES)) return;
     p.exhaust?.run?.forEach((item, index) => {
       const isStraight = item.straight !== undefined;
       const isElbow = item.elbow !== undefined || item.fitting !== undefined;
@@ -482,12 +537,22 @@ export interface Plan {
 
 
 const canonicalSchemas: Record<UnitSystem, ReturnType<typeof canonicalSchema>> = {
-  imperial: canonicalSchema('imperial'),
-  metric: canonicalSchema('metric'),
+  imperial: canonicalSchema('imperial', true),
+  metric: canonicalSchema('metric', true),
+};
+const storedSchemas: Record<UnitSystem, ReturnType<typeof canonicalSchema>> = {
+  imperial: canonicalSchema('imperial', false),
+  metric: canonicalSchema('metric', false),
 };
 
+/** The converting schema for new input, with every size limit. */
 export function canonicalPlanSchema(units: UnitSystem) {
   return canonicalSchemas[units];
+}
+
+/** The converting schema for plans already stored: the same fields and checks, without the size limits. */
+export function storedPlanSchema(units: UnitSystem) {
+  return storedSchemas[units];
 }
 
 export { labelForPath };

@@ -21,6 +21,8 @@ export type ReportData = {
   check: { id: string; createdAt: Date; runBy: string | null; summary: EvaluationSummary; outcome: string };
   findings: Finding[];
   plan: Plan;
+  /** Why the drawings are left out: a stored plan over today's list limits is not drawn. */
+  drawingsWithheld?: string[];
   parameters: RuleSetParameters;
   photos: { caption: string; filename: string; image: Buffer; width: number; height: number }[];
   documents: { caption: string; filename: string; contentType: string }[];

@@ -6,11 +6,24 @@ function isObject(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
 
+// Above every plan list limit (lib/plan/schema.ts), so lists of a plan saved today always compare item by item.
+const MAX_COMPARED_ITEMS = 100;
+
+function entries(v: unknown): unknown {
+  return Array.isArray(v) ? `${v.length.toLocaleString('en-US')} ${v.length === 1 ? 'entry' : 'entries'}` : v;
+}
+
 function walk(prev: unknown, next: unknown, path: string, out: PlanChange[]) {
   if (isObject(prev) && isObject(next)) {
     for (const key of new Set([...Object.keys(prev), ...Object.keys(next)])) {
       walk(prev[key], next[key], path ? `${path}.${key}` : key, out);
     }
+    return;
+  }
+  // A list longer than any plan may hold (a revision stored before the plan limits) is one change, its
+  // length: compared item by item it would cost seconds and list every one of its entries.
+  if ((Array.isArray(prev) && prev.length > MAX_COMPARED_ITEMS) || (Array.isArray(next) && next.length > MAX_COMPARED_ITEMS)) {
+    out.push({ path, label: labelForPath(path), from: entries(prev), to: entries(next) });
     return;
   }
   // Lists such as the exhaust run compare item by item, so reordering shows as changed positions.

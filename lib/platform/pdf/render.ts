@@ -1,31 +1,20 @@
-import { createHash } from 'node:crypto';
 import { renderToBuffer } from '@react-pdf/renderer';
 import { createElement } from 'react';
 import { registerReportFonts, ReportDocument } from '@/lib/platform/pdf/report-document';
+import { countPdfPages, sha256Hex } from '@/lib/platform/pdf/report-code';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 
-export function sha256Hex(bytes: Uint8Array): string {
-  return createHash('sha256').update(bytes).digest('hex');
-}
+// The code helpers live apart so request handlers use them without loading the PDF renderer.
+export { countPdfPages, newReportCode, sha256Hex } from '@/lib/platform/pdf/report-code';
 
-/** Pages in the PDF: the page tree root's /Count, the largest /Count in the file. */
-export function countPdfPages(pdf: Buffer): number {
-  const counts = [...pdf.toString('latin1').matchAll(/\/Count\s+(\d+)/g)].map((m) => Number(m[1]));
-  return counts.length ? Math.max(...counts) : 0;
-}
+export type RenderedReport = { pdf: Buffer; sha256: string; pageCount: number };
 
-export async function renderReportPdf(data: ReportData): Promise<{ pdf: Buffer; sha256: string; pageCount: number }> {
+/**
+ * Renders the report on the calling thread. CPU-bound for seconds on a large plan: request handlers
+ * go through renderReportOffThread (render-pool.ts), which runs this in a worker thread.
+ */
+export async function renderReportPdf(data: ReportData): Promise<RenderedReport> {
   registerReportFonts();
   const pdf = Buffer.from(await renderToBuffer(createElement(ReportDocument, { data }) as Parameters<typeof renderToBuffer>[0]));
   return { pdf, sha256: sha256Hex(pdf), pageCount: countPdfPages(pdf) };
-}
-
-const ALPHABET = '23456789ABCDEFGHJKLMNPQRSTUVWXYZ'; // no 0/O, 1/I: codes are read aloud and typed
-
-/** A report code like NP-7K3Q-M9TD: 40 random bits, easy to read over the phone. */
-export function newReportCode(random: (n: number) => Buffer): string {
-  const bytes = random(8);
-  let out = '';
-  for (let i = 0; i < 8; i++) out += ALPHABET[bytes[i] % 32];
-  return `NP-${out.slice(0, 4)}-${out.slice(4)}`;
 }

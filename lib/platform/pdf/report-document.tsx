@@ -1,10 +1,10 @@
 import path from 'node:path';
 import { Document, Font, Image, Page, Path, Rect, StyleSheet, Svg, Text, View } from '@react-pdf/renderer';
-import { areaTitles as areaTitle, citationText, findingStatusLabels } from '@/lib/domain/vocabulary';
-import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/domain/drawing';
+import { drawPlan, type PlanDrawings } from '@/lib/domain/drawing';
 import type { Finding } from '@/lib/domain/engine';
 import { PdfDrawing } from '@/lib/platform/pdf/pdf-drawing';
 import type { ReportData } from '@/lib/domain/reports/report-data';
+import { areaTitles as areaTitle, citationText, findingStatusLabels } from '@/lib/domain/vocabulary';
 
 // Full (not subset) font files: the PDF font engine needs complete glyph tables.
 const fontDir = path.join(process.cwd(), 'public', 'fonts', 'pdf');
@@ -102,16 +102,70 @@ function Footer({ code }: { code: string }) {
 const SAFETY =
   'This report records a check of the installer’s plan against the rules the jurisdiction’s administrator recorded in NookPass. The locally adopted code, the authority having jurisdiction (AHJ) and licensed trades govern; the appliance makers’ installation instructions apply alongside the code. Lint in a dryer exhaust can catch fire; a gas dryer can produce carbon monoxide; receptacles and dryer circuits carry shock risk; a leaking washer can damage the structure. Gas and electrical work belong to licensed trades, and only the inspection approves the work.';
 
+/** The drawing and hinge-layout pages, from geometry already checked against the drawing budget. */
+function DrawingPages({ drawings, code }: { drawings: PlanDrawings; code: string }) {
+  const { elevation, planView: topView, exhaust: schematic, hinges } = drawings;
+  return (
+    <>
+      <Page size="LETTER" style={s.page}>
+        <Text style={s.h2}>Closet drawings</Text>
+        <Text style={s.faint}>{elevation.caution}</Text>
+        <View style={{ flexDirection: 'row', gap: 12, marginTop: 8 }}>
+          <View style={{ width: '50%' }}>
+            <Text style={s.h3}>{elevation.title}</Text>
+            <PdfDrawing drawing={elevation} maxWidthPt={250} maxHeightPt={250} />
+            {elevation.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {elevation.missing.join(', ')}</Text>}
+          </View>
+          <View style={{ width: '50%' }}>
+            <Text style={s.h3}>{topView.title}</Text>
+            <PdfDrawing drawing={topView} maxWidthPt={250} maxHeightPt={250} />
+            {topView.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {topView.missing.join(', ')}</Text>}
+          </View>
+        </View>
+        <Text style={s.h3}>{schematic.title}</Text>
+        <PdfDrawing drawing={schematic} maxWidthPt={528} maxHeightPt={230} />
+        {schematic.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
+        <Footer code={code} />
+      </Page>
+
+      <Page size="LETTER" style={s.page}>
+        <Text style={s.h2}>Hinge layout</Text>
+        {hinges.length === 0 ? (
+          <Text style={s.muted}>The plan has no hinged enclosure doors, so there is no hinge layout.</Text>
+        ) : (
+          hinges.map((h) => (
+            <View key={h.doorIndex} wrap={false} style={{ marginBottom: 10 }}>
+              <Text style={s.h3}>Door {h.doorIndex + 1} — hinges on the {h.hingeSide} edge</Text>
+              <View style={{ flexDirection: 'row', gap: 12 }}>
+                <PdfDrawing drawing={h.overview} maxWidthPt={220} maxHeightPt={260} />
+                <View style={{ flex: 1 }}>
+                  {h.positions.map((p) => (
+                    <Text key={p.number}>
+                      Hinge {p.number}: cup centre {p.fromDoorTopIn == null ? '—' : `${p.fromDoorTopIn.toFixed(2)} in`} from the door top; plate{' '}
+                      {p.plateFromOpeningTopIn == null ? '—' : `${p.plateFromOpeningTopIn.toFixed(2)} in`} below the opening top, {h.plateSetbackIn.toFixed(2)} in from the front edge
+                    </Text>
+                  ))}
+                  {h.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
+                  {h.missing.length > 0 && <Text style={s.faint}>Missing: {h.missing.join(', ')}</Text>}
+                </View>
+              </View>
+            </View>
+          ))
+        )}
+        <Text style={s.faint}>Full-size drilling templates print from the project’s Drawing page in NookPass.</Text>
+        <Footer code={code} />
+      </Page>
+    </>
+  );
+}
+
 export function ReportDocument({ data }: { data: ReportData }) {
   const order = Object.keys(areaTitle);
   const byArea = order
     .map((area) => ({ area, items: data.findings.filter((f) => f.area === area) }))
     .filter((g) => g.items.length > 0);
-  const options = { params: data.parameters, marks: data.findings };
-  const elevation = frontElevation(data.plan, options);
-  const topView = planView(data.plan, options);
-  const schematic = exhaustSchematic(data.plan, options);
-  const hinges = hingeLayouts(data.plan, options);
+  const withheld = data.drawingsWithheld ?? [];
+  const drawn = withheld.length > 0 ? ({ ok: false, reasons: withheld } as const) : drawPlan(data.plan, { params: data.parameters, marks: data.findings });
   const e = data.jurisdiction.editions;
   const sum = data.check.summary;
 
@@ -207,54 +261,21 @@ export function ReportDocument({ data }: { data: ReportData }) {
         <Footer code={data.code} />
       </Page>
 
-      <Page size="LETTER" style={s.page}>
-        <Text style={s.h2}>Closet drawings</Text>
-        <Text style={s.faint}>{elevation.caution}</Text>
-        <View style={{ flexDirection: 'row', gap: 12, marginTop: 8 }}>
-          <View style={{ width: '50%' }}>
-            <Text style={s.h3}>{elevation.title}</Text>
-            <PdfDrawing drawing={elevation} maxWidthPt={250} maxHeightPt={250} />
-            {elevation.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {elevation.missing.join(', ')}</Text>}
+      {drawn.ok ? (
+        <DrawingPages drawings={drawn.drawings} code={data.code} />
+      ) : (
+        <Page size="LETTER" style={s.page}>
+          <Text style={s.h2}>Closet drawings</Text>
+          <View style={s.caution}>
+            <Text style={{ fontWeight: 700 }}>Plan revision {data.planRevision.number} is too large to draw, so this report has no drawings or hinge layout.</Text>
+            {drawn.reasons.map((r, i) => <Text key={i}>{r}</Text>)}
           </View>
-          <View style={{ width: '50%' }}>
-            <Text style={s.h3}>{topView.title}</Text>
-            <PdfDrawing drawing={topView} maxWidthPt={250} maxHeightPt={250} />
-            {topView.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {topView.missing.join(', ')}</Text>}
-          </View>
-        </View>
-        <Text style={s.h3}>{schematic.title}</Text>
-        <PdfDrawing drawing={schematic} maxWidthPt={528} maxHeightPt={230} />
-        {schematic.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
-        <Footer code={data.code} />
-      </Page>
-
-      <Page size="LETTER" style={s.page}>
-        <Text style={s.h2}>Hinge layout</Text>
-        {hinges.length === 0 ? (
-          <Text style={s.muted}>The plan has no hinged enclosure doors, so there is no hinge layout.</Text>
-        ) : (
-          hinges.map((h) => (
-            <View key={h.doorIndex} wrap={false} style={{ marginBottom: 10 }}>
-              <Text style={s.h3}>Door {h.doorIndex + 1} — hinges on the {h.hingeSide} edge</Text>
-              <View style={{ flexDirection: 'row', gap: 12 }}>
-                <PdfDrawing drawing={h.overview} maxWidthPt={220} maxHeightPt={260} />
-                <View style={{ flex: 1 }}>
-                  {h.positions.map((p) => (
-                    <Text key={p.number}>
-                      Hinge {p.number}: cup centre {p.fromDoorTopIn == null ? '—' : `${p.fromDoorTopIn.toFixed(2)} in`} from the door top; plate{' '}
-                      {p.plateFromOpeningTopIn == null ? '—' : `${p.plateFromOpeningTopIn.toFixed(2)} in`} below the opening top, {h.plateSetbackIn.toFixed(2)} in from the front edge
-                    </Text>
-                  ))}
-                  {h.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
-                  {h.missing.length > 0 && <Text style={s.faint}>Missing: {h.missing.join(', ')}</Text>}
-                </View>
-              </View>
-            </View>
-          ))
-        )}
-        <Text style={s.faint}>Full-size drilling templates print from the project’s Drawing page in NookPass.</Text>
-        <Footer code={data.code} />
-      </Page>
+          <Text style={{ marginTop: 8 }}>
+            The findings above are those of the stored check. Correct the plan in NookPass and save it as a new revision to get its drawings; this revision stays as it was saved.
+          </Text>
+          <Footer code={data.code} />
+        </Page>
+      )}
 
       {data.photos.length > 0 && (
         <Page size="LETTER" style={s.page} wrap>

@@ -8,10 +8,11 @@ import { insertReport, type IssuedReport } from '@/db/reports';
 import { getRuleSetById } from '@/db/rule-sets';
 import type { AppUser } from '@/lib/domain/roles';
 import { NotFoundError } from '@/lib/domain/errors';
-import { parsePlan } from '@/lib/domain/plan';
+import { parseStoredPlan } from '@/lib/domain/plan';
 import { getObject, putObject } from '@/lib/platform/storage';
 import type { ReportData } from '@/lib/domain/reports/report-data';
-import { newReportCode, renderReportPdf } from '@/lib/platform/pdf/render';
+import { newReportCode } from '@/lib/platform/pdf/report-code';
+import { renderReportOffThread } from '@/lib/platform/pdf/render-pool';
 
 export function publicBaseUrl(): string {
   return (process.env.NOOKPASS_PUBLIC_URL ?? process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000').replace(/\/$/, '');
@@ -31,7 +32,8 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     listAttachments(db, project.id),
   ]);
   if (!ruleSet) throw new NotFoundError('The rule set of this check is missing.');
-  const parsed = parsePlan(check.inputs.plan);
+  // Read as stored: a plan saved before today's list limits still gets its report, without drawings.
+  const parsed = parseStoredPlan(check.inputs.plan);
   if (!parsed.ok) throw new NotFoundError('The plan stored with this check no longer parses.');
   const photos: ReportData['photos'] = [];
   for (const a of attachments.filter((x) => x.kind === 'photo')) {
@@ -62,6 +64,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     check: { id: check.id, createdAt: check.createdAt, runBy: check.createdBy.name, summary: check.summary, outcome: check.outcome },
     findings: check.findings,
     plan: parsed.plan,
+    drawingsWithheld: parsed.oversize.map((o) => o.message),
     parameters: ruleSet.parameters,
     photos,
     documents: attachments.filter((x) => x.kind === 'document').map((d) => ({ caption: d.caption, filename: d.filename, contentType: d.contentType })),
@@ -78,7 +81,7 @@ export async function issueReport(db: DB, user: AppUser, checkId: string): Promi
   const code = newReportCode(randomBytes);
   const { data, attachmentIds } = await gather(db, user, check, project, code);
   const started = performance.now();
-  const { pdf, sha256, pageCount } = await renderReportPdf(data);
+  const { pdf, sha256, pageCount } = await renderReportOffThread(data);
   const renderMs = performance.now() - started;
   const storageKey = `reports/${project.id}/${code}.pdf`;
   // Stored before it is recorded: a recorded report always has its file.

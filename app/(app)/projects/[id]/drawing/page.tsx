@@ -13,12 +13,15 @@ import { PrintButton } from '@/components/drawings/print-button';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import { exhaustSchematic, frontElevation, hingeLayouts, planView } from '@/lib/domain/drawing';
+import { drawPlan } from '@/lib/domain/drawing';
 import { defaultParameters, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
-import { parsePlan } from '@/lib/domain/plan';
+import { parseStoredPlan } from '@/lib/domain/plan';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
 
 export const metadata: Metadata = { title: 'Drawing' };
+
+// A broken stored plan may have an error per list item; the page lists the first few.
+const ERRORS_SHOWN = 20;
 
 // The full-size templates are 7 × 9-1/2 in; these margins leave room on Letter and A4 alike.
 const PRINT_CSS = '@media print { @page { margin: 0.4in; } }';
@@ -60,21 +63,27 @@ export default async function DrawingPage({ params, searchParams }: { params: Pr
     );
   }
 
-  const parsed = parsePlan(revision.plan);
-  if (!parsed.ok) {
-    return (
-      <>
-        <ProjectHeader project={project} current="/drawing" />
-        <div role="alert" className="card border-status-fail/40 p-5">
-          <h2 className="font-bold">Revision {revision.number} cannot be drawn as saved</h2>
-          <ul className="mt-2 list-disc pl-5 text-sm">
-            {parsed.errors.map((e) => <li key={e.path + e.message}>{e.message}</li>)}
-          </ul>
-          <Link href={`/projects/${project.id}/plan?revision=${revision.number}`} className="btn-secondary mt-3">Open it in the plan editor</Link>
-        </div>
-      </>
-    );
+  const parsed = parseStoredPlan(revision.plan);
+  const refusal = (title: string, reasons: string[], why: string) => (
+    <>
+      <ProjectHeader project={project} current="/drawing" />
+      <div role="alert" className="card border-status-fail/40 p-5" data-testid="drawing-refused">
+        <h2 className="font-bold">{title}</h2>
+        <ul className="mt-2 list-disc pl-5 text-sm">
+          {reasons.slice(0, ERRORS_SHOWN).map((message, i) => <li key={i}>{message}</li>)}
+          {reasons.length > ERRORS_SHOWN && <li>and {(reasons.length - ERRORS_SHOWN).toLocaleString('en-US')} more</li>}
+        </ul>
+        <p className="mt-2 text-sm text-ink-soft">{why}</p>
+        <Link href={`/projects/${project.id}/plan?revision=${revision.number}`} className="btn-secondary mt-3">Open it in the plan editor</Link>
+      </div>
+    </>
+  );
+  const fixIt = `Revision ${revision.number} stays as it was saved; correct the plan in the editor and save it as a new revision to draw it.`;
+  // Too large first: a revision saved before the plan limits is refused by its size, before anything is drawn.
+  if (parsed.oversize.length > 0) {
+    return refusal(`Revision ${revision.number} is too large to draw`, parsed.oversize.map((o) => o.message), fixIt);
   }
+  if (!parsed.ok) return refusal(`Revision ${revision.number} cannot be drawn as saved`, parsed.errors.map((e) => e.message), fixIt);
   const plan = parsed.plan;
 
   // Failures are marked only from a check of this very revision; the newest one wins (listChecks is newest first).
@@ -85,10 +94,9 @@ export default async function DrawingPage({ params, searchParams }: { params: Pr
   ]);
   const options = { params: parameters, marks: check?.findings ?? [] };
 
-  const elevation = frontElevation(plan, options);
-  const planDrawing = planView(plan, options);
-  const exhaust = exhaustSchematic(plan, options);
-  const hinges = hingeLayouts(plan, options);
+  const drawn = drawPlan(plan, options);
+  if (!drawn.ok) return refusal(`Revision ${revision.number} is too large to draw`, drawn.reasons, fixIt);
+  const { elevation, planView: planDrawing, exhaust, hinges } = drawn.drawings;
   const latestNumber = project.latestRevision;
   const viewingOld = latestNumber !== null && revision.number !== latestNumber;
 

@@ -8,7 +8,7 @@ import { PlanEditor } from '@/components/plan-editor/plan-editor';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { defaultParameters } from '@/lib/domain/params';
-import type { PlanInput } from '@/lib/domain/plan';
+import { findOversizeLists, truncateToLimits, type PlanInput } from '@/lib/domain/plan';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
 import { getRuleSetById } from '@/db/rule-sets';
 
@@ -37,6 +37,9 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
       fuelGas: jurisdictionRow.fuel_gas_edition,
     });
   const viewingOld = revision && latest && revision.number !== latest.number;
+  // A revision saved before the list limits opens cut to them, so the editor stays usable; the stored row is untouched.
+  const oversize = revision ? findOversizeLists(revision.plan) : [];
+  const initialPlan = revision ? (truncateToLimits(revision.plan) as PlanInput) : null;
 
   return (
     <>
@@ -47,12 +50,22 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
           <Link href={`/projects/${id}/plan`} className="underline">Open the latest instead</Link>
         </p>
       )}
+      {oversize.length > 0 && (
+        <div role="alert" className="mb-4 rounded-md border border-status-fail/50 bg-white px-4 py-3 text-sm" data-testid="plan-oversize">
+          <p className="font-semibold">Revision {revision!.number} holds more than a plan may have today, so the editor shows only the first entries of these lists:</p>
+          <ul className="mt-1 list-disc pl-5">
+            {oversize.map((o) => <li key={o.path}>{o.message}</li>)}
+          </ul>
+          <p className="mt-1">Saving makes a new revision with what the editor shows; revision {revision!.number} stays as it was saved.</p>
+        </div>
+      )}
       {user.role !== 'installer' && <p className="mb-4 text-sm text-ink-soft">Admins can read plans; only the company’s installers save them.</p>}
       <div className="mb-5"><SafetyNotice compact /></div>
       <PlanEditor
         key={revParam ? `revision-${revParam}` : 'latest'}
         projectId={project.id}
-        initialPlan={(revision?.plan as PlanInput) ?? null}
+        initialPlan={initialPlan}
+        saveBeforeCheck={oversize.length > 0}
         baseRevision={latest?.number ?? null}
         params={parameters}
       />
