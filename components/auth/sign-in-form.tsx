@@ -3,11 +3,7 @@
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-
-function safeCallback(url: string | undefined): string {
-  // Only our own paths: an open redirect after sign-in would help a phishing page.
-  return url && url.startsWith('/') && !url.startsWith('//') ? url : '/home';
-}
+import { safeCallbackPath } from '@/lib/auth/callback-url';
 
 export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
   const router = useRouter();
@@ -26,7 +22,8 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
         redirect: false,
       });
       if (res?.ok && !res.error) {
-        router.replace(safeCallback(callbackUrl));
+        // Checked again here: the page passes it on, but an open redirect after sign-in would help a phishing page.
+        router.replace(safeCallbackPath(callbackUrl));
         router.refresh();
         return;
       }

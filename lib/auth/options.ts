@@ -4,6 +4,7 @@ import CredentialsProvider from 'next-auth/providers/credentials';
 import { getDb } from '@/db';
 import { clearFailedSignIns, lockRemainingMs, recordFailedSignIn } from '@/db/sign-in-throttle';
 import { findUserForSignIn, normalizeEmail } from '@/db/users';
+import { safeCallbackPath } from './callback-url';
 import { DUMMY_HASH, verifyPassword } from './password';
 
 export const THROTTLED_ERROR = 'throttled';
@@ -37,6 +38,11 @@ export const authOptions: NextAuthOptions = {
     }),
   ],
   callbacks: {
+    // next-auth's default passes any string that starts with a slash, backslash tricks included.
+    redirect({ url, baseUrl }) {
+      const origin = new URL(baseUrl).origin;
+      return origin + safeCallbackPath(url, { origin });
+    },
     async jwt({ token, user }) {
       if (user) {
         token.uid = user.id;

@@ -6,6 +6,7 @@ import { userForTokenHash } from '@/db/api-tokens';
 import { findUserById } from '@/db/users';
 import { ForbiddenError, UnauthorizedError } from '@/lib/errors';
 import { bearerToken, hashApiToken, looksLikeApiToken } from './api-token';
+import { safeCallbackPath } from './callback-url';
 import { authOptions } from './options';
 import { hasRole, type AppUser, type Role } from './roles';
 
@@ -67,8 +68,9 @@ export async function requireUser(request: Request, allowed?: readonly Role[]): 
 export async function requirePageUser(allowed: readonly Role[] | undefined, path: string): Promise<AppUser> {
   const session = await getServerSession(authOptions);
   const user = session?.user?.id ? await findUserById(getDb(), session.user.id) : null;
-  if (!user) redirect(`/sign-in?callbackUrl=${encodeURIComponent(path)}`);
-  if (allowed && !hasRole(user, allowed)) redirect(`/forbidden?from=${encodeURIComponent(path)}`);
+  const back = encodeURIComponent(safeCallbackPath(path));
+  if (!user) redirect(`/sign-in?callbackUrl=${back}`);
+  if (allowed && !hasRole(user, allowed)) redirect(`/forbidden?from=${back}`);
   return user;
 }
 

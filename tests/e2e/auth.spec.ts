@@ -43,6 +43,18 @@ test('an anonymous visit to /projects lands on sign-in and returns after it', as
   await expect(page).toHaveURL(/\/projects$/);
 });
 
+// WHATWG URL standard: a backslash is a slash in http(s) URLs and tab is dropped, so both name another host.
+for (const callbackUrl of ['%2F%5C127.0.0.1%3A8081%2Fpwned', '%2F%09%2F127.0.0.1%3A8081%2Fpwned']) {
+  test(`sign-in with callbackUrl ${callbackUrl} stays on our origin`, async ({ page, baseURL }) => {
+    await page.goto(`/sign-in?callbackUrl=${callbackUrl}`);
+    await page.getByLabel('E-mail').fill('installer@nookpass.demo');
+    await page.getByLabel('Password').fill(process.env.NOOKPASS_DEMO_PASSWORD || 'demo-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect(page).toHaveURL(/\/projects$/);
+    expect(new URL(page.url()).origin).toBe(new URL(baseURL!).origin);
+  });
+}
+
 test('an installer cannot open admin pages', async ({ page }) => {
   await signInAs(page, 'installer@nookpass.demo');
   await page.goto('/users');
