@@ -18,7 +18,7 @@ const csp = [
 const nextConfig = {
   poweredByHeader: false,
   reactStrictMode: true,
-  serverExternalPackages: ['pg', 'bcryptjs', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],
+  serverExternalPackages: ['pg', 'bcrypt', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser'],
   async headers() {
     return [
       {

@@ -57,13 +57,6 @@ export interface ApiTokensTable {
   revoked_at: Timestamp | null;
 }
 
-export interface SignInThrottleTable {
-  email: string;
-  failures: Generated<number>;
-  window_started_at: Timestamp;
-  locked_until: Timestamp | null;
-}
-
 export interface AuditLogTable {
   id: Generated<number>;
   at: CreatedAt;
@@ -217,7 +210,6 @@ export interface Database {
   jurisdictions: JurisdictionsTable;
   users: UsersTable;
   api_tokens: ApiTokensTable;
-  sign_in_throttle: SignInThrottleTable;
   audit_log: AuditLogTable;
   rule_sets: RuleSetsTable;
   rules: RulesTable;

@@ -4,6 +4,7 @@ import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { safeCallbackPath } from '@/lib/auth/callback-url';
+import { signInErrorMessage } from '@/lib/auth/sign-in-messages';
 
 export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
   const router = useRouter();
@@ -27,11 +28,7 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
         router.refresh();
         return;
       }
-      setError(
-        res?.error === 'throttled'
-          ? 'Too many failed sign-ins for this e-mail. Wait 15 minutes, then try again.'
-          : 'That e-mail and password do not match an account.',
-      );
+      setError(signInErrorMessage(res?.error));
     } catch {
       setError('NookPass could not be reached. Check your connection and try again.');
     }

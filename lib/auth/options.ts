@@ -2,12 +2,13 @@ import 'server-only';
 import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { getDb } from '@/db';
-import { clearFailedSignIns, lockRemainingMs, recordFailedSignIn } from '@/db/sign-in-throttle';
-import { findUserForSignIn, normalizeEmail } from '@/db/users';
+import { normalizeEmail } from '@/db/users';
+import { clientAddress } from '@/lib/platform/rate-limit';
 import { safeCallbackPath } from './callback-url';
-import { DUMMY_HASH, verifyPassword } from './password';
+import { PasswordCheckBusyError } from './password';
+import { checkCredentials, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from './sign-in';
+import { SIGN_IN_BUSY } from './sign-in-messages';
 
-export const THROTTLED_ERROR = 'throttled';
 const SESSION_HOURS = 12;
 
 export const authOptions: NextAuthOptions = {
@@ -18,22 +19,21 @@ export const authOptions: NextAuthOptions = {
     CredentialsProvider({
       name: 'E-mail and password',
       credentials: { email: { label: 'E-mail', type: 'email' }, password: { label: 'Password', type: 'password' } },
-      async authorize(credentials) {
+      // The route in front of next-auth has already counted this attempt (refuseThrottledSignIn).
+      async authorize(credentials, req) {
         const email = normalizeEmail(String(credentials?.email ?? ''));
         const password = String(credentials?.password ?? '');
-        if (!email || !password || email.length > 320 || password.length > 1024) return null;
-        const db = getDb();
-        if ((await lockRemainingMs(db, email)) > 0) throw new Error(THROTTLED_ERROR);
-        const found = await findUserForSignIn(db, email);
-        // Unknown e-mail and wrong password take the same path and time, and get the same answer.
-        const ok = await verifyPassword(password, found?.passwordHash ?? DUMMY_HASH);
-        if (!found || !ok) {
-          await recordFailedSignIn(db, email);
-          return null;
+        if (!email || !password || email.length > MAX_EMAIL_LENGTH || password.length > MAX_PASSWORD_LENGTH) return null;
+        let user;
+        try {
+          user = await checkCredentials(getDb(), email, password);
+        } catch (err) {
+          if (err instanceof PasswordCheckBusyError) throw new Error(SIGN_IN_BUSY);
+          throw err;
         }
-        await clearFailedSignIns(db, email);
-        const u = found.user;
-        return { id: u.id, email: u.email, name: u.name, role: u.role, organizationId: u.organizationId, jurisdictionId: u.jurisdictionId };
+        if (!user) return null;
+        await signInSucceeded(email, clientAddress({ headers: new Headers(req.headers as Record<string, string>) }));
+        return { id: user.id, email: user.email, name: user.name, role: user.role, organizationId: user.organizationId, jurisdictionId: user.jurisdictionId };
       },
     }),
   ],

@@ -49,6 +49,8 @@ export type SignInAttempt = {
   /** Cookie header with the session cookie when the sign-in succeeded. */
   cookie: string | null;
   retryAfter: string | null;
+  /** The `error` text of a refusal that carries one (a throttled sign-in). */
+  message: string | null;
   ms: number;
 };
 
@@ -84,8 +86,11 @@ export async function attemptSignIn(email: string, password: string, opts: { add
   const ms = performance.now() - started;
   keep(res);
   let url: string | null = null;
+  let message: string | null = null;
   try {
-    url = (JSON.parse(text) as { url?: string }).url ?? null;
+    const parsed = JSON.parse(text) as { url?: string; error?: string };
+    url = parsed.url ?? null;
+    message = parsed.error ?? null;
   } catch {
     url = res.headers.get('location');
   }
@@ -97,6 +102,7 @@ export async function attemptSignIn(email: string, password: string, opts: { add
     url,
     cookie: signedIn ? cookie() : null,
     retryAfter: res.headers.get('retry-after'),
+    message,
     ms,
   };
 }

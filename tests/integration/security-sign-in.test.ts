@@ -1,5 +1,9 @@
+import { randomBytes } from 'node:crypto';
+import bcrypt from 'bcryptjs';
 import { afterAll, describe, expect, it } from 'vitest';
-import { api, appDb, attemptSignIn, baseUrl, testAddress } from './helpers';
+import { PASSWORD_COST, hashCost } from '@/lib/auth/password';
+import { THROTTLED_MESSAGE } from '@/lib/auth/sign-in-messages';
+import { api, appDb, attemptSignIn, baseUrl, demoPassword, testAddress } from './helpers';
 
 const db = appDb();
 afterAll(async () => {
@@ -14,13 +18,13 @@ describe('redirects after sign-in and sign-out stay on our origin', () => {
   const hostile = ['/\\127.0.0.1:8081/pwned', '/\t/127.0.0.1:8081/pwned', '//127.0.0.1:8081/pwned', 'http://127.0.0.1:8081/pwned', '/%5C127.0.0.1:8081/pwned'];
 
   it.each(hostile)('sign-in with callbackUrl %j answers with our home page', async (callbackUrl) => {
-    const res = await attemptSignIn('installer2@nookpass.demo', process.env.NOOKPASS_DEMO_PASSWORD || 'demo-password', { address: testAddress(), callbackUrl });
+    const res = await attemptSignIn('installer2@nookpass.demo', demoPassword, { address: testAddress(), callbackUrl });
     expect(res.cookie).not.toBeNull();
     expect(res.url).toBe(`${origin}/home`);
   });
 
   it('keeps a same-origin callback path', async () => {
-    const res = await attemptSignIn('installer2@nookpass.demo', process.env.NOOKPASS_DEMO_PASSWORD || 'demo-password', { address: testAddress(), callbackUrl: '/projects?q=Example' });
+    const res = await attemptSignIn('installer2@nookpass.demo', demoPassword, { address: testAddress(), callbackUrl: '/projects?q=Example' });
     expect(res.url).toBe(`${origin}/projects?q=Example`);
   });
 
@@ -45,5 +49,126 @@ describe('redirects after sign-in and sign-out stay on our origin', () => {
     expect(/evil\.example\/pwned<\/code>/.test(String(forbidden.body))).toBe(false);
     const named = await api('/forbidden?from=%2Fusers');
     expect(/<code class="font-mono">\/users<\/code>/.test(String(named.body))).toBe(true);
+  });
+});
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+};
+
+async function freshUser(prefix: string, password: string, cost: number): Promise<string> {
+  const email = `${prefix}-${randomBytes(4).toString('hex')}@example.test`;
+  const org = await db.selectFrom('organizations').select('id').where('name', '=', 'Demo Closet Works').executeTakeFirstOrThrow();
+  await db
+    .insertInto('users')
+    .values({ email, name: 'Sign-in Test', role: 'installer', organization_id: org.id, password_hash: bcrypt.hashSync(password, cost) })
+    .execute();
+  return email;
+}
+
+const unknownEmail = () => `nobody-${randomBytes(5).toString('hex')}@example.test`;
+
+describe('a wrong password and an unknown e-mail cannot be told apart by time', () => {
+  it('stores demo accounts at the cost the unknown-e-mail comparison uses', async () => {
+    const row = await db.selectFrom('users').select('password_hash').where('email', '=', 'installer2@nookpass.demo').executeTakeFirstOrThrow();
+    expect(hashCost(row.password_hash)).toBe(PASSWORD_COST);
+  });
+
+  it('answers both in the same median time (7 of each, interleaved)', { timeout: 60_000 }, async () => {
+    const known: number[] = [];
+    const unknown: number[] = [];
+    // Each attempt from its own address, so no counter refuses one early (a refusal would be fast).
+    for (let i = 0; i < 7; i++) {
+      const k = await attemptSignIn('installer2@nookpass.demo', 'not-the-password', { address: testAddress() });
+      const u = await attemptSignIn(unknownEmail(), 'not-the-password', { address: testAddress() });
+      expect([k.error, u.error]).toEqual(['CredentialsSignin', 'CredentialsSignin']);
+      known.push(k.ms);
+      unknown.push(u.ms);
+    }
+    const [a, b] = [median(known), median(unknown)];
+    // Tolerance: a quarter of the slower median, at least 40 ms (common practice, no published source);
+    // bcrypt at cost 10 against 12 differs fourfold (2^(12-10) rounds, the bcrypt paper's cost definition).
+    expect(Math.abs(a - b), `median wrong password ${a.toFixed(0)} ms, unknown e-mail ${b.toFixed(0)} ms`).toBeLessThanOrEqual(Math.max(40, 0.25 * Math.max(a, b)));
+  });
+
+  it('redoes a hash made at a lower cost on the next successful sign-in', async () => {
+    const email = await freshUser('rehash', 'old-cheap-hash-pw', 4);
+    expect((await attemptSignIn(email, 'old-cheap-hash-pw', { address: testAddress() })).cookie).not.toBeNull();
+    const row = await db.selectFrom('users').select('password_hash').where('email', '=', email).executeTakeFirstOrThrow();
+    expect(hashCost(row.password_hash)).toBe(PASSWORD_COST);
+    expect(await bcrypt.compare('old-cheap-hash-pw', row.password_hash)).toBe(true);
+    expect((await attemptSignIn(email, 'old-cheap-hash-pw', { address: testAddress() })).cookie).not.toBeNull();
+  });
+});
+
+describe('a flood of sign-ins', () => {
+  it('leaves other requests answering: /api/ping median stays low while 10 sign-ins run in parallel', { timeout: 60_000 }, async () => {
+    const ping = async () => {
+      const t = performance.now();
+      await (await fetch(`${baseUrl}/api/ping`)).arrayBuffer();
+      return performance.now() - t;
+    };
+    const idle: number[] = [];
+    for (let i = 0; i < 15; i++) idle.push(await ping());
+    let running = true;
+    const flood = Promise.all(Array.from({ length: 10 }, () => attemptSignIn(unknownEmail(), 'whatever-password', { address: testAddress() }))).finally(() => {
+      running = false;
+    });
+    const during: number[] = [];
+    while (running && during.length < 200) during.push(await ping());
+    const results = await flood;
+    expect(results.every((r) => r.error === 'CredentialsSignin')).toBe(true);
+    expect(during.length).toBeGreaterThanOrEqual(3);
+    // Budget: 100 ms or five times the idle median, whichever is more (common practice, no published source).
+    expect(median(during), `idle ${median(idle).toFixed(1)} ms, during ${median(during).toFixed(1)} ms over ${during.length} pings`).toBeLessThanOrEqual(Math.max(100, 5 * median(idle)));
+  });
+});
+
+describe('sign-in throttling', () => {
+  it('slows one address trying many e-mails: the eleventh within a minute is refused with Retry-After', { timeout: 60_000 }, async () => {
+    const address = testAddress();
+    const answers = [];
+    for (let i = 0; i < 25; i++) answers.push(await attemptSignIn(unknownEmail(), 'whatever-password', { address }));
+    expect(answers.slice(0, 10).map((a) => a.error)).toEqual(Array(10).fill('CredentialsSignin'));
+    for (const a of answers.slice(10)) {
+      // RFC 6585 section 4: 429 Too Many Requests, with Retry-After (RFC 9110 section 10.2.3) in seconds.
+      expect(a.status).toBe(429);
+      expect(a.error).toBe('throttled');
+      expect(Number(a.retryAfter)).toBeGreaterThan(0);
+      expect(Number(a.retryAfter)).toBeLessThanOrEqual(60);
+    }
+    // Another address is not slowed by it.
+    expect((await attemptSignIn(unknownEmail(), 'whatever-password', { address: testAddress() })).error).toBe('CredentialsSignin');
+  });
+
+  it('counts parallel guesses exactly: of 10 at once for one e-mail, 5 are checked and 5 refused', { timeout: 60_000 }, async () => {
+    const email = await freshUser('parallel-guess', 'the-right-password', 4);
+    const address = testAddress();
+    const answers = await Promise.all(Array.from({ length: 10 }, () => attemptSignIn(email, 'a-wrong-password', { address })));
+    expect(answers.filter((a) => a.error === 'CredentialsSignin')).toHaveLength(5);
+    expect(answers.filter((a) => a.status === 429 && a.error === 'throttled')).toHaveLength(5);
+  });
+
+  it('cannot be used to lock a person out: failures from one address leave the owner elsewhere signing in', { timeout: 60_000 }, async () => {
+    const email = await freshUser('lockout', 'owners-password-1', 4);
+    const attacker = testAddress();
+    for (let i = 0; i < 5; i++) expect((await attemptSignIn(email, `guess-${i}-password`, { address: attacker })).error).toBe('CredentialsSignin');
+    const refused = await attemptSignIn(email, 'owners-password-1', { address: attacker });
+    expect(refused.status).toBe(429);
+    const owner = await attemptSignIn(email, 'owners-password-1', { address: testAddress() });
+    expect(owner.cookie).not.toBeNull();
+  });
+
+  it('tells the throttled person the same thing the sign-in form says', async () => {
+    const address = testAddress();
+    const email = unknownEmail();
+    for (let i = 0; i < 5; i++) await attemptSignIn(email, 'whatever-password', { address });
+    const refused = await attemptSignIn(email, 'whatever-password', { address });
+    expect(refused.status).toBe(429);
+    expect(refused.url).toBe(`${origin}/sign-in?error=throttled`);
+    expect(refused.message).toBe(THROTTLED_MESSAGE);
+    expect(THROTTLED_MESSAGE).toBe('Too many failed sign-ins for this e-mail. Wait 15 minutes, then try again.');
   });
 });
