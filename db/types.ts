@@ -57,6 +57,18 @@ export interface ApiTokensTable {
   revoked_at: Timestamp | null;
 }
 
+/** One signed-in browser; the session cookie names it. The database keeps expiry absolute and revocation final. */
+export interface SessionsTable {
+  id: Generated<string>;
+  user_id: string;
+  created_at: CreatedAt;
+  last_seen_at: Timestamp;
+  expires_at: Timestamp;
+  revoked_at: Timestamp | null;
+  user_agent: string | null;
+  client_address: string | null;
+}
+
 export interface AuditLogTable {
   id: Generated<number>;
   at: CreatedAt;
@@ -210,6 +222,7 @@ export interface Database {
   jurisdictions: JurisdictionsTable;
   users: UsersTable;
   api_tokens: ApiTokensTable;
+  sessions: SessionsTable;
   audit_log: AuditLogTable;
   rule_sets: RuleSetsTable;
   rules: RulesTable;

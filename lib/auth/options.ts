@@ -1,5 +1,6 @@
 import 'server-only';
 import type { NextAuthOptions } from 'next-auth';
+import { encode as encodeJwt } from 'next-auth/jwt';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { getDb } from '@/db';
 import { normalizeEmail } from '@/db/users';
@@ -8,12 +9,32 @@ import { safeCallbackPath } from './callback-url';
 import { PasswordCheckBusyError } from './password';
 import { checkCredentials, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from './sign-in';
 import { SIGN_IN_BUSY } from './sign-in-messages';
+import { SESSION_LIFETIME_SECONDS, SessionEndedError, endSession, remainingSeconds, requireLiveSession, startSession } from './sessions';
 
-const SESSION_HOURS = 12;
+/** Expected ends of a session are not errors worth a log line: a signed-out or expired cookie came back. */
+function isEndedSession(metadata: unknown): boolean {
+  const err = metadata as { name?: string; code?: string } | undefined;
+  return metadata instanceof SessionEndedError || err?.name === 'SessionEndedError' || err?.code === 'ERR_JWT_EXPIRED';
+}
 
 export const authOptions: NextAuthOptions = {
   secret: process.env.NEXTAUTH_SECRET,
-  session: { strategy: 'jwt', maxAge: SESSION_HOURS * 3600 },
+  // The cookie's maxAge equals the session row's lifetime; next-auth v4 ignores updateAge for JWT sessions.
+  session: { strategy: 'jwt', maxAge: SESSION_LIFETIME_SECONDS },
+  jwt: {
+    // The JWT's own exp never passes the session's absolute expiry, whenever next-auth re-encodes it.
+    encode: (params) => encodeJwt({ ...params, maxAge: remainingSeconds(params.token?.sessionExpiresAt, params.maxAge ?? SESSION_LIFETIME_SECONDS) }),
+  },
+  logger: {
+    error(code, metadata) {
+      if (isEndedSession(metadata)) return;
+      console.error(`[next-auth][error][${code}]`, metadata);
+    },
+    warn(code) {
+      console.warn(`[next-auth][warn][${code}]`);
+    },
+    debug() {},
+  },
   pages: { signIn: '/sign-in', signOut: '/sign-out', error: '/sign-in' },
   providers: [
     CredentialsProvider({
@@ -32,8 +53,10 @@ export const authOptions: NextAuthOptions = {
           throw err;
         }
         if (!user) return null;
-        await signInSucceeded(email, clientAddress({ headers: new Headers(req.headers as Record<string, string>) }));
-        return { id: user.id, email: user.email, name: user.name, role: user.role, organizationId: user.organizationId, jurisdictionId: user.jurisdictionId };
+        const headers = new Headers(req.headers as Record<string, string>);
+        await signInSucceeded(email, clientAddress({ headers }));
+        const session = await startSession(user.id, headers);
+        return { ...user, sessionId: session.id, sessionExpiresAt: session.expiresAtSeconds };
       },
     }),
   ],
@@ -43,24 +66,34 @@ export const authOptions: NextAuthOptions = {
       const origin = new URL(baseUrl).origin;
       return origin + safeCallbackPath(url, { origin });
     },
+    // Runs on every session read (getServerSession, /api/auth/session): the session row must still be live.
     async jwt({ token, user }) {
       if (user) {
         token.uid = user.id;
-        token.role = user.role;
-        token.organizationId = user.organizationId;
-        token.jurisdictionId = user.jurisdictionId;
+        token.sid = user.sessionId;
+        token.sessionExpiresAt = user.sessionExpiresAt;
+        return token;
       }
-      return token;
+      try {
+        const live = await requireLiveSession(token.sid, token.uid);
+        // The user as stored now, so a changed role or name takes effect at once.
+        return { ...token, user: live.user, unavailable: undefined };
+      } catch (err) {
+        if (err instanceof SessionEndedError) throw err;
+        // The database could not say: that is an outage (503), not a reason to sign anyone out.
+        console.error('[auth] session lookup failed:', (err as Error)?.message ?? err);
+        return { ...token, user: undefined, unavailable: true };
+      }
     },
-    async session({ session, token }) {
-      session.user = {
-        ...session.user,
-        id: token.uid,
-        role: token.role,
-        organizationId: token.organizationId,
-        jurisdictionId: token.jurisdictionId,
-      };
-      return session;
+    async session({ token }) {
+      const expires = new Date(token.sessionExpiresAt * 1000).toISOString();
+      if (token.unavailable || !token.user) return { unavailable: true, expires };
+      return { user: { ...token.user, sessionId: token.sid }, expires };
+    },
+  },
+  events: {
+    async signOut({ token }) {
+      await endSession(token?.sid);
     },
   },
 };

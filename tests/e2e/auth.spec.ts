@@ -87,3 +87,42 @@ test('signing out ends the session', async ({ page }) => {
   await page.goto('/rules');
   await expect(page).toHaveURL(/\/sign-in/);
 });
+
+test('"Sign out everywhere else" on the account page signs out the other browser', async ({ browser }) => {
+  const here = await browser.newContext();
+  const there = await browser.newContext();
+  const herePage = await here.newPage();
+  const therePage = await there.newPage();
+  await signInAs(herePage, 'installer2@nookpass.demo');
+  await signInAs(therePage, 'installer2@nookpass.demo');
+
+  await herePage.getByRole('link', { name: 'Account' }).click();
+  await expect(herePage.getByRole('heading', { name: 'Where you are signed in' })).toBeVisible();
+  await expect(herePage.getByTestId('session-list').getByText('This browser')).toHaveCount(1);
+  await herePage.getByRole('button', { name: 'Sign out everywhere else' }).click();
+  await expect(herePage.getByRole('status').filter({ hasText: /Signed out \d+ other session/ })).toBeVisible();
+
+  await therePage.goto('/projects');
+  await expect(therePage).toHaveURL(/\/sign-in/);
+  await herePage.goto('/projects');
+  await expect(herePage.getByTestId('shell-user')).toBeVisible();
+  await here.close();
+  await there.close();
+});
+
+test('a throttled sign-in says so and how long to wait', async ({ browser }) => {
+  // A client address of its own (IPv6 documentation prefix, RFC 3849), so no other test shares its counters.
+  const address = `2001:db8:e2e::${Math.floor(Math.random() * 0xffff).toString(16)}`;
+  const context = await browser.newContext({ extraHTTPHeaders: { 'x-forwarded-for': address } });
+  const page = await context.newPage();
+  await page.goto('/sign-in');
+  const alert = page.locator('#sign-in-error');
+  for (let i = 0; i < 6; i++) {
+    await page.getByLabel('E-mail').fill('someone-throttled@nookpass.demo');
+    await page.getByLabel('Password').fill(`wrong-password-${i}`);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect(page.getByRole('button', { name: 'Sign in' })).toBeEnabled();
+  }
+  await expect(alert).toHaveText('Too many failed sign-ins for this e-mail. Wait 15 minutes, then try again.');
+  await context.close();
+});
