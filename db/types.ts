@@ -55,6 +55,7 @@ export interface ApiTokensTable {
   created_at: CreatedAt;
   last_used_at: Timestamp | null;
   revoked_at: Timestamp | null;
+  expires_at: Timestamp;
 }
 
 /** One signed-in browser; the session cookie names it. The database keeps expiry absolute and revocation final. */

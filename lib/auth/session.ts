@@ -3,7 +3,7 @@ import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
 import { cache } from 'react';
 import { getDb } from '@/db';
-import { userForTokenHash } from '@/db/api-tokens';
+import { findTokenHolder } from '@/db/api-tokens';
 import { ForbiddenError, ServiceUnavailableError, UnauthorizedError } from '@/lib/errors';
 import { bearerToken, hashApiToken, looksLikeApiToken } from './api-token';
 import { safeCallbackPath } from './callback-url';
@@ -63,9 +63,12 @@ export async function currentCaller(request: Request): Promise<Caller | null> {
   const token = bearerToken(request);
   if (token !== null) {
     if (!looksLikeApiToken(token)) throw new UnauthorizedError('The API token is malformed.');
-    const user = await userForTokenHash(getDb(), hashApiToken(token));
-    if (!user) throw new UnauthorizedError('The API token is unknown or revoked.');
-    return { via: 'api-token', user };
+    const holder = await findTokenHolder(getDb(), hashApiToken(token));
+    if (!holder) throw new UnauthorizedError('The API token is unknown or revoked.');
+    if (holder.isExpired) {
+      throw new UnauthorizedError(`The API token expired on ${holder.expiresAt.toISOString().slice(0, 10)}. Create a new one on the Account page.`);
+    }
+    return { via: 'api-token', user: holder.user };
   }
   const caller = await sessionCaller();
   if (!caller) return null;

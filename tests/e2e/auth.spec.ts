@@ -66,9 +66,14 @@ test('a user creates an API token, sees it once, and revokes it', async ({ page,
   await signInAs(page, 'installer2@nookpass.demo');
   await page.getByRole('link', { name: 'Account' }).click();
   await page.getByLabel('Token name').fill('e2e laptop');
+  await expect(page.getByLabel('Expires after')).toHaveValue('90');
+  await page.getByLabel('Expires after').selectOption({ label: '30 days' });
   await page.getByRole('button', { name: 'Create token' }).click();
   const token = (await page.getByTestId('new-token').textContent())!.trim();
   expect(token).toMatch(/^np_/);
+  const in30Days = new Date(Date.now() + 30 * 24 * 3600_000);
+  const row = page.getByRole('listitem').filter({ has: page.getByRole('button', { name: 'Revoke token e2e laptop' }) }).first();
+  await expect(row.getByTestId('token-expiry')).toHaveText(await page.evaluate((ms) => `expires ${new Date(ms).toLocaleDateString()}`, in30Days.getTime()));
 
   const me = await request.get('/api/me', { headers: { authorization: `Bearer ${token}` } });
   expect(me.status()).toBe(200);
