@@ -29,7 +29,7 @@ export const signInPolicies = {
 const pairKey = (email: string, address: string) => `${normalizeEmail(email)}\n${address}`;
 
 /**
- * Counts one sign-in attempt; throws TooManyRequestsError (lib/errors) (with the wait) when the address, or this
+ * Counts one sign-in attempt; throws TooManyRequestsError, carrying the wait, when the address, or this
  * e-mail from this address, has had too many failures.
  */
 export async function admitSignInAttempt(email: string, address: string): Promise<void> {

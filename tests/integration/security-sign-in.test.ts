@@ -143,6 +143,12 @@ describe('sign-in throttling', () => {
     expect((await attemptSignIn(unknownEmail(), 'whatever-password', { address: testAddress() })).error).toBe('CredentialsSignin');
   });
 
+  it('never counts successful sign-ins: twelve in a row from one address all get in', { timeout: 60_000 }, async () => {
+    const email = await freshUser('many-successes', 'the-right-password', 4);
+    const address = testAddress();
+    for (let i = 0; i < 12; i++) expect((await attemptSignIn(email, 'the-right-password', { address })).cookie, `sign-in ${i + 1}`).not.toBeNull();
+  });
+
   it('counts parallel guesses exactly: of 10 at once for one e-mail, 5 are checked and 5 refused', { timeout: 60_000 }, async () => {
     const email = await freshUser('parallel-guess', 'the-right-password', 4);
     const address = testAddress();
