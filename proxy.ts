@@ -1,5 +1,6 @@
 import { getToken } from 'next-auth/jwt';
 import { NextResponse, type NextRequest } from 'next/server';
+import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
 
 // Convenience only: sends anonymous visitors of app pages to sign-in early.
 // Every page and route handler checks the session and role itself.
@@ -8,7 +9,7 @@ export async function proxy(request: NextRequest) {
   if (!token) {
     const url = request.nextUrl.clone();
     url.pathname = '/sign-in';
-    url.search = `?callbackUrl=${encodeURIComponent(request.nextUrl.pathname + request.nextUrl.search)}`;
+    url.search = `?callbackUrl=${encodeURIComponent(safeCallbackPath(request.nextUrl.pathname + request.nextUrl.search))}`;
     return NextResponse.redirect(url);
   }
   return NextResponse.next();

@@ -1,3 +1,4 @@
+import { sql } from 'kysely';
 import type { DB } from '@/db/index';
 import { writeAudit } from '@/db/audit';
 import { toAppUser } from '@/db/users';
@@ -10,30 +11,79 @@ export type ApiTokenSummary = {
   createdAt: Date;
   lastUsedAt: Date | null;
   revokedAt: Date | null;
+  expiresAt: Date;
+  /** Past its expiry by the database's clock. */
+  isExpired: boolean;
 };
 
-export async function createApiToken(db: DB, userId: string, name: string, tokenHash: string, prefix: string): Promise<ApiTokenSummary> {
+export type NewApiToken = { name: string; tokenHash: string; prefix: string; expiresInDays: number };
+
+export type CreateTokenResult =
+  | { created: true; token: ApiTokenSummary }
+  | { created: false; retryAfterSeconds: number };
+
+/**
+ * Creates a token unless the user made `perHour` in the last hour. The user's row is locked for the
+ * transaction, so parallel requests count one after another and the limit holds exactly.
+ */
+export async function createApiTokenWithinLimit(db: DB, userId: string, input: NewApiToken, perHour: number): Promise<CreateTokenResult> {
   return db.transaction().execute(async (trx) => {
+    // FOR NO KEY UPDATE: serializes token creation per user without blocking rows that merely reference the user.
+    await trx.selectFrom('users').select('id').where('id', '=', userId).forNoKeyUpdate().executeTakeFirstOrThrow();
+    const recent = await trx
+      .selectFrom('api_tokens')
+      .select(['created_at'])
+      .where('user_id', '=', userId)
+      .where('created_at', '>', sql<Date>`now() - interval '1 hour'`)
+      .orderBy('created_at', 'desc')
+      .limit(perHour)
+      .execute();
+    if (recent.length >= perHour) {
+      // The next one may be made an hour after the oldest of the last `perHour`.
+      const oldest = new Date(recent[recent.length - 1].created_at).getTime();
+      return { created: false, retryAfterSeconds: Math.max(1, Math.ceil((oldest + 3600_000 - Date.now()) / 1000)) };
+    }
     const row = await trx
       .insertInto('api_tokens')
-      .values({ user_id: userId, name, token_hash: tokenHash, token_prefix: prefix })
+      .values({
+        user_id: userId,
+        name: input.name,
+        token_hash: input.tokenHash,
+        token_prefix: input.prefix,
+        expires_at: sql<Date>`now() + ${`${input.expiresInDays} days`}::interval`,
+      })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await writeAudit(trx, { actorUserId: userId, action: 'api-token.create', entityType: 'api_token', entityId: row.id, details: { name } });
-    return { id: row.id, name: row.name, prefix: row.token_prefix, createdAt: row.created_at, lastUsedAt: null, revokedAt: null };
+    await writeAudit(trx, { actorUserId: userId, action: 'api-token.create', entityType: 'api_token', entityId: row.id, details: { name: input.name, expiresInDays: input.expiresInDays } });
+    return { created: true, token: toSummary({ ...row, is_expired: false }) };
   });
 }
 
-export async function listApiTokens(db: DB, userId: string): Promise<ApiTokenSummary[]> {
-  const rows = await db.selectFrom('api_tokens').selectAll().where('user_id', '=', userId).orderBy('created_at', 'desc').execute();
-  return rows.map((r) => ({
+type TokenRow = { id: string; name: string; token_prefix: string; created_at: Date; last_used_at: Date | null; revoked_at: Date | null; expires_at: Date; is_expired: boolean };
+
+function toSummary(r: TokenRow): ApiTokenSummary {
+  return {
     id: r.id,
     name: r.name,
     prefix: r.token_prefix,
     createdAt: r.created_at,
     lastUsedAt: r.last_used_at,
     revokedAt: r.revoked_at,
-  }));
+    expiresAt: r.expires_at,
+    isExpired: r.is_expired,
+  };
+}
+
+export async function listApiTokens(db: DB, userId: string): Promise<ApiTokenSummary[]> {
+  const rows = await db
+    .selectFrom('api_tokens')
+    .selectAll()
+    .select(sql<boolean>`expires_at <= now()`.as('is_expired'))
+    .where('user_id', '=', userId)
+    .orderBy('created_at', 'desc')
+    .limit(500)
+    .execute();
+  return rows.map(toSummary);
 }
 
 /** Revokes one of the user's own tokens; false when it is not theirs or does not exist. */
@@ -52,34 +102,30 @@ export async function revokeApiToken(db: DB, userId: string, tokenId: string): P
   });
 }
 
-export async function countRecentTokens(db: DB, userId: string, sinceMs: number): Promise<number> {
-  const row = await db
-    .selectFrom('api_tokens')
-    .select(db.fn.countAll<number>().as('n'))
-    .where('user_id', '=', userId)
-    .where('created_at', '>', new Date(Date.now() - sinceMs))
-    .executeTakeFirstOrThrow();
-  return Number(row.n);
-}
-
 // Last-used times are kept to the minute: one write per token per minute, not one per request.
 const TOUCH_EVERY_MS = 60_000;
 
-/** The live (not revoked) token's user; refreshes its last-used time when that is over a minute old. */
-export async function userForTokenHash(db: DB, tokenHash: string): Promise<AppUser | null> {
+export type TokenHolder = { user: AppUser; tokenId: string; expiresAt: Date; isExpired: boolean };
+
+/**
+ * The user of a token that is not revoked, with the token's expiry (judged by the database's clock); null
+ * for an unknown or revoked token. Refreshes a live token's last-used time when that is over a minute old.
+ */
+export async function findTokenHolder(db: DB, tokenHash: string): Promise<TokenHolder | null> {
   const row = await db
     .selectFrom('api_tokens')
     .innerJoin('users', 'users.id', 'api_tokens.user_id')
     .select([
-      'api_tokens.id as token_id', 'api_tokens.last_used_at',
+      'api_tokens.id as token_id', 'api_tokens.last_used_at', 'api_tokens.expires_at',
+      sql<boolean>`api_tokens.expires_at <= now()`.as('is_expired'),
       'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo',
     ])
     .where('api_tokens.token_hash', '=', tokenHash)
     .where('api_tokens.revoked_at', 'is', null)
     .executeTakeFirst();
   if (!row) return null;
-  if (!row.last_used_at || Date.now() - new Date(row.last_used_at).getTime() > TOUCH_EVERY_MS) {
+  if (!row.is_expired && (!row.last_used_at || Date.now() - new Date(row.last_used_at).getTime() > TOUCH_EVERY_MS)) {
     await db.updateTable('api_tokens').set({ last_used_at: new Date() }).where('id', '=', row.token_id).execute();
   }
-  return toAppUser(row);
+  return { user: toAppUser(row), tokenId: row.token_id, expiresAt: row.expires_at, isExpired: row.is_expired };
 }

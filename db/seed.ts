@@ -1,9 +1,9 @@
-import bcrypt from 'bcryptjs';
 import { createDb, type DB } from '@/db/index';
 import { demoAmendments, demoJurisdictions, demoOrganizations, demoPassword, demoProjects, demoUsers } from '@/db/demo';
 import { demoPlans } from '@/db/demo-plans';
 import { toJurisdiction } from '@/db/jurisdictions';
 import { createPublishedVersion } from '@/db/rule-sets';
+import { hashAtCurrentCost, needsRehash, verifyPassword } from '@/lib/platform/auth/password';
 import { parsePlan } from '@/lib/domain/plan';
 import { buildRuleSet } from '@/rules';
 
@@ -43,13 +43,14 @@ export async function seedDemo(db: DB): Promise<void> {
             role: u.role,
             organization_id,
             jurisdiction_id,
-            password_hash: await bcrypt.hash(password, 10),
+            password_hash: await hashAtCurrentCost(password),
             is_demo: true,
           })
           .execute();
         continue;
       }
-      const passwordOk = await bcrypt.compare(password, existing.password_hash);
+      // A hash from an older, cheaper cost is redone, so demo accounts time like real ones at sign-in.
+      const passwordOk = (await verifyPassword(password, existing.password_hash)) && !needsRehash(existing.password_hash);
       const same =
         passwordOk && existing.name === u.name && existing.role === u.role &&
         existing.organization_id === organization_id && existing.jurisdiction_id === jurisdiction_id && existing.is_demo;
@@ -63,7 +64,7 @@ export async function seedDemo(db: DB): Promise<void> {
           jurisdiction_id,
           is_demo: true,
           updated_at: new Date(),
-          ...(passwordOk ? {} : { password_hash: await bcrypt.hash(password, 10) }),
+          ...(passwordOk ? {} : { password_hash: await hashAtCurrentCost(password) }),
         })
         .where('id', '=', existing.id)
         .execute();

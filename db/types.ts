@@ -60,13 +60,19 @@ export interface ApiTokensTable {
   created_at: CreatedAt;
   last_used_at: Timestamp | null;
   revoked_at: Timestamp | null;
+  expires_at: Timestamp;
 }
 
-export interface SignInThrottleTable {
-  email: string;
-  failures: Generated<number>;
-  window_started_at: Timestamp;
-  locked_until: Timestamp | null;
+/** One signed-in browser; the session cookie names it. The database keeps expiry absolute and revocation final. */
+export interface SessionsTable {
+  id: Generated<string>;
+  user_id: string;
+  created_at: CreatedAt;
+  last_seen_at: Timestamp;
+  expires_at: Timestamp;
+  revoked_at: Timestamp | null;
+  user_agent: string | null;
+  client_address: string | null;
 }
 
 export interface AuditLogTable {
@@ -219,7 +225,7 @@ export interface Database {
   jurisdictions: JurisdictionsTable;
   users: UsersTable;
   api_tokens: ApiTokensTable;
-  sign_in_throttle: SignInThrottleTable;
+  sessions: SessionsTable;
   audit_log: AuditLogTable;
   rule_sets: RuleSetsTable;
   rules: RulesTable;

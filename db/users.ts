@@ -23,6 +23,16 @@ export async function findUserForSignIn(db: DB, email: string) {
   return row ? { user: toAppUser(row), passwordHash: row.password_hash } : null;
 }
 
+/** Swaps a verified password's hash for a stronger one, unless the password changed in the meantime. */
+export async function replacePasswordHash(db: DB, userId: string, oldHash: string, newHash: string): Promise<void> {
+  await db
+    .updateTable('users')
+    .set({ password_hash: newHash, updated_at: new Date() })
+    .where('id', '=', userId)
+    .where('password_hash', '=', oldHash)
+    .execute();
+}
+
 export async function findUserById(db: DB, id: string): Promise<AppUser | null> {
   const row = await db.selectFrom('users').selectAll().where('id', '=', id).executeTakeFirst();
   return row ? toAppUser(row) : null;

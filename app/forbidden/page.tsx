@@ -1,7 +1,10 @@
 import Link from 'next/link';
+import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
 
-export default async function ForbiddenPage({ searchParams }: { searchParams: Promise<{ from?: string }> }) {
-  const { from } = await searchParams;
+export default async function ForbiddenPage({ searchParams }: { searchParams: Promise<{ from?: string | string[] }> }) {
+  // Only a path of ours is named back to the reader; anything else is left out rather than echoed.
+  const raw = (await searchParams).from;
+  const from = safeCallbackPath(raw, { fallback: '' }) || null;
   return (
     <main id="main" className="mx-auto max-w-lg px-4 py-20 text-center">
       <p className="kicker">403</p>

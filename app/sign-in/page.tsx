@@ -3,11 +3,12 @@ import Link from 'next/link';
 import { SignInForm } from '@/components/auth/sign-in-form';
 import { Wordmark } from '@/components/ui/logo';
 import { demoUsers } from '@/db/demo';
+import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
 
 export const metadata: Metadata = { title: 'Sign in' };
 export const dynamic = 'force-dynamic';
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string; error?: string }> }) {
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string | string[]; error?: string }> }) {
   const { callbackUrl } = await searchParams;
   const isDemo = process.env.NOOKPASS_DEMO === '1';
   return (
@@ -17,7 +18,7 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
         <h1 className="text-2xl font-bold">Sign in</h1>
         <p className="mt-1 text-sm text-ink-soft">Use the e-mail your company or jurisdiction registered.</p>
         <div className="mt-6">
-          <SignInForm callbackUrl={callbackUrl} />
+          <SignInForm callbackUrl={safeCallbackPath(callbackUrl)} />
         </div>
       </div>
       {isDemo && (

@@ -2,8 +2,9 @@
 
 import { useState } from 'react';
 import useSWR from 'swr';
+import { DEFAULT_TOKEN_DAYS, TOKEN_LIFETIME_CHOICES } from '@/lib/platform/auth/api-token-form';
 
-type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null };
+type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null; expiresAt: string; isExpired: boolean };
 
 async function fetchJson<T>(url: string, init?: RequestInit): Promise<T> {
   const res = await fetch(url, init);
@@ -16,10 +17,12 @@ async function fetchJson<T>(url: string, init?: RequestInit): Promise<T> {
 }
 
 const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString() : 'never');
+const day = (iso: string) => new Date(iso).toLocaleDateString();
 
 export function ApiTokens() {
   const { data, error, isLoading, mutate } = useSWR('/api/tokens', (u: string) => fetchJson<{ tokens: Token[] }>(u));
   const [name, setName] = useState('');
+  const [days, setDays] = useState<number>(DEFAULT_TOKEN_DAYS);
   const [fieldError, setFieldError] = useState<string | null>(null);
   const [fresh, setFresh] = useState<{ name: string; token: string } | null>(null);
   const [busy, setBusy] = useState(false);
@@ -32,7 +35,7 @@ export function ApiTokens() {
       const created = await fetchJson<{ token: string; name: string }>('/api/tokens', {
         method: 'POST',
         headers: { 'content-type': 'application/json' },
-        body: JSON.stringify({ name }),
+        body: JSON.stringify({ name, expiresInDays: days }),
       });
       setFresh({ name: created.name, token: created.token });
       setName('');
@@ -52,7 +55,8 @@ export function ApiTokens() {
     }
   }
 
-  const live = data?.tokens.filter((t) => !t.revokedAt) ?? [];
+  const live = data?.tokens.filter((t) => !t.revokedAt && !t.isExpired) ?? [];
+  const expired = data?.tokens.filter((t) => !t.revokedAt && t.isExpired) ?? [];
   const revoked = data?.tokens.filter((t) => t.revokedAt) ?? [];
 
   return (
@@ -60,7 +64,8 @@ export function ApiTokens() {
       <h2 id="tokens-heading" className="text-lg font-bold">Personal API tokens</h2>
       <p className="mt-1 text-sm text-ink-soft">
         A token lets a script call the NookPass API as you (<code className="font-mono">Authorization: Bearer …</code>).
-        It is shown once; we keep only a hash of it.
+        It is shown once; we keep only a hash of it. Every token ends after the lifetime you choose (one year at
+        most), and only a signed-in browser can create one.
       </p>
 
       <form onSubmit={create} className="mt-4 flex flex-wrap items-end gap-3" noValidate>
@@ -75,6 +80,14 @@ export function ApiTokens() {
             aria-invalid={fieldError ? true : undefined}
             aria-describedby={fieldError ? 'token-name-error' : undefined}
           />
+        </div>
+        <div>
+          <label htmlFor="token-lifetime" className="field-label">Expires after</label>
+          <select id="token-lifetime" className="field-input" value={days} onChange={(e) => setDays(Number(e.target.value))}>
+            {TOKEN_LIFETIME_CHOICES.map((c) => (
+              <option key={c.days} value={c.days}>{c.label}</option>
+            ))}
+          </select>
         </div>
         <button type="submit" className="btn-primary" disabled={busy}>Create token</button>
         {fieldError && <p id="token-name-error" className="field-error w-full" role="alert">{fieldError}</p>}
@@ -98,6 +111,7 @@ export function ApiTokens() {
                 <div>
                   <div className="font-semibold">{t.name}</div>
                   <div className="font-mono text-xs text-ink-faint">{t.prefix}… · created {when(t.createdAt)} · last used {when(t.lastUsedAt)}</div>
+                  <div className="text-xs text-ink-soft" data-testid="token-expiry">expires {day(t.expiresAt)}</div>
                 </div>
                 <button type="button" className="btn-danger" onClick={() => revoke(t.id)} aria-label={`Revoke token ${t.name}`}>
                   Revoke
@@ -105,6 +119,16 @@ export function ApiTokens() {
               </li>
             ))}
           </ul>
+        )}
+        {expired.length > 0 && (
+          <details className="mt-4 text-sm">
+            <summary className="cursor-pointer text-ink-soft">Expired tokens ({expired.length})</summary>
+            <ul className="mt-2 space-y-1 text-ink-faint">
+              {expired.map((t) => (
+                <li key={t.id}>{t.name} <span className="font-mono text-xs">{t.prefix}…</span> — expired {day(t.expiresAt)}</li>
+              ))}
+            </ul>
+          </details>
         )}
         {revoked.length > 0 && (
           <details className="mt-4 text-sm">

@@ -3,11 +3,8 @@
 import { signIn } from 'next-auth/react';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-
-function safeCallback(url: string | undefined): string {
-  // Only our own paths: an open redirect after sign-in would help a phishing page.
-  return url && url.startsWith('/') && !url.startsWith('//') ? url : '/home';
-}
+import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
+import { signInErrorMessage } from '@/lib/platform/auth/sign-in-messages';
 
 export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
   const router = useRouter();
@@ -26,15 +23,12 @@ export function SignInForm({ callbackUrl }: { callbackUrl?: string }) {
         redirect: false,
       });
       if (res?.ok && !res.error) {
-        router.replace(safeCallback(callbackUrl));
+        // Checked again here: the page passes it on, but an open redirect after sign-in would help a phishing page.
+        router.replace(safeCallbackPath(callbackUrl));
         router.refresh();
         return;
       }
-      setError(
-        res?.error === 'throttled'
-          ? 'Too many failed sign-ins for this e-mail. Wait 15 minutes, then try again.'
-          : 'That e-mail and password do not match an account.',
-      );
+      setError(signInErrorMessage(res?.error));
     } catch {
       setError('NookPass could not be reached. Check your connection and try again.');
     }

@@ -70,7 +70,7 @@ export function findLoneSurrogate(value: unknown, path = ''): string | null {
  * Reads the body as UTF-8, stopping once it passes the limit: a chunked body declares no length,
  * so counting as it arrives is what keeps an endless upload from being buffered whole.
  */
-async function readTextUpTo(request: Request, limit: number): Promise<string> {
+export async function readTextUpTo(request: Request, limit: number): Promise<string> {
   if (!request.body) return '';
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];

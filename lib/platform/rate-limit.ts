@@ -80,6 +80,11 @@ export class SharedLimiter {
     if (s.consumed >= policy.points && s.consumed > 0) throw new TooManyRequestsError(policy.message, s.retryAfterSeconds);
   }
 
+  /** Gives points back, for an attempt counted up front that turned out to be legitimate. */
+  async reward(policy: LimitPolicy, key: string, points = 1): Promise<LimitState> {
+    return state(policy, await this.limiter(policy).reward(SharedLimiter.key(key), points));
+  }
+
   async peek(policy: LimitPolicy, key: string): Promise<LimitState> {
     return state(policy, await this.limiter(policy).get(SharedLimiter.key(key)));
   }
@@ -116,7 +121,7 @@ export function sharedLimiter(): SharedLimiter {
  * nearest proxy appended (Next.js fills the header with the socket's address when no proxy sent one).
  * Behind a reverse proxy, set it to append the client address ($proxy_add_x_forwarded_for or equivalent).
  */
-export function clientAddress(request: Request): string {
+export function clientAddress(request: Pick<Request, 'headers'>): string {
   const forwarded = request.headers.get('x-forwarded-for');
   const last = forwarded?.split(',').map((s) => s.trim()).filter(Boolean).at(-1);
   return last || request.headers.get('x-real-ip') || 'unknown';

@@ -43,6 +43,18 @@ test('an anonymous visit to /projects lands on sign-in and returns after it', as
   await expect(page).toHaveURL(/\/projects$/);
 });
 
+// WHATWG URL standard: a backslash is a slash in http(s) URLs and tab is dropped, so both name another host.
+for (const callbackUrl of ['%2F%5C127.0.0.1%3A8081%2Fpwned', '%2F%09%2F127.0.0.1%3A8081%2Fpwned']) {
+  test(`sign-in with callbackUrl ${callbackUrl} stays on our origin`, async ({ page, baseURL }) => {
+    await page.goto(`/sign-in?callbackUrl=${callbackUrl}`);
+    await page.getByLabel('E-mail').fill('installer@nookpass.demo');
+    await page.getByLabel('Password').fill(process.env.NOOKPASS_DEMO_PASSWORD || 'demo-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect(page).toHaveURL(/\/projects$/);
+    expect(new URL(page.url()).origin).toBe(new URL(baseURL!).origin);
+  });
+}
+
 test('an installer cannot open admin pages', async ({ page }) => {
   await signInAs(page, 'installer@nookpass.demo');
   await page.goto('/users');
@@ -54,9 +66,14 @@ test('a user creates an API token, sees it once, and revokes it', async ({ page,
   await signInAs(page, 'installer2@nookpass.demo');
   await page.getByRole('link', { name: 'Account' }).click();
   await page.getByLabel('Token name').fill('e2e laptop');
+  await expect(page.getByLabel('Expires after')).toHaveValue('90');
+  await page.getByLabel('Expires after').selectOption({ label: '30 days' });
   await page.getByRole('button', { name: 'Create token' }).click();
   const token = (await page.getByTestId('new-token').textContent())!.trim();
   expect(token).toMatch(/^np_/);
+  const in30Days = new Date(Date.now() + 30 * 24 * 3600_000);
+  const row = page.getByRole('listitem').filter({ has: page.getByRole('button', { name: 'Revoke token e2e laptop' }) }).first();
+  await expect(row.getByTestId('token-expiry')).toHaveText(await page.evaluate((ms) => `expires ${new Date(ms).toLocaleDateString()}`, in30Days.getTime()));
 
   const me = await request.get('/api/me', { headers: { authorization: `Bearer ${token}` } });
   expect(me.status()).toBe(200);
@@ -74,4 +91,43 @@ test('signing out ends the session', async ({ page }) => {
   await expect(page).toHaveURL(/\/sign-in/);
   await page.goto('/rules');
   await expect(page).toHaveURL(/\/sign-in/);
+});
+
+test('"Sign out everywhere else" on the account page signs out the other browser', async ({ browser }) => {
+  const here = await browser.newContext();
+  const there = await browser.newContext();
+  const herePage = await here.newPage();
+  const therePage = await there.newPage();
+  await signInAs(herePage, 'installer2@nookpass.demo');
+  await signInAs(therePage, 'installer2@nookpass.demo');
+
+  await herePage.getByRole('link', { name: 'Account' }).click();
+  await expect(herePage.getByRole('heading', { name: 'Where you are signed in' })).toBeVisible();
+  await expect(herePage.getByTestId('session-list').getByText('This browser')).toHaveCount(1);
+  await herePage.getByRole('button', { name: 'Sign out everywhere else' }).click();
+  await expect(herePage.getByRole('status').filter({ hasText: /Signed out \d+ other session/ })).toBeVisible();
+
+  await therePage.goto('/projects');
+  await expect(therePage).toHaveURL(/\/sign-in/);
+  await herePage.goto('/projects');
+  await expect(herePage.getByTestId('shell-user')).toBeVisible();
+  await here.close();
+  await there.close();
+});
+
+test('a throttled sign-in says so and how long to wait', async ({ browser }) => {
+  // A client address of its own (IPv6 documentation prefix, RFC 3849), so no other test shares its counters.
+  const address = `2001:db8:e2e::${Math.floor(Math.random() * 0xffff).toString(16)}`;
+  const context = await browser.newContext({ extraHTTPHeaders: { 'x-forwarded-for': address } });
+  const page = await context.newPage();
+  await page.goto('/sign-in');
+  const alert = page.locator('#sign-in-error');
+  for (let i = 0; i < 6; i++) {
+    await page.getByLabel('E-mail').fill('someone-throttled@nookpass.demo');
+    await page.getByLabel('Password').fill(`wrong-password-${i}`);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect(page.getByRole('button', { name: 'Sign in' })).toBeEnabled();
+  }
+  await expect(alert).toHaveText('Too many failed sign-ins for this e-mail. Wait 15 minutes, then try again.');
+  await context.close();
 });

@@ -40,8 +40,26 @@ export function appDb(): DB {
   return createDb(url, 2);
 }
 
-/** Signs in through next-auth's credentials flow and returns the session cookie header. */
-export async function signIn(email: string, password = demoPassword): Promise<string> {
+export type SignInAttempt = {
+  status: number;
+  /** next-auth's error code from the answer's URL (CredentialsSignin, throttled, …), or null on success. */
+  error: string | null;
+  /** Where next-auth says to go next. */
+  url: string | null;
+  /** Cookie header with the session cookie when the sign-in succeeded. */
+  cookie: string | null;
+  retryAfter: string | null;
+  /** The `error` text of a refusal that carries one (a throttled sign-in). */
+  message: string | null;
+  ms: number;
+};
+
+/**
+ * One sign-in through next-auth's credentials flow, as the sign-in form sends it. `address` is sent as
+ * X-Forwarded-For, which the app reads as the client address (the nearest proxy's entry), so a test can
+ * stand for another machine; without it the loopback address counts.
+ */
+export async function attemptSignIn(email: string, password: string, opts: { address?: string; callbackUrl?: string } = {}): Promise<SignInAttempt> {
   const jar = new Map<string, string>();
   const keep = (res: Response) => {
     for (const c of res.headers.getSetCookie()) {
@@ -51,20 +69,55 @@ export async function signIn(email: string, password = demoPassword): Promise<st
     }
   };
   const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
-  const csrfRes = await fetch(`${baseUrl}/api/auth/csrf`);
+  const forwarded: Record<string, string> = opts.address ? { 'x-forwarded-for': opts.address } : {};
+  const csrfRes = await fetch(`${baseUrl}/api/auth/csrf`, { headers: forwarded });
   keep(csrfRes);
   const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
+  const body = new URLSearchParams({ csrfToken, email, password, json: 'true' });
+  if (opts.callbackUrl !== undefined) body.set('callbackUrl', opts.callbackUrl);
+  const started = performance.now();
   const res = await fetch(`${baseUrl}/api/auth/callback/credentials`, {
     method: 'POST',
     redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookie() },
-    body: new URLSearchParams({ csrfToken, email, password, json: 'true' }),
+    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: cookie(), ...forwarded },
+    body,
   });
+  const text = await res.text();
+  const ms = performance.now() - started;
   keep(res);
-  if (![...jar.keys()].some((k) => k.endsWith('next-auth.session-token'))) {
-    throw new Error(`sign-in failed for ${email}: ${res.status} ${await res.text()}`);
+  let url: string | null = null;
+  let message: string | null = null;
+  try {
+    const parsed = JSON.parse(text) as { url?: string; error?: string };
+    url = parsed.url ?? null;
+    message = parsed.error ?? null;
+  } catch {
+    url = res.headers.get('location');
   }
-  return cookie();
+  const sessionCookie = [...jar].find(([k]) => k.endsWith('next-auth.session-token'));
+  const signedIn = !!sessionCookie?.[1];
+  return {
+    status: res.status,
+    error: url ? new URL(url, baseUrl).searchParams.get('error') : null,
+    url,
+    cookie: signedIn ? cookie() : null,
+    retryAfter: res.headers.get('retry-after'),
+    message,
+    ms,
+  };
+}
+
+/** Signs in through next-auth's credentials flow and returns the session cookie header. */
+export async function signIn(email: string, password = demoPassword, opts: { address?: string } = {}): Promise<string> {
+  const res = await attemptSignIn(email, password, opts);
+  if (!res.cookie) throw new Error(`sign-in failed for ${email}: ${res.status} ${res.error ?? ''}`);
+  return res.cookie;
+}
+
+/** A fresh client address from the IPv6 documentation prefix (RFC 3849), so no two tests share counters. */
+export function testAddress(): string {
+  const h = randomBytes(8).toString('hex').match(/.{4}/g)!;
+  return `2001:db8:${h.slice(0, 2).join(':')}::${h.slice(2).join(':')}`;
 }
 
 export async function api(path: string, init: RequestInit & { cookie?: string; token?: string } = {}) {

@@ -24,8 +24,10 @@ describe('migrations', () => {
     expect(error).toBeUndefined();
     expect(results?.every((r) => r.status === 'Success')).toBe(true);
     expect(await tables()).toEqual(
-      expect.arrayContaining(['organizations', 'users', 'api_tokens', 'jurisdictions', 'audit_log', 'sign_in_throttle']),
+      expect.arrayContaining(['organizations', 'users', 'api_tokens', 'jurisdictions', 'audit_log', 'rate_limits']),
     );
+    // Sign-in attempts are counted in rate_limits; the e-mail-only lock table is gone.
+    expect(await tables()).not.toContain('sign_in_throttle');
   });
 
   it('are a no-op the second time', async () => {

@@ -51,7 +51,11 @@ type Send =
   | { form: () => Promise<FormData> }
   | { bytes: () => Uint8Array };
 
-type ApiRow = { path: (ids: Ids) => string; send?: Send; expect: Statuses };
+/**
+ * `ownAccounts`: the row is called by throwaway accounts of the six callers' roles, because the call acts on
+ * the caller's whole account (ending its other sessions) and the demo accounts are signed in by other tests.
+ */
+type ApiRow = { path: (ids: Ids) => string; send?: Send; expect: Statuses; ownAccounts?: true };
 
 const NIL_UUID = '00000000-0000-4000-8000-000000000000';
 
@@ -94,6 +98,8 @@ const apiMatrix: Record<string, ApiRow> = {
   'POST /api/tokens':                            { path: () => '/api/tokens', send: { json: () => ({ name: 'authorization matrix' }) }, expect: a(401, 201, 201, 201, 201, 201) },
   // Someone else's token is "no live token on your account", whoever asks.
   'DELETE /api/tokens/[id]':                     { path: (i) => `/api/tokens/${i.tokenId}`, expect: a(401, 200, 404, 404, 404, 404) },
+  // Ends the caller's other sessions; the current one stays, so the caller is still signed in.
+  'POST /api/sessions/revoke-others':           { path: () => '/api/sessions/revoke-others', expect: a(401, 200, 200, 200, 200, 200), ownAccounts: true },
   'POST /api/evaluations':                       { path: () => '/api/evaluations', send: { json: () => ({ jurisdiction: 'demo-county', plan: hallClosetPassPlan }) }, expect: a(401, 200, 200, 200, 200, 200) },
   'GET /api/projects':                           { path: () => '/api/projects', expect: a(401, 200, 200, 403, 403, 200) },
   'POST /api/projects':                          { path: () => '/api/projects', send: { json: () => ({ name: 'Matrix project (test)', siteAddress: '1 Matrix Way', jurisdiction: 'demo-county' }) }, expect: a(401, 201, 201, 403, 403, 403) },
@@ -259,6 +265,7 @@ describe('the matrix covers the file system', () => {
 // ---------------------------------------------------------------------------------------------
 
 const cookies = {} as Record<RoleName, string | undefined>;
+const ownAccountCookies = {} as Record<RoleName, string | undefined>;
 const ids = {} as Ids;
 
 function jurisdictionBody(slug: string) {
@@ -304,6 +311,23 @@ beforeAll(async () => {
     signIn('admin@nookpass.demo'),
   ]);
   cookies.anon = undefined;
+
+  // Throwaway accounts with the callers' roles and places, for rows that act on the whole account.
+  const secondCompany = await db.selectFrom('organizations').select('id').where('name', '=', 'Demo Second Company').executeTakeFirstOrThrow();
+  const firstCompany = await db.selectFrom('organizations').select('id').where('name', '=', 'Demo Closet Works').executeTakeFirstOrThrow();
+  const county = await db.selectFrom('jurisdictions').select('id').where('slug', '=', 'demo-county').executeTakeFirstOrThrow();
+  const own: [RoleName, 'installer' | 'inspector' | 'admin', string | null, string | null][] = [
+    ['owner', 'installer', firstCompany.id, null],
+    ['other', 'installer', secondCompany.id, null],
+    ['insp', 'inspector', null, county.id],
+    ['oinsp', 'inspector', null, city.id],
+    ['admin', 'admin', null, null],
+  ];
+  await Promise.all(own.map(async ([role, dbRole, organization_id, jurisdiction_id]) => {
+    const email = `matrix-own-${role}-${randomBytes(4).toString('hex')}@example.test`;
+    await db.insertInto('users').values({ email, name: `Matrix own ${role}`, role: dbRole, organization_id, jurisdiction_id, password_hash: await bcrypt.hash('matrix-own-pw', 4) }).execute();
+    ownAccountCookies[role] = await signIn(email, 'matrix-own-pw');
+  }));
   const owner = cookies.owner!;
   const admin = cookies.admin!;
 
@@ -331,7 +355,7 @@ afterAll(async () => {
 
 async function call(row: ApiRow, role: RoleName): Promise<number> {
   const headers = new Headers();
-  const cookie = cookies[role];
+  const cookie = (row.ownAccounts ? ownAccountCookies : cookies)[role];
   if (cookie) headers.set('cookie', cookie);
   let path = row.path(ids);
   if (path.includes(REVISION_PLACEHOLDER)) path = path.replace(REVISION_PLACEHOLDER, String(await draftRevision(ids.draftId)));

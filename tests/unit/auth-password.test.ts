@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import { describe, expect, it } from 'vitest';
-import { DUMMY_HASH, MIN_PASSWORD_LENGTH, hashPassword, verifyPassword } from '@/lib/platform/auth/password';
+import { MIN_PASSWORD_LENGTH, PASSWORD_COST, PasswordCheckBusyError, dummyHash, hashCost, hashPassword, needsRehash, verifyPassword } from '@/lib/platform/auth/password';
 
 describe('password hashing', () => {
   it('stores a bcrypt hash that verifies the password and nothing else', async () => {
@@ -28,7 +28,39 @@ describe('password hashing', () => {
     expect(await bcrypt.compare('interoperable-pass', hash)).toBe(true);
   });
 
-  it('has a dummy hash of the production cost for unknown e-mails', () => {
-    expect(DUMMY_HASH).toMatch(/^\$2[ab]\$12\$/);
+  it('compares unknown e-mails against a dummy hash of the cost real hashes are made with', async () => {
+    const dummy = await dummyHash();
+    expect(hashCost(dummy)).toBe(PASSWORD_COST);
+    expect(hashCost(await hashPassword('a new password', undefined))).toBe(PASSWORD_COST);
+    // OWASP Password Storage Cheat Sheet: bcrypt work factor 10 or more.
+    expect(PASSWORD_COST).toBeGreaterThanOrEqual(10);
+  });
+
+  it('asks for a rehash of hashes below the current cost, and of anything that is not bcrypt', async () => {
+    expect(needsRehash(await hashPassword('an older password', 4))).toBe(true);
+    expect(needsRehash(bcrypt.hashSync('made elsewhere', 10))).toBe(true);
+    expect(needsRehash(await dummyHash())).toBe(false);
+    expect(needsRehash('not a hash')).toBe(true);
+  });
+
+  it('reads hashes made by another bcrypt implementation ($2a$ and $2b$ prefixes)', async () => {
+    // The demo and test data were hashed with bcryptjs; OpenBSD bcrypt defines both prefixes.
+    const a = bcrypt.hashSync('written by bcryptjs', 4).replace(/^\$2b\$/, '$2a$');
+    expect(await verifyPassword('written by bcryptjs', a)).toBe(true);
+    expect(await verifyPassword('written by bcryptjs', bcrypt.hashSync('written by bcryptjs', 4))).toBe(true);
+  });
+
+  it('answers false, not an error, for a stored value that is not a hash', async () => {
+    expect(await verifyPassword('anything at all', 'not-a-bcrypt-hash')).toBe(false);
+  });
+
+  it('keeps the queue of waiting password checks bounded: past it the answer is "busy" at once', async () => {
+    const hash = await hashPassword('queue bound test', 4);
+    const results = await Promise.allSettled(Array.from({ length: 60 }, () => verifyPassword('queue bound test', hash)));
+    const busy = results.filter((r) => r.status === 'rejected' && r.reason instanceof PasswordCheckBusyError);
+    const checked = results.filter((r) => r.status === 'fulfilled' && r.value === true);
+    expect(busy.length).toBeGreaterThan(0);
+    expect(checked.length).toBeGreaterThanOrEqual(32);
+    expect(busy.length + checked.length).toBe(60);
   });
 });

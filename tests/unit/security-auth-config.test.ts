@@ -5,6 +5,16 @@ import { encode } from 'next-auth/jwt';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { authOptions } from '@/lib/platform/auth/options';
 
+// The session row lookup is the database's business; here every session is live.
+vi.mock('@/lib/platform/auth/sessions', async (importOriginal) => ({
+  ...(await importOriginal<typeof import('@/lib/platform/auth/sessions')>()),
+  requireLiveSession: vi.fn(async () => ({
+    id: '00000000-0000-4000-8000-000000000001',
+    expiresAt: new Date(Date.now() + 3600_000),
+    user: { id: 'u-1', email: 'unit@example.test', name: 'Unit', role: 'installer', organizationId: null, jurisdictionId: null, isDemo: false },
+  })),
+}));
+
 const SECRET = 'unit-test-secret-not-used-anywhere-else';
 
 // The core that NextAuth() runs behind our route handler; the package's exports map hides it, so it is loaded by file.
@@ -18,7 +28,8 @@ type InternalCookie = { name: string; value: string; options: { httpOnly?: boole
 async function refreshedSessionCookies(publicUrl: string): Promise<InternalCookie[]> {
   vi.stubEnv('NEXTAUTH_URL', publicUrl);
   const prefix = publicUrl.startsWith('https://') ? '__Secure-' : '';
-  const jwt = await encode({ token: { uid: 'u-1', role: 'installer', organizationId: null, jurisdictionId: null, email: 'unit@example.test', name: 'Unit' }, secret: SECRET });
+  const sessionExpiresAt = Math.floor(Date.now() / 1000) + 3600;
+  const jwt = await encode({ token: { uid: 'u-1', sid: '00000000-0000-4000-8000-000000000001', sessionExpiresAt, email: 'unit@example.test', name: 'Unit' }, secret: SECRET });
   const res = await AuthHandler({
     req: new Request(`${publicUrl}/api/auth/session`, { headers: { cookie: `${prefix}next-auth.session-token=${jwt}` } }),
     options: { ...authOptions, secret: SECRET },

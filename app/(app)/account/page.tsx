@@ -1,15 +1,18 @@
 import type { Metadata } from 'next';
 import { getDb } from '@/db';
+import { listLiveSessions } from '@/db/sessions';
 import { ApiTokens } from '@/components/account/api-tokens';
+import { Sessions } from '@/components/account/sessions';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';
-import { requirePageUser } from '@/lib/platform/auth/session';
+import { requirePageSession } from '@/lib/platform/auth/session';
 
 export const metadata: Metadata = { title: 'Account' };
 
 export default async function AccountPage() {
-  const user = await requirePageUser(pageRoles['/account'], '/account');
+  const { user, sessionId } = await requirePageSession(pageRoles['/account'], '/account');
   const db = getDb();
+  const sessions = await listLiveSessions(db, user.id);
   const org = user.organizationId
     ? await db.selectFrom('organizations').select(['name', 'license_number']).where('id', '=', user.organizationId).executeTakeFirst()
     : null;
@@ -30,6 +33,9 @@ export default async function AccountPage() {
           </dl>
         </section>
         <ApiTokens />
+      </div>
+      <div className="mt-6">
+        <Sessions sessions={sessions} currentId={sessionId} />
       </div>
     </>
   );

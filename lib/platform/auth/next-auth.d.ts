@@ -1,28 +1,28 @@
-import type { DefaultSession } from 'next-auth';
-import type { Role } from '@/lib/domain/roles';
+import type { AppUser } from '@/lib/domain/roles';
 
 declare module 'next-auth' {
-  interface User {
-    id: string;
-    role: Role;
-    organizationId: string | null;
-    jurisdictionId: string | null;
+  interface User extends AppUser {
+    /** The session row this sign-in started (db/sessions.ts). */
+    sessionId: string;
+    /** Its absolute expiry, epoch seconds. */
+    sessionExpiresAt: number;
   }
   interface Session {
-    user: DefaultSession['user'] & {
-      id: string;
-      role: Role;
-      organizationId: string | null;
-      jurisdictionId: string | null;
-    };
+    /** Absent when the session could not be checked (`unavailable`). */
+    user?: AppUser & { sessionId: string };
+    expires: string;
+    /** The database did not answer: the caller gets a 503, and stays signed in. */
+    unavailable?: true;
   }
 }
 
 declare module 'next-auth/jwt' {
   interface JWT {
     uid: string;
-    role: Role;
-    organizationId: string | null;
-    jurisdictionId: string | null;
+    sid: string;
+    sessionExpiresAt: number;
+    /** Loaded from the database on each read, never trusted from an older cookie. */
+    user?: AppUser;
+    unavailable?: true;
   }
 }

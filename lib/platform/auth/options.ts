@@ -1,60 +1,99 @@
 import 'server-only';
 import type { NextAuthOptions } from 'next-auth';
+import { encode as encodeJwt } from 'next-auth/jwt';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { getDb } from '@/db';
-import { clearFailedSignIns, lockRemainingMs, recordFailedSignIn } from '@/db/sign-in-throttle';
-import { findUserForSignIn, normalizeEmail } from '@/db/users';
-import { DUMMY_HASH, verifyPassword } from '@/lib/platform/auth/password';
+import { normalizeEmail } from '@/db/users';
+import { clientAddress } from '@/lib/platform/rate-limit';
+import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
+import { PasswordCheckBusyError } from '@/lib/platform/auth/password';
+import { checkCredentials, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from '@/lib/platform/auth/sign-in';
+import { SIGN_IN_BUSY } from '@/lib/platform/auth/sign-in-messages';
+import { SESSION_LIFETIME_SECONDS, SessionEndedError, endSession, remainingSeconds, requireLiveSession, startSession } from '@/lib/platform/auth/sessions';
 
-export const THROTTLED_ERROR = 'throttled';
-const SESSION_HOURS = 12;
+/** Expected ends of a session are not errors worth a log line: a signed-out or expired cookie came back. */
+function isEndedSession(metadata: unknown): boolean {
+  const err = metadata as { name?: string; code?: string } | undefined;
+  return metadata instanceof SessionEndedError || err?.name === 'SessionEndedError' || err?.code === 'ERR_JWT_EXPIRED';
+}
 
 export const authOptions: NextAuthOptions = {
   secret: process.env.NEXTAUTH_SECRET,
-  session: { strategy: 'jwt', maxAge: SESSION_HOURS * 3600 },
+  // The cookie's maxAge equals the session row's lifetime; next-auth v4 ignores updateAge for JWT sessions.
+  session: { strategy: 'jwt', maxAge: SESSION_LIFETIME_SECONDS },
+  jwt: {
+    // The JWT's own exp never passes the session's absolute expiry, whenever next-auth re-encodes it.
+    encode: (params) => encodeJwt({ ...params, maxAge: remainingSeconds(params.token?.sessionExpiresAt, params.maxAge ?? SESSION_LIFETIME_SECONDS) }),
+  },
+  logger: {
+    error(code, metadata) {
+      if (isEndedSession(metadata)) return;
+      console.error(`[next-auth][error][${code}]`, metadata);
+    },
+    warn(code) {
+      console.warn(`[next-auth][warn][${code}]`);
+    },
+    debug() {},
+  },
   pages: { signIn: '/sign-in', signOut: '/sign-out', error: '/sign-in' },
   providers: [
     CredentialsProvider({
       name: 'E-mail and password',
       credentials: { email: { label: 'E-mail', type: 'email' }, password: { label: 'Password', type: 'password' } },
-      async authorize(credentials) {
+      // The route in front of next-auth has already counted this attempt (refuseThrottledSignIn).
+      async authorize(credentials, req) {
         const email = normalizeEmail(String(credentials?.email ?? ''));
         const password = String(credentials?.password ?? '');
-        if (!email || !password || email.length > 320 || password.length > 1024) return null;
-        const db = getDb();
-        if ((await lockRemainingMs(db, email)) > 0) throw new Error(THROTTLED_ERROR);
-        const found = await findUserForSignIn(db, email);
-        // Unknown e-mail and wrong password take the same path and time, and get the same answer.
-        const ok = await verifyPassword(password, found?.passwordHash ?? DUMMY_HASH);
-        if (!found || !ok) {
-          await recordFailedSignIn(db, email);
-          return null;
+        if (!email || !password || email.length > MAX_EMAIL_LENGTH || password.length > MAX_PASSWORD_LENGTH) return null;
+        let user;
+        try {
+          user = await checkCredentials(getDb(), email, password);
+        } catch (err) {
+          if (err instanceof PasswordCheckBusyError) throw new Error(SIGN_IN_BUSY);
+          throw err;
         }
-        await clearFailedSignIns(db, email);
-        const u = found.user;
-        return { id: u.id, email: u.email, name: u.name, role: u.role, organizationId: u.organizationId, jurisdictionId: u.jurisdictionId };
+        if (!user) return null;
+        const headers = new Headers(req.headers as Record<string, string>);
+        await signInSucceeded(email, clientAddress({ headers }));
+        const session = await startSession(user.id, headers);
+        return { ...user, sessionId: session.id, sessionExpiresAt: session.expiresAtSeconds };
       },
     }),
   ],
   callbacks: {
+    // next-auth's default passes any string that starts with a slash, backslash tricks included.
+    redirect({ url, baseUrl }) {
+      const origin = new URL(baseUrl).origin;
+      return origin + safeCallbackPath(url, { origin });
+    },
+    // Runs on every session read (getServerSession, /api/auth/session): the session row must still be live.
     async jwt({ token, user }) {
       if (user) {
         token.uid = user.id;
-        token.role = user.role;
-        token.organizationId = user.organizationId;
-        token.jurisdictionId = user.jurisdictionId;
+        token.sid = user.sessionId;
+        token.sessionExpiresAt = user.sessionExpiresAt;
+        return token;
       }
-      return token;
+      try {
+        const live = await requireLiveSession(token.sid, token.uid);
+        // The user as stored now, so a changed role or name takes effect at once.
+        return { ...token, user: live.user, unavailable: undefined };
+      } catch (err) {
+        if (err instanceof SessionEndedError) throw err;
+        // The database could not say: that is an outage (503), not a reason to sign anyone out.
+        console.error('[auth] session lookup failed:', (err as Error)?.message ?? err);
+        return { ...token, user: undefined, unavailable: true };
+      }
     },
-    async session({ session, token }) {
-      session.user = {
-        ...session.user,
-        id: token.uid,
-        role: token.role,
-        organizationId: token.organizationId,
-        jurisdictionId: token.jurisdictionId,
-      };
-      return session;
+    async session({ token }) {
+      const expires = new Date(token.sessionExpiresAt * 1000).toISOString();
+      if (token.unavailable || !token.user) return { unavailable: true, expires };
+      return { user: { ...token.user, sessionId: token.sid }, expires };
+    },
+  },
+  events: {
+    async signOut({ token }) {
+      await endSession(token?.sid);
     },
   },
 };

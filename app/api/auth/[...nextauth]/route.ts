@@ -1,5 +1,33 @@
 import NextAuth from 'next-auth';
+import type { NextRequest } from 'next/server';
 import { authOptions } from '@/lib/platform/auth/options';
+import { withoutReissuedSessionCookie } from '@/lib/platform/auth/sessions';
+import { refuseThrottledSignIn } from '@/lib/platform/auth/sign-in';
+
+type Ctx = { params: Promise<{ nextauth: string[] }> };
 
 const handler = NextAuth(authOptions);
-export { handler as GET, handler as POST };
+
+async function action(ctx: Ctx): Promise<[string | undefined, string | undefined]> {
+  const [name, provider] = (await ctx.params).nextauth ?? [];
+  return [name, provider];
+}
+
+/** Reading the session never stretches the cookie past the session's absolute expiry. */
+async function GET(request: NextRequest, ctx: Ctx) {
+  const response: Response = await handler(request, ctx);
+  return (await action(ctx))[0] === 'session' ? withoutReissuedSessionCookie(response) : response;
+}
+
+/** Sign-in attempts are counted, and refused when over the limit, before next-auth checks a password. */
+async function POST(request: NextRequest, ctx: Ctx) {
+  const [name, provider] = await action(ctx);
+  if (name === 'callback' && provider === 'credentials') {
+    const refused = await refuseThrottledSignIn(request, new URL(process.env.NEXTAUTH_URL ?? request.url).origin);
+    if (refused) return refused;
+  }
+  const response: Response = await handler(request, ctx);
+  return name === 'session' ? withoutReissuedSessionCookie(response) : response;
+}
+
+export { GET, POST };
