@@ -1,6 +1,7 @@
 import type { DB } from '@/db/index';
 import type { AppUser } from '@/lib/domain/roles';
 import { getProject } from '@/db/projects';
+import { PLAN_SCHEMA_VERSION, readStoredPlan, upgradePlan } from '@/lib/domain/plan/upgrade';
 
 export type PlanRevision = {
   id: string;
@@ -19,18 +20,20 @@ function revisionQuery(db: DB) {
   return db
     .selectFrom('plan_revisions as r')
     .leftJoin('users as u', 'u.id', 'r.created_by')
-    .select(['r.id', 'r.project_id', 'r.number', 'r.plan', 'r.canonical', 'r.change_summary', 'r.created_by', 'r.created_at', 'u.name as created_by_name']);
+    .select(['r.id', 'r.project_id', 'r.number', 'r.plan', 'r.canonical', 'r.schema_version', 'r.change_summary', 'r.created_by', 'r.created_at', 'u.name as created_by_name']);
 }
 
 type Row = Awaited<ReturnType<ReturnType<typeof revisionQuery>['executeTakeFirstOrThrow']>>;
 
+/** A revision in today's plan shape, whatever version it was saved with (the row itself never changes). */
 function toRevision(r: Row): PlanRevision {
+  const { plan, canonical } = readStoredPlan({ plan: r.plan, canonical: r.canonical }, r.schema_version);
   return {
     id: r.id,
     projectId: r.project_id,
     number: r.number,
-    plan: r.plan,
-    canonical: r.canonical,
+    plan,
+    canonical,
     changeSummary: r.change_summary,
     createdBy: { id: r.created_by, name: r.created_by_name },
     createdAt: r.created_at,
@@ -38,8 +41,9 @@ function toRevision(r: Row): PlanRevision {
 }
 
 /**
- * Appends a plan revision; earlier revisions are never touched. `describe` is given the previous
- * revision's plan (null for the first) and returns the change summary stored with the new one.
+ * Appends a plan revision in today's plan shape; earlier revisions are never touched. `describe` is
+ * given the previous revision's plan in today's shape (null for the first) and returns the change
+ * summary stored with the new one.
  */
 export async function appendPlanRevision(
   db: DB,
@@ -52,12 +56,12 @@ export async function appendPlanRevision(
     await trx.selectFrom('projects').select('id').where('id', '=', projectId).forUpdate().executeTakeFirstOrThrow();
     const prev = await trx
       .selectFrom('plan_revisions')
-      .select(['number', 'plan'])
+      .select(['number', 'plan', 'schema_version'])
       .where('project_id', '=', projectId)
       .orderBy('number', 'desc')
       .limit(1)
       .executeTakeFirst();
-    const summary = describe(prev ? prev.plan : null);
+    const summary = describe(prev ? upgradePlan(prev.plan, prev.schema_version) : null);
     const row = await trx
       .insertInto('plan_revisions')
       .values({
@@ -65,6 +69,7 @@ export async function appendPlanRevision(
         number: (prev?.number ?? 0) + 1,
         plan: JSON.stringify(plan),
         canonical: JSON.stringify(canonical),
+        schema_version: PLAN_SCHEMA_VERSION,
         change_summary: summary,
         created_by: createdBy,
       })
@@ -95,19 +100,19 @@ export async function getPlanRevision(db: DB, user: AppUser, projectId: string, 
 
 export type ProjectPlanRow = { id: string; name: string; organization: string; revisionNumber: number; plan: unknown };
 
-/** The latest plan revision of every open project in a jurisdiction (what a dry run evaluates). */
+/** The latest plan revision of every open project in a jurisdiction, in today's plan shape (what a dry run evaluates). */
 export async function listLatestPlansInJurisdiction(db: DB, jurisdictionId: string): Promise<ProjectPlanRow[]> {
   const rows = await db
     .selectFrom('projects as p')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoinLateral(
-      (eb) => eb.selectFrom('plan_revisions as r').select(['r.number', 'r.plan']).whereRef('r.project_id', '=', 'p.id').orderBy('r.number', 'desc').limit(1).as('lr'),
+      (eb) => eb.selectFrom('plan_revisions as r').select(['r.number', 'r.plan', 'r.schema_version']).whereRef('r.project_id', '=', 'p.id').orderBy('r.number', 'desc').limit(1).as('lr'),
       (join) => join.onTrue(),
     )
-    .select(['p.id', 'p.name', 'o.name as organization', 'lr.number', 'lr.plan'])
+    .select(['p.id', 'p.name', 'o.name as organization', 'lr.number', 'lr.plan', 'lr.schema_version'])
     .where('p.jurisdiction_id', '=', jurisdictionId)
     .where('p.archived_at', 'is', null)
     .orderBy('p.name')
     .execute();
-  return rows.map((r) => ({ id: r.id, name: r.name, organization: r.organization, revisionNumber: r.number, plan: r.plan }));
+  return rows.map((r) => ({ id: r.id, name: r.name, organization: r.organization, revisionNumber: r.number, plan: upgradePlan(r.plan, r.schema_version) }));
 }

@@ -2,6 +2,7 @@ import type { DB } from '@/db/index';
 import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
 import type { ReviewOutcome } from '@/db/types';
+import { readStoredReport, REPORT_SCHEMA_VERSION } from '@/lib/domain/reports/stored';
 
 export type IssuedReport = {
   id: string;
@@ -23,6 +24,7 @@ function reportQuery(db: DB) {
 type Row = Awaited<ReturnType<ReturnType<typeof reportQuery>['executeTakeFirstOrThrow']>>;
 
 function toReport(r: Row): IssuedReport {
+  const stored = readStoredReport({ attachmentIds: r.attachment_ids }, r.schema_version);
   return {
     id: r.id,
     checkId: r.check_id,
@@ -31,7 +33,7 @@ function toReport(r: Row): IssuedReport {
     byteSize: r.byte_size,
     pageCount: r.page_count,
     storageKey: r.storage_key,
-    attachmentIds: r.attachment_ids as string[],
+    attachmentIds: stored.attachmentIds,
     createdBy: r.created_by,
     createdAt: r.created_at,
   };
@@ -49,6 +51,7 @@ export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'created
         page_count: r.pageCount,
         storage_key: r.storageKey,
         attachment_ids: JSON.stringify(r.attachmentIds),
+        schema_version: REPORT_SCHEMA_VERSION,
         created_by: r.createdBy,
       })
       .returningAll()

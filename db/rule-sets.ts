@@ -3,6 +3,7 @@ import { writeAudit } from '@/db/audit';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import type { RuleSetStatus } from '@/db/types';
 import type { RuleSetParameters } from '@/lib/domain/params';
+import { PARAMETERS_SCHEMA_VERSION, upgradeParameters } from '@/lib/domain/params/upgrade';
 import type { StoredRule } from '@/lib/domain/rule-format';
 
 export type RuleSetVersion = {
@@ -11,6 +12,7 @@ export type RuleSetVersion = {
   jurisdictionSlug: string;
   version: number;
   status: RuleSetStatus;
+  /** In today's shape, whatever version they were stored with. */
   parameters: RuleSetParameters;
   changelog: string;
   revision: number;
@@ -32,7 +34,7 @@ function versionQuery(db: DB) {
     .leftJoin('users as cu', 'cu.id', 's.created_by')
     .leftJoin('users as pu', 'pu.id', 's.published_by')
     .select([
-      's.id', 's.jurisdiction_id', 'j.slug as jurisdiction_slug', 's.version', 's.status', 's.parameters', 's.changelog',
+      's.id', 's.jurisdiction_id', 'j.slug as jurisdiction_slug', 's.version', 's.status', 's.parameters', 's.schema_version', 's.changelog',
       's.revision', 's.published_at', 's.created_at', 's.updated_at', 's.based_on_id', 's.retired_at',
       'cu.email as created_by_email', 'pu.email as published_by_email',
     ]);
@@ -47,7 +49,8 @@ function toVersion(r: Row): RuleSetVersion {
     jurisdictionSlug: r.jurisdiction_slug,
     version: r.version,
     status: r.status,
-    parameters: r.parameters as RuleSetParameters,
+    // Upgraded here, where the row becomes an app object, so no reader can meet an old shape.
+    parameters: upgradeParameters(r.parameters, r.schema_version) as RuleSetParameters,
     changelog: r.changelog,
     revision: r.revision,
     publishedAt: r.published_at,
@@ -199,6 +202,7 @@ export async function insertDraft(trx: DB, input: DraftInput): Promise<RuleSetVe
       jurisdiction_id: input.jurisdictionId,
       version,
       parameters: JSON.stringify(input.parameters),
+      schema_version: PARAMETERS_SCHEMA_VERSION,
       based_on_id: input.basedOnId,
       created_by: input.actorUserId,
     })
@@ -266,7 +270,8 @@ export async function saveDraft(
       const set: { parameters?: string; changelog?: string } = {};
       if (input.parameters) set.parameters = JSON.stringify(input.parameters);
       if (input.changelog !== undefined) set.changelog = input.changelog;
-      if (Object.keys(set).length) await trx.updateTable('rule_sets').set(set).where('id', '=', input.id).execute();
+      const version = set.parameters ? { schema_version: PARAMETERS_SCHEMA_VERSION } : {};
+      if (Object.keys(set).length) await trx.updateTable('rule_sets').set({ ...set, ...version }).where('id', '=', input.id).execute();
       await writeAudit(trx, {
         actorUserId: input.actorUserId,
         action: 'rule-set.draft.save',

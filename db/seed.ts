@@ -5,6 +5,7 @@ import { toJurisdiction } from '@/db/jurisdictions';
 import { createPublishedVersion } from '@/db/rule-sets';
 import { hashAtCurrentCost, needsRehash, verifyPassword } from '@/lib/platform/auth/password';
 import { parsePlan } from '@/lib/domain/plan';
+import { PLAN_SCHEMA_VERSION } from '@/lib/domain/plan/upgrade';
 import { buildRuleSet } from '@/rules';
 
 /** Seeds the invented demo scenario. Idempotent: a second run changes no rows. */
@@ -116,6 +117,7 @@ export async function seedDemo(db: DB): Promise<void> {
           number: 1,
           plan: JSON.stringify(plan),
           canonical: JSON.stringify(parsed.plan),
+          schema_version: PLAN_SCHEMA_VERSION,
           change_summary: 'First plan (demo)',
           created_by: author.id,
         })

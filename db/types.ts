@@ -92,6 +92,8 @@ export interface RuleSetsTable {
   version: number;
   status: Generated<RuleSetStatus>;
   parameters: Json<unknown>;
+  /** Schema version of `parameters` (lib/domain/params/upgrade). */
+  schema_version: number;
   changelog: Generated<string>;
   based_on_id: string | null;
   revision: Generated<number>;
@@ -136,6 +138,8 @@ export interface PlanRevisionsTable {
   number: number;
   plan: Json<unknown>;
   canonical: Json<unknown>;
+  /** Schema version of `plan` and `canonical` (lib/domain/plan/upgrade). */
+  schema_version: number;
   change_summary: Generated<string>;
   created_by: string | null;
   created_at: CreatedAt;
@@ -151,6 +155,8 @@ export interface ChecksTable {
   facts: Json<unknown>;
   findings: Json<unknown>;
   summary: Json<unknown>;
+  /** Schema version of the check's JSON columns (lib/domain/checks/stored). */
+  schema_version: number;
   outcome: CheckOutcome;
   duration_ms: number;
   created_by: string | null;
@@ -184,6 +190,8 @@ export interface ReportsTable {
   page_count: number;
   storage_key: string;
   attachment_ids: Json<string[]>;
+  /** Schema version of the report's JSON columns (lib/domain/reports/stored). */
+  schema_version: number;
   created_by: string | null;
   created_at: CreatedAt;
 }

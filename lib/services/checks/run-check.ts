@@ -16,7 +16,8 @@ export async function runCheck(db: DB, user: AppUser, projectId: string, revisio
   }
   const ruleSet = await publishedRuleSetOf(db, project.jurisdiction.id);
   if (!ruleSet) throw new ConflictError(`${project.jurisdiction.name} has no published rule set yet; ask an administrator to publish one.`);
-  // Parse again from what the installer entered, so the check uses today's unit parsing and never a stale form.
+  // Parse again from what the installer entered (upgraded to today's shape by the repository), so the
+  // check uses today's unit parsing and never a stale form.
   const plan = parsePlanOrThrow(revision.plan);
   const started = performance.now();
   const evaluation = await evaluateUnder(ruleSet, plan);

@@ -1,9 +1,9 @@
 import 'server-only';
 import type { DB } from '@/db';
 import { listAttachments } from '@/db/attachments';
+import { findCheckById } from '@/db/checks';
 import { findReportById } from '@/db/reports';
 import type { AppUser } from '@/lib/domain/roles';
-import type { Finding, EvaluationSummary } from '@/lib/domain/engine';
 import { NotFoundError } from '@/lib/domain/errors';
 import { assertCanReadReport } from '@/lib/services/reports/access';
 
@@ -12,7 +12,8 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   const report = await findReportById(db, reportId);
   if (!report) throw new NotFoundError('No such report for your jurisdiction.');
   const { projectId } = await assertCanReadReport(db, user, report);
-  const check = await db.selectFrom('checks').select(['findings', 'summary', 'created_at', 'plan_revision_id']).where('id', '=', report.checkId).executeTakeFirstOrThrow();
+  const check = await findCheckById(db, report.checkId);
+  if (!check) throw new NotFoundError('The check of this report is missing.');
   const project = await db
     .selectFrom('projects as p')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
@@ -32,7 +33,7 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   return {
     report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount },
     project,
-    check: { findings: check.findings as Finding[], summary: check.summary as EvaluationSummary, createdAt: check.created_at },
+    check: { findings: check.findings, summary: check.summary, createdAt: check.createdAt },
     attachments,
     reviews,
   };

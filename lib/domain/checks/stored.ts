@@ -1,0 +1,43 @@
+import { upgradeStored, type UpgradeChain } from '@/lib/domain/history/upgrade';
+import { planUpgrades } from '@/lib/domain/plan/upgrade';
+
+/**
+ * The shape of a check's stored JSON (inputs, facts, findings, summary) that this build writes and
+ * reads. Version 1 records, in its inputs, the plan schema version of the plan it evaluated.
+ */
+export const CHECK_SCHEMA_VERSION = 1;
+
+export type StoredCheckJson = {
+  inputs: { plan: unknown; canonical: unknown; planSchemaVersion: number };
+  facts: unknown;
+  findings: unknown;
+  summary: unknown;
+};
+
+export const checkUpgrades: UpgradeChain = {
+  what: 'Check',
+  current: CHECK_SCHEMA_VERSION,
+  steps: {
+    // Before versions were recorded a check held its plan revision's plan verbatim, and that plan was
+    // itself written before versions were recorded: plan version 0.
+    0: (stored) => {
+      const check = stored as { inputs?: Record<string, unknown> };
+      return { ...check, inputs: { ...check.inputs, planSchemaVersion: 0 } };
+    },
+  },
+};
+
+/**
+ * A stored check in today's shape, never re-evaluated: its findings, facts and summary as stored, and
+ * the plan it evaluated brought to today's plan shape (for drawings and comparisons). The canonical
+ * plan stays as stored: it is the record of what the engine saw.
+ */
+export function readStoredCheck(
+  stored: { inputs: unknown; facts: unknown; findings: unknown; summary: unknown },
+  fromVersion: number,
+  chains: { check: UpgradeChain; plan: UpgradeChain } = { check: checkUpgrades, plan: planUpgrades },
+): { inputs: { plan: unknown; canonical: unknown }; facts: unknown; findings: unknown; summary: unknown } {
+  const check = upgradeStored(stored, fromVersion, chains.check) as StoredCheckJson;
+  const { plan, canonical, planSchemaVersion } = check.inputs;
+  return { ...check, inputs: { plan: upgradeStored(plan, planSchemaVersion, chains.plan), canonical } };
+}
