@@ -85,6 +85,37 @@ describe('uploads', () => {
     expect(await countAttachments()).toBe(before);
   });
 
+  it('accepts a file of exactly 15 MB and refuses one byte more, extra files and unknown fields, naming the part', { timeout: 60_000 }, async () => {
+    const MAX = 15 * 1024 * 1024; // lib/uploads.ts MAX_UPLOAD_BYTES
+    const pdfOf = (size: number) => Buffer.concat([Buffer.from('%PDF-1.4\n'), Buffer.alloc(size - 9, 0x20)]);
+    const atLimit = await upload(installer, 'at-limit.pdf', pdfOf(MAX), 'application/pdf');
+    expect(atLimit.status, JSON.stringify(atLimit.body)).toBe(201);
+    expect(atLimit.body.byteSize).toBe(MAX);
+    expect((await api(`/api/attachments/${atLimit.body.id}`, { method: 'DELETE', cookie: installer })).status).toBe(200);
+    expect((await upload(installer, 'over.pdf', pdfOf(MAX + 1), 'application/pdf')).status).toBe(413);
+
+    const before = await countAttachments();
+    const png = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#123456' } }).png().toBuffer();
+    const post = async (form: FormData) => {
+      const res = await fetch(`${baseUrl}/api/projects/${projectId}/attachments`, { method: 'POST', headers: { cookie: installer }, body: form });
+      return { status: res.status, body: await res.json() };
+    };
+    const two = new FormData();
+    two.append('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), 'a.png');
+    two.append('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), 'b.png');
+    expect((await post(two)).status).toBe(400);
+    const extra = new FormData();
+    extra.set('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), 'a.png');
+    extra.set('owner', 'someone else');
+    const extraRes = await post(extra);
+    expect(extraRes.status).toBe(400);
+    expect(extraRes.body.errors[0].path).toBe('owner');
+    const long = await upload(installer, 'a.png', png, 'image/png', 'x'.repeat(301));
+    expect(long.status).toBe(400);
+    expect(long.body.errors[0].path).toBe('caption');
+    expect(await countAttachments()).toBe(before);
+  });
+
   it('strips folders from the file name', async () => {
     const png = await sharp({ create: { width: 20, height: 20, channels: 3, background: '#fff' } }).png().toBuffer();
     const res = await upload(installer, '../../etc/passwd.png', png, 'image/png');
@@ -240,3 +271,4 @@ describe('sending to the inspector and the review', () => {
     await expect(db.updateTable('inspection_reviews').set({ outcome: 'approved' }).where('report_id', '=', reportId).execute()).rejects.toThrow(/append-only/);
   });
 });
+
