@@ -40,6 +40,8 @@ export function toAttachment(r: Selectable<AttachmentsTable>): Attachment {
 }
 
 export const displayKey = (storageKey: string) => `${storageKey}.display.jpg`;
+/** The photo without its metadata, served to everyone outside the uploader's company. */
+export const withoutMetadataKey = (storageKey: string) => `${storageKey}.no-metadata`;
 
 export async function insertAttachment(
   db: DB,

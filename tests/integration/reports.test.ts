@@ -1,4 +1,5 @@
 import bcrypt from 'bcryptjs';
+import { parse as parseContentDisposition } from 'content-disposition';
 import sharp from 'sharp';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -126,6 +127,27 @@ describe('uploads', () => {
     expect((await raw(`/api/attachments/${res.body.id}`, installer)).status).toBe(404);
   });
 
+  it('takes and serves a file named outside Latin-1, with its thumbnail', async () => {
+    const name = 'фото-😀.png';
+    const png = await sharp({ create: { width: 40, height: 30, channels: 3, background: '#88aa66' } }).png().toBuffer();
+    const res = await upload(installer, name, png, 'image/png');
+    expect(res.status).toBe(201);
+    expect(res.body.filename).toBe(name);
+    const orig = await raw(`/api/attachments/${res.body.id}`, installer);
+    expect(orig.status).toBe(200);
+    expect(orig.bytes.equals(png)).toBe(true);
+    // RFC 6266 §4.3 / RFC 8187: filename* carries the UTF-8 name, filename a plain fallback.
+    const header = orig.headers.get('content-disposition')!;
+    expect(header).toContain(`filename*=UTF-8''${encodeURIComponent('фото-')}`);
+    const parsed = parseContentDisposition(header);
+    expect(parsed.type).toBe('inline');
+    expect(parsed.parameters.filename).toBe(name); // the package prefers filename* when both are there
+    const thumb = await raw(`/api/attachments/${res.body.id}?variant=thumb`, installer);
+    expect(thumb.status).toBe(200);
+    expect(parseContentDisposition(thumb.headers.get('content-disposition')!).parameters.filename).toBe('фото-😀.jpg');
+    expect((await sharp(thumb.bytes).metadata()).format).toBe('jpeg');
+  });
+
   it('keeps files away from another company', async () => {
     const list = await api(`/api/projects/${projectId}/attachments`, { cookie: installer });
     const id = list.body.attachments[0].id;
@@ -146,7 +168,8 @@ describe('report download and verification', () => {
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toBe('application/pdf');
     code = res.headers.get('x-report-code')!;
-    expect(res.headers.get('content-disposition')).toBe(`attachment; filename="nookpass-it-report-project-ixi-${code}.pdf"`);
+    const disposition = parseContentDisposition(res.headers.get('content-disposition')!);
+    expect(disposition).toMatchObject({ type: 'attachment', parameters: { filename: `nookpass-it-report-project-ixi-${code}.pdf` } });
     pdf = res.bytes;
     const doc = await getDocumentProxy(new Uint8Array(pdf));
     const { text } = await extractText(doc, { mergePages: true });
@@ -272,3 +295,33 @@ describe('sending to the inspector and the review', () => {
   });
 });
 
+describe('photos seen outside the company', () => {
+  it('serves the original to the company with its GPS position and to the inspector without any metadata', { timeout: 60_000 }, async () => {
+    // EXIF 2.32: GPS data sits in the GPS IFD, reached through tag 34853 (0x8825) of IFD0.
+    const gpsPointer = Buffer.from([0x25, 0x88]); // little-endian ("II"), as sharp writes it
+    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#5577aa' } })
+      .withExif({ IFD0: { ImageDescription: 'test photo' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 1234/100', GPSLongitudeRef: 'W', GPSLongitude: '0/1 7/1 500/100' } })
+      .jpeg()
+      .toBuffer();
+    const source = await sharp(jpeg).metadata();
+    expect(source.exif?.includes(gpsPointer)).toBe(true);
+    const res = await upload(installer, 'site-with-position.jpg', jpeg, 'image/jpeg', 'Photo with a GPS position');
+    expect(res.status).toBe(201);
+    const sent = await api(`/api/checks/${checkId}/send`, postJson({}, { cookie: installer }));
+    expect(sent.status).toBe(201);
+
+    const own = await raw(`/api/attachments/${res.body.id}`, installer);
+    expect(own.bytes.equals(jpeg)).toBe(true);
+    const theirs = await raw(`/api/attachments/${res.body.id}`, inspector);
+    expect(theirs.status).toBe(200);
+    expect(theirs.headers.get('content-type')).toBe('image/jpeg');
+    const meta = await sharp(theirs.bytes).metadata();
+    expect(meta.exif).toBeUndefined();
+    expect(meta.xmp).toBeUndefined();
+    expect([meta.width, meta.height]).toEqual([320, 240]);
+    expect(theirs.bytes.includes(Buffer.from('Exif\0\0', 'latin1'))).toBe(false); // no APP1 EXIF segment (JFIF/EXIF 2.32 §4.5.4)
+    for (const variant of ['thumb', 'display']) {
+      expect((await sharp((await raw(`/api/attachments/${res.body.id}?variant=${variant}`, inspector)).bytes).metadata()).exif, variant).toBeUndefined();
+    }
+  });
+});

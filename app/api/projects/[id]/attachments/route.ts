@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { getDb } from '@/db';
-import { displayKey, insertAttachment, listAttachments } from '@/db/attachments';
+import { displayKey, insertAttachment, listAttachments, withoutMetadataKey } from '@/db/attachments';
 import { getProject } from '@/db/projects';
 import { requireUser } from '@/lib/auth/session';
 import { ValidationError } from '@/lib/errors';
@@ -48,6 +48,10 @@ export const POST = route<Ctx>(async (request, { params }) => {
     if (checked.display) {
       await putObject(displayKey(key), checked.display, 'image/jpeg');
       written.push(displayKey(key));
+    }
+    if (checked.withoutMetadata) {
+      await putObject(withoutMetadataKey(key), checked.withoutMetadata, checked.contentType);
+      written.push(withoutMetadataKey(key));
     }
     const saved = await insertAttachment(
       db,
