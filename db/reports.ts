@@ -1,3 +1,4 @@
+import { normalizeReportCode } from '@/lib/report/code';
 import type { DB } from './index';
 import { writeAudit } from './audit';
 import type { ReviewOutcome } from './types';
@@ -57,8 +58,10 @@ export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'created
   });
 }
 
-export async function findReportByCode(db: DB, code: string): Promise<IssuedReport | null> {
-  const row = await reportQuery(db).where('code', '=', code.trim().toUpperCase()).executeTakeFirst();
+export async function findReportByCode(db: DB, input: string): Promise<IssuedReport | null> {
+  const code = normalizeReportCode(input);
+  if (!code) return null;
+  const row = await reportQuery(db).where('code', '=', code).executeTakeFirst();
   return row ? toReport(row) : null;
 }
 
@@ -69,7 +72,9 @@ export async function findReportById(db: DB, id: string): Promise<IssuedReport |
 }
 
 /** What the public verification page may show: enough to trust the paper, nothing more. */
-export async function publicReportFacts(db: DB, code: string) {
+export async function publicReportFacts(db: DB, input: string) {
+  const code = normalizeReportCode(input);
+  if (!code) return undefined;
   return db
     .selectFrom('reports as r')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
@@ -80,7 +85,7 @@ export async function publicReportFacts(db: DB, code: string) {
       'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'p.name as project_name', 'p.site_address',
       'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name',
     ])
-    .where('r.code', '=', code.trim().toUpperCase())
+    .where('r.code', '=', code)
     .executeTakeFirst();
 }
 

@@ -11,7 +11,8 @@ import { NotFoundError } from '@/lib/errors';
 import { parsePlan } from '@/lib/plan';
 import { getObject, putObject } from '@/lib/storage';
 import type { ReportData } from './report-data';
-import { newReportCode, renderReportPdf } from './render';
+import { newReportCode } from './code';
+import { renderReportPdf } from './render';
 
 export function publicBaseUrl(): string {
   return (process.env.NOOKPASS_PUBLIC_URL ?? process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000').replace(/\/$/, '');

@@ -18,9 +18,9 @@ test('installer downloads and sends a report, the verification page accepts it, 
 
   // Download: a PDF whose code the verification page knows.
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('download-report').click()]);
-  expect(download.suggestedFilename()).toMatch(/^nookpass-demo-bypass-door-closet-48-sample-road-NP-[A-Z2-9]{4}-[A-Z2-9]{4}\.pdf$/);
+  expect(download.suggestedFilename()).toMatch(/^nookpass-demo-bypass-door-closet-48-sample-road-NP(?:-[A-Z2-9]{4}){4}\.pdf$/);
   const file = await download.path();
-  const code = download.suggestedFilename().match(/NP-[A-Z2-9]{4}-[A-Z2-9]{4}/)![0];
+  const code = download.suggestedFilename().match(/NP(?:-[A-Z2-9]{4}){4}/)![0];
 
   const verify = await browser.newPage();
   await verify.goto(`/verify/${code}`);
@@ -38,7 +38,7 @@ test('installer downloads and sends a report, the verification page accepts it, 
   // Send to the jurisdiction's inspector.
   await page.getByRole('button', { name: 'Send to inspector' }).click();
   await expect(page.getByTestId('send-result')).toContainText('sent to inspector@nookpass.demo');
-  const sentCode = (await page.getByTestId('send-result').textContent())!.match(/NP-[A-Z2-9]{4}-[A-Z2-9]{4}/)![0];
+  const sentCode = (await page.getByTestId('send-result').textContent())!.match(/NP(?:-[A-Z2-9]{4}){4}/)![0];
 
   // The inspector sees it, opens it and asks for corrections.
   const ctx = await browser.newContext();

@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import { headers } from 'next/headers';
 import Link from 'next/link';
 import { getDb } from '@/db';
 import { publicReportFacts } from '@/db/reports';
@@ -7,20 +8,46 @@ import { VerifyDrop } from '@/components/reports/verify-drop';
 import { Wordmark } from '@/components/ui/logo';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import type { EvaluationSummary } from '@/lib/engine';
+import { TooManyRequestsError } from '@/lib/errors';
+import { clientAddressOf } from '@/lib/platform/rate-limit';
+import { countReportLookup, REPORT_LOOKUP_LIMIT } from '@/lib/report/lookups';
 
 export const metadata: Metadata = { title: 'Verify a report' };
 export const dynamic = 'force-dynamic';
 
+function decoded(segment: string): string {
+  try {
+    return decodeURIComponent(segment);
+  } catch {
+    return segment; // a stray % is just part of a wrong code
+  }
+}
+
 export default async function VerifyPage({ params }: { params: Promise<{ code: string }> }) {
-  const { code } = await params;
-  const facts = await publicReportFacts(getDb(), decodeURIComponent(code));
+  const code = decoded((await params).code);
+  let limited: TooManyRequestsError | null = null;
+  try {
+    await countReportLookup(clientAddressOf(await headers()));
+  } catch (err) {
+    if (!(err instanceof TooManyRequestsError)) throw err;
+    limited = err;
+  }
+  const facts = limited ? undefined : await publicReportFacts(getDb(), code);
   return (
     <main id="main" className="mx-auto max-w-3xl px-4 py-8">
       <Link href="/"><Wordmark /></Link>
       <p className="kicker mt-8">Report verification</p>
-      {!facts ? (
+      {limited ? (
+        <div data-testid="verify-limited">
+          <h1 className="mt-2 text-2xl font-bold">Too many lookups for now</h1>
+          <p className="mt-3 text-ink-soft">
+            Your address has looked up more reports in the last minute than NookPass answers ({REPORT_LOOKUP_LIMIT.points} a
+            minute), which keeps report codes from being guessed. Wait {limited.retryAfterSeconds} seconds and reload this page.
+          </p>
+        </div>
+      ) : !facts ? (
         <>
-          <h1 className="mt-2 text-2xl font-bold">No report with the code {decodeURIComponent(code)}</h1>
+          <h1 className="mt-2 text-2xl font-bold">No report with the code {code}</h1>
           <p className="mt-3 text-ink-soft">Check the code printed in the report’s footer. A code NookPass did not issue means the paper did not come from NookPass.</p>
         </>
       ) : (

@@ -2,11 +2,14 @@ import { getDb } from '@/db';
 import { publicReportFacts } from '@/db/reports';
 import { NotFoundError } from '@/lib/errors';
 import { json, route } from '@/lib/http';
+import { clientAddress } from '@/lib/platform/rate-limit';
+import { countReportLookup } from '@/lib/report/lookups';
 
 type Ctx = { params: Promise<{ code: string }> };
 
 // Public on purpose: an inspector holding the paper can confirm it without an account.
-export const GET = route<Ctx>(async (_request, { params }) => {
+export const GET = route<Ctx>(async (request, { params }) => {
+  await countReportLookup(clientAddress(request));
   const facts = await publicReportFacts(getDb(), (await params).code);
   if (!facts) throw new NotFoundError('NookPass issued no report with this code.');
   return json({
