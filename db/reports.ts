@@ -1,4 +1,6 @@
+import type { EvaluationSummary } from '@/lib/engine';
 import { normalizeReportCode } from '@/lib/report/code';
+import { readReportSnapshot, type ReportSnapshot } from '@/lib/report/snapshot';
 import type { DB } from './index';
 import { writeAudit } from './audit';
 import type { ReviewOutcome } from './types';
@@ -12,6 +14,8 @@ export type IssuedReport = {
   pageCount: number;
   storageKey: string;
   attachmentIds: string[];
+  /** What the report said when issued; null for reports issued before snapshots were kept. */
+  snapshot: ReportSnapshot | null;
   createdBy: string | null;
   createdAt: Date;
 };
@@ -32,12 +36,13 @@ function toReport(r: Row): IssuedReport {
     pageCount: r.page_count,
     storageKey: r.storage_key,
     attachmentIds: r.attachment_ids as string[],
+    snapshot: readReportSnapshot(r.snapshot),
     createdBy: r.created_by,
     createdAt: r.created_at,
   };
 }
 
-export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'createdAt'>): Promise<IssuedReport> {
+export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'createdAt' | 'snapshot'> & { snapshot: ReportSnapshot }): Promise<IssuedReport> {
   return db.transaction().execute(async (trx) => {
     const row = await trx
       .insertInto('reports')
@@ -49,6 +54,7 @@ export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'created
         page_count: r.pageCount,
         storage_key: r.storageKey,
         attachment_ids: JSON.stringify(r.attachmentIds),
+        snapshot: JSON.stringify(r.snapshot),
         created_by: r.createdBy,
       })
       .returningAll()
@@ -71,22 +77,62 @@ export async function findReportById(db: DB, id: string): Promise<IssuedReport |
   return row ? toReport(row) : null;
 }
 
-/** What the public verification page may show: enough to trust the paper, nothing more. */
-export async function publicReportFacts(db: DB, input: string) {
+/** What the public verification page and its API may show: enough to trust the paper, nothing more. */
+export type PublicReportFacts = {
+  code: string;
+  sha256: string;
+  issuedAt: Date;
+  pageCount: number;
+  /** false: issued before reports kept what they said, so the details are the project as it is today. */
+  asIssued: boolean;
+  projectName: string;
+  siteAddress: string;
+  jurisdictionName: string;
+  ruleSetVersion: number;
+  checkedAt: Date;
+  summary: EvaluationSummary;
+};
+
+export async function publicReportFacts(db: DB, input: string): Promise<PublicReportFacts | null> {
   const code = normalizeReportCode(input);
-  if (!code) return undefined;
-  return db
+  if (!code) return null;
+  const row = await db
     .selectFrom('reports as r')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
     .innerJoin('projects as p', 'p.id', 'c.project_id')
     .innerJoin('rule_sets as s', 's.id', 'c.rule_set_id')
     .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
     .select([
-      'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'p.name as project_name', 'p.site_address',
+      'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'r.snapshot', 'p.name as project_name', 'p.site_address',
       'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name',
     ])
     .where('r.code', '=', code)
     .executeTakeFirst();
+  if (!row) return null;
+  const snap = readReportSnapshot(row.snapshot);
+  const common = { code: row.code, sha256: row.sha256, issuedAt: row.issued_at, pageCount: row.page_count };
+  if (snap) {
+    return {
+      ...common,
+      asIssued: true,
+      projectName: snap.project.name,
+      siteAddress: snap.project.siteAddress,
+      jurisdictionName: snap.jurisdiction.name,
+      ruleSetVersion: snap.ruleSet.version,
+      checkedAt: new Date(snap.check.checkedAt),
+      summary: snap.check.summary,
+    };
+  }
+  return {
+    ...common,
+    asIssued: false,
+    projectName: row.project_name,
+    siteAddress: row.site_address,
+    jurisdictionName: row.jurisdiction_name,
+    ruleSetVersion: row.rule_set_version,
+    checkedAt: row.checked_at,
+    summary: row.summary as EvaluationSummary,
+  };
 }
 
 export async function recordSend(
@@ -136,8 +182,23 @@ export async function listReviewsForProject(db: DB, projectId: string) {
     .execute();
 }
 
-/** Reports sent to one jurisdiction, newest send first, with their latest review. */
-export async function listInspections(db: DB, jurisdictionId: string | null) {
+export type InspectionListItem = {
+  reportId: string;
+  code: string;
+  sentAt: Date;
+  /** false: issued before reports kept what they said; name, address and company are today's. */
+  asIssued: boolean;
+  projectName: string;
+  siteAddress: string;
+  organizationName: string;
+  summary: EvaluationSummary;
+  checkOutcome: string;
+  reviewOutcome: ReviewOutcome | null;
+  reviewedAt: Date | null;
+};
+
+/** Reports sent to one jurisdiction, newest send first, with their latest review, as they were issued. */
+export async function listInspections(db: DB, jurisdictionId: string | null): Promise<InspectionListItem[]> {
   let q = db
     .selectFrom('report_sends as s')
     .innerJoin('reports as r', 'r.id', 's.report_id')
@@ -150,7 +211,7 @@ export async function listInspections(db: DB, jurisdictionId: string | null) {
       (join) => join.onTrue(),
     )
     .select([
-      'r.id as report_id', 'r.code', 's.created_at as sent_at', 'p.name as project_name', 'p.site_address', 'o.name as organization_name',
+      'r.id as report_id', 'r.code', 'r.snapshot', 's.created_at as sent_at', 'p.name as project_name', 'p.site_address', 'o.name as organization_name',
       'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
     ])
     .where('s.status', '=', 'sent')
@@ -159,7 +220,24 @@ export async function listInspections(db: DB, jurisdictionId: string | null) {
     .orderBy('s.created_at', 'desc');
   if (jurisdictionId) q = q.where('s.jurisdiction_id', '=', jurisdictionId);
   const rows = await q.execute();
-  return rows.sort((a, b) => +new Date(b.sent_at) - +new Date(a.sent_at));
+  return rows
+    .map((r): InspectionListItem => {
+      const snap = readReportSnapshot(r.snapshot);
+      return {
+        reportId: r.report_id,
+        code: r.code,
+        sentAt: r.sent_at,
+        asIssued: !!snap,
+        projectName: snap?.project.name ?? r.project_name,
+        siteAddress: snap?.project.siteAddress ?? r.site_address,
+        organizationName: snap?.company.name ?? r.organization_name,
+        summary: snap?.check.summary ?? (r.summary as EvaluationSummary),
+        checkOutcome: snap?.check.outcome ?? r.check_outcome,
+        reviewOutcome: r.review_outcome ?? null,
+        reviewedAt: r.reviewed_at ?? null,
+      };
+    })
+    .sort((a, b) => +b.sentAt - +a.sentAt);
 }
 
 export async function reportSentToJurisdiction(db: DB, reportId: string, jurisdictionId: string): Promise<boolean> {

@@ -175,6 +175,8 @@ export interface ReportsTable {
   page_count: number;
   storage_key: string;
   attachment_ids: Json<string[]>;
+  /** What the report said when issued (lib/report/snapshot.ts); null only for reports issued before snapshots were kept. */
+  snapshot: ColumnType<Record<string, unknown> | null, string | undefined, never>;
   created_by: string | null;
   created_at: CreatedAt;
 }

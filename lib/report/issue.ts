@@ -13,6 +13,7 @@ import { getObject, putObject } from '@/lib/storage';
 import type { ReportData } from './report-data';
 import { newReportCode } from './code';
 import { renderReportPdf } from './render';
+import { buildReportSnapshot } from './snapshot';
 
 export function publicBaseUrl(): string {
   return (process.env.NOOKPASS_PUBLIC_URL ?? process.env.NEXTAUTH_URL ?? 'http://127.0.0.1:3000').replace(/\/$/, '');
@@ -92,6 +93,7 @@ export async function issueReport(db: DB, user: AppUser, checkId: string): Promi
     pageCount,
     storageKey,
     attachmentIds,
+    snapshot: buildReportSnapshot({ ...data, jurisdiction: { slug: project.jurisdiction.slug, name: data.jurisdiction.name } }),
     createdBy: user.id,
   });
   return { report, pdf, project, check, renderMs };

@@ -1,6 +1,8 @@
 import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createMigrator, migrateToLatest } from '@/db/migrator';
+import { listInspections, publicReportFacts } from '@/db/reports';
+import { seedDemo } from '@/db/seed';
 import { createScratchDb } from './helpers';
 
 let scratch: Awaited<ReturnType<typeof createScratchDb>>;
@@ -75,5 +77,65 @@ describe('migrations', () => {
     expect((await tables()).filter((t) => !t.startsWith('kysely_'))).toEqual([]);
     const up = await migrateToLatest(scratch.db);
     expect(up.error).toBeUndefined();
+  });
+});
+
+describe('reports issued before snapshots were kept', () => {
+  // A database as it stood before the snapshot migration, with a report issued and sent then.
+  let legacy: Awaited<ReturnType<typeof createScratchDb>>;
+  const code = 'NP-LEGA-CY23';
+  let jurisdictionId: string;
+  let projectId: string;
+  let checkId: string;
+
+  beforeAll(async () => {
+    legacy = await createScratchDb();
+    const before = await createMigrator(legacy.db).migrateTo('2026-12-03T00-00-00_rate-limits');
+    expect(before.error).toBeUndefined();
+    await seedDemo(legacy.db);
+    const project = await legacy.db
+      .selectFrom('projects as p')
+      .innerJoin('plan_revisions as r', 'r.project_id', 'p.id')
+      .innerJoin('rule_sets as s', (j) => j.onRef('s.jurisdiction_id', '=', 'p.jurisdiction_id').on('s.status', '=', 'published'))
+      .select(['p.id', 'p.jurisdiction_id', 'p.created_by', 'r.id as revision_id', 's.id as rule_set_id'])
+      .where('p.name', 'like', 'Demo%')
+      .executeTakeFirstOrThrow();
+    projectId = project.id;
+    jurisdictionId = project.jurisdiction_id;
+    const summary = { pass: 30, fail: 2, caution: 1, needsInfo: 0, notApplicable: 3 };
+    checkId = (await legacy.db
+      .insertInto('checks')
+      .values({ project_id: project.id, plan_revision_id: project.revision_id, rule_set_id: project.rule_set_id, inputs: '{}', facts: '{}', findings: '[]', summary: JSON.stringify(summary), outcome: 'fail', duration_ms: 5, created_by: project.created_by })
+      .returning('id')
+      .executeTakeFirstOrThrow()).id;
+    const report = await legacy.db
+      .insertInto('reports')
+      .values({ check_id: checkId, code, sha256: 'a'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${code}.pdf`, attachment_ids: '[]', created_by: project.created_by })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await legacy.db
+      .insertInto('report_sends')
+      .values({ report_id: report.id, project_id: project.id, jurisdiction_id: project.jurisdiction_id, to_email: 'inspector@nookpass.demo', status: 'sent', created_by: project.created_by })
+      .execute();
+    const after = await migrateToLatest(legacy.db);
+    expect(after.error).toBeUndefined();
+  }, 60_000);
+  afterAll(async () => {
+    await legacy?.drop();
+  });
+
+  it('stay readable: the verification facts and the queue fall back to the current project and say so', async () => {
+    await legacy.db.updateTable('projects').set({ name: 'Renamed after issue' }).where('id', '=', projectId).execute();
+    const facts = await publicReportFacts(legacy.db, code);
+    expect(facts).toMatchObject({ code, asIssued: false, projectName: 'Renamed after issue', pageCount: 3, summary: { fail: 2 } });
+    const queue = await listInspections(legacy.db, jurisdictionId);
+    expect(queue.find((r) => r.code === code)).toMatchObject({ asIssued: false, projectName: 'Renamed after issue' });
+  });
+
+  it('are the only ones without a snapshot: a report inserted now must carry one', async () => {
+    const row = { check_id: checkId, sha256: 'b'.repeat(64), byte_size: 100, page_count: 3, storage_key: 'reports/x.pdf', attachment_ids: '[]' };
+    await expect(legacy.db.insertInto('reports').values({ ...row, code: 'NP-NEWW-ONE2' }).execute()).rejects.toThrow(/snapshot it was issued with/);
+    await expect(legacy.db.insertInto('reports').values({ ...row, code: 'NP-NEWW-ONE3', snapshot: '"not an object"' }).execute()).rejects.toThrow(/snapshot/);
+    await legacy.db.insertInto('reports').values({ ...row, code: 'NP-NEWW-ONE4', snapshot: JSON.stringify({ schemaVersion: 1 }) }).execute();
   });
 });

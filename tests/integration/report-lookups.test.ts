@@ -51,13 +51,21 @@ describe('report codes', () => {
     const client = newClient();
     expect((await lookup('api', code.toLowerCase(), client)).status).toBe(200);
 
-    // A report issued under the earlier 8-symbol scheme, as such rows are stored.
+    // A report issued under the earlier 8-symbol scheme (rows inserted today carry a snapshot; the database insists).
+    const legacySnapshot = {
+      schemaVersion: 1,
+      project: { name: PROJECT, siteAddress: '12 Lookup Lane', permitNumber: null, isDemo: false },
+      jurisdiction: { slug: 'demo-county', name: 'Demo County' },
+      company: { name: 'Demo Closet Works', licenseNumber: null },
+      ruleSet: { version: 1 },
+      check: { checkedAt: new Date().toISOString(), summary: { pass: 1, fail: 0, caution: 0, needsInfo: 0, notApplicable: 0 }, outcome: 'pass' },
+    };
     const alphabet = '23456789ABCDEFGHJKLMNPQRSTUVWXYZ';
     const legacy = `NP-${[...randomBytes(8)].map((b, i) => (i === 4 ? '-' : '') + alphabet[b & 31]).join('')}`;
     const bytes = Buffer.from(`%PDF-1.4 legacy report ${legacy}`);
     await db
       .insertInto('reports')
-      .values({ check_id: checkId, code: legacy, sha256: createHash('sha256').update(bytes).digest('hex'), byte_size: bytes.length, page_count: 1, storage_key: `reports/legacy/${legacy}.pdf`, attachment_ids: '[]' })
+      .values({ check_id: checkId, code: legacy, sha256: createHash('sha256').update(bytes).digest('hex'), byte_size: bytes.length, page_count: 1, storage_key: `reports/legacy/${legacy}.pdf`, attachment_ids: '[]', snapshot: JSON.stringify(legacySnapshot) })
       .execute();
     const facts = await api(`/api/reports/${legacy}`, { headers: { 'x-forwarded-for': client } });
     expect(facts.status).toBe(200);

@@ -200,7 +200,7 @@ describe('report download and verification', () => {
     const facts = await api(`/api/reports/${code}`);
     expect(facts.status).toBe(200);
     expect(facts.body).toMatchObject({ code, projectName: 'IT report project <i>x</i>', ruleSetVersion: 1 });
-    expect(Object.keys(facts.body).sort()).toEqual(['checkedAt', 'code', 'issuedAt', 'jurisdiction', 'pageCount', 'projectName', 'ruleSetVersion', 'sha256', 'siteAddress', 'summary'].sort());
+    expect(Object.keys(facts.body).sort()).toEqual(['asIssued', 'checkedAt', 'code', 'issuedAt', 'jurisdiction', 'pageCount', 'projectName', 'ruleSetVersion', 'sha256', 'siteAddress', 'summary'].sort());
     const verify = (body: Buffer) => fetch(`${baseUrl}/api/reports/${code}/verify`, { method: 'POST', body: new Uint8Array(body) }).then((r) => r.json());
     expect((await verify(pdf)).genuine).toBe(true);
     const altered = Buffer.from(pdf);

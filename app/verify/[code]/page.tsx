@@ -7,7 +7,6 @@ import { SummaryCounts } from '@/components/checks/summary-counts';
 import { VerifyDrop } from '@/components/reports/verify-drop';
 import { Wordmark } from '@/components/ui/logo';
 import { SafetyNotice } from '@/components/ui/safety-notice';
-import type { EvaluationSummary } from '@/lib/engine';
 import { TooManyRequestsError } from '@/lib/errors';
 import { clientAddressOf } from '@/lib/platform/rate-limit';
 import { countReportLookup, REPORT_LOOKUP_LIMIT } from '@/lib/report/lookups';
@@ -52,17 +51,24 @@ export default async function VerifyPage({ params }: { params: Promise<{ code: s
         </>
       ) : (
         <>
-          <h1 className="mt-2 text-2xl font-bold">Report {facts.code} was issued by NookPass</h1>
+          <h1 className="mt-2 text-2xl font-bold">{`Report ${facts.code} was issued by NookPass`}</h1>
+          {!facts.asIssued && (
+            <p className="mt-3 text-sm text-ink-soft" data-testid="verify-not-as-issued">
+              This report was issued before NookPass recorded what each report said, so the project, site and jurisdiction
+              below are as they are today and may differ from the paper. The SHA-256 below is the one recorded when it was
+              issued: a copy that matches it is the report as issued.
+            </p>
+          )}
           <dl className="card mt-4 grid gap-3 p-5 text-sm sm:grid-cols-2" data-testid="verify-facts">
-            <div><dt className="text-ink-faint">Project</dt><dd className="font-semibold">{facts.project_name}</dd></div>
-            <div><dt className="text-ink-faint">Site</dt><dd>{facts.site_address}</dd></div>
-            <div><dt className="text-ink-faint">Jurisdiction</dt><dd>{facts.jurisdiction_name}</dd></div>
-            <div><dt className="text-ink-faint">Rule set version</dt><dd>{facts.rule_set_version}</dd></div>
-            <div><dt className="text-ink-faint">Check date</dt><dd>{new Date(facts.checked_at).toUTCString()}</dd></div>
-            <div><dt className="text-ink-faint">Report issued</dt><dd>{new Date(facts.issued_at).toUTCString()} · {facts.page_count} pages</dd></div>
+            <div><dt className="text-ink-faint">Project</dt><dd className="font-semibold">{facts.projectName}</dd></div>
+            <div><dt className="text-ink-faint">Site</dt><dd>{facts.siteAddress}</dd></div>
+            <div><dt className="text-ink-faint">Jurisdiction</dt><dd>{facts.jurisdictionName}</dd></div>
+            <div><dt className="text-ink-faint">Rule set version</dt><dd>{facts.ruleSetVersion}</dd></div>
+            <div><dt className="text-ink-faint">Check date</dt><dd>{facts.checkedAt.toUTCString()}</dd></div>
+            <div><dt className="text-ink-faint">Report issued</dt><dd>{facts.issuedAt.toUTCString()} · {facts.pageCount} pages</dd></div>
             <div className="sm:col-span-2"><dt className="text-ink-faint">SHA-256 of the issued PDF</dt><dd className="break-all font-mono text-xs" data-testid="verify-hash">{facts.sha256}</dd></div>
           </dl>
-          <div className="mt-4"><SummaryCounts summary={facts.summary as EvaluationSummary} /></div>
+          <div className="mt-4"><SummaryCounts summary={facts.summary} /></div>
           <section className="mt-6" aria-labelledby="drop-h">
             <h2 id="drop-h" className="mb-2 text-lg font-bold">Is your copy unaltered?</h2>
             <VerifyDrop expected={facts.sha256} />
