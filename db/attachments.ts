@@ -1,5 +1,6 @@
 import type { DB } from './index';
 import { writeAudit } from './audit';
+import { receivedByInspector } from './reports';
 import type { AttachmentsTable } from './types';
 import type { Selectable } from 'kysely';
 
@@ -98,14 +99,16 @@ export async function markAttachmentDeleted(db: DB, id: string, actorId: string)
   });
 }
 
-/** Inspectors may see an attachment only through a report sent to their jurisdiction that includes it. */
+/** Inspectors may see an attachment only through a report sent to their jurisdiction's inspector address that includes it. */
 export async function attachmentSentToJurisdiction(db: DB, attachmentId: string, jurisdictionId: string): Promise<boolean> {
   const row = await db
     .selectFrom('report_sends as s')
     .innerJoin('reports as r', 'r.id', 's.report_id')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
     .select('s.id')
     .where('s.jurisdiction_id', '=', jurisdictionId)
     .where('s.status', '=', 'sent')
+    .where(receivedByInspector('s', 'sj'))
     .where((eb) => eb(eb.fn('jsonb_exists', [eb.ref('r.attachment_ids'), eb.val(attachmentId)]), '=', true))
     .executeTakeFirst();
   return !!row;

@@ -1,6 +1,7 @@
 import type { EvaluationSummary } from '@/lib/engine';
 import { normalizeReportCode } from '@/lib/report/code';
 import { readReportSnapshot, type ReportSnapshot } from '@/lib/report/snapshot';
+import { sql } from 'kysely';
 import type { DB } from './index';
 import { writeAudit } from './audit';
 import type { ReviewOutcome } from './types';
@@ -135,9 +136,31 @@ export async function publicReportFacts(db: DB, input: string): Promise<PublicRe
   };
 }
 
+/**
+ * Whether a send went to its jurisdiction's inspector address: as recorded, or, for sends recorded before
+ * that was kept (NULL), by today's inspector address. `sends` and `jurisdictions` are the query's aliases of
+ * report_sends and of the jurisdiction joined on its jurisdiction_id.
+ */
+export function receivedByInspector(sends: string, jurisdictions: string) {
+  return sql<boolean>`coalesce(${sql.ref(`${sends}.to_inspector`)}, lower(${sql.ref(`${sends}.to_email`)}) = lower(${sql.ref(`${jurisdictions}.inspector_email`)}), false)`;
+}
+
+/** Has the company sent a report to this address before (so sending there again needs no confirmation)? */
+export async function companyHasSentTo(db: DB, organizationId: string, email: string): Promise<boolean> {
+  const row = await db
+    .selectFrom('report_sends as s')
+    .innerJoin('projects as p', 'p.id', 's.project_id')
+    .select('s.id')
+    .where('p.organization_id', '=', organizationId)
+    .where('s.status', '=', 'sent')
+    .where(sql<string>`lower(s.to_email)`, '=', email.trim().toLowerCase())
+    .executeTakeFirst();
+  return !!row;
+}
+
 export async function recordSend(
   db: DB,
-  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string },
+  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string },
 ) {
   return db.transaction().execute(async (trx) => {
     const row = await trx
@@ -147,6 +170,7 @@ export async function recordSend(
         project_id: s.projectId,
         jurisdiction_id: s.jurisdictionId,
         to_email: s.to,
+        to_inspector: s.toInspector,
         status: s.status,
         error: s.error,
         message_id: s.messageId,
@@ -154,7 +178,7 @@ export async function recordSend(
       })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, error: s.error } });
+    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, toInspector: s.toInspector, error: s.error } });
     return row;
   });
 }
@@ -164,7 +188,7 @@ export async function listProjectSends(db: DB, projectId: string) {
     .selectFrom('report_sends as s')
     .innerJoin('reports as r', 'r.id', 's.report_id')
     .leftJoin('users as u', 'u.id', 's.created_by')
-    .select(['s.id', 's.to_email', 's.status', 's.error', 's.created_at', 'r.code', 'r.id as report_id', 'r.check_id', 'u.name as sent_by'])
+    .select(['s.id', 's.to_email', 's.to_inspector', 's.status', 's.error', 's.created_at', 'r.code', 'r.id as report_id', 'r.check_id', 'u.name as sent_by'])
     .where('s.project_id', '=', projectId)
     .orderBy('s.created_at', 'desc')
     .execute();
@@ -205,6 +229,7 @@ export async function listInspections(db: DB, jurisdictionId: string | null): Pr
     .innerJoin('projects as p', 'p.id', 's.project_id')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
     .leftJoinLateral(
       (eb) =>
         eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'r.id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
@@ -215,6 +240,8 @@ export async function listInspections(db: DB, jurisdictionId: string | null): Pr
       'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
     ])
     .where('s.status', '=', 'sent')
+    // Only what reached the inspector's address is in the queue; copies to anyone else are not.
+    .where(receivedByInspector('s', 'sj'))
     .distinctOn('r.id')
     .orderBy('r.id')
     .orderBy('s.created_at', 'desc');
@@ -240,8 +267,17 @@ export async function listInspections(db: DB, jurisdictionId: string | null): Pr
     .sort((a, b) => +b.sentAt - +a.sentAt);
 }
 
+/** Did the report reach this jurisdiction's inspector address (and so its inspectors)? */
 export async function reportSentToJurisdiction(db: DB, reportId: string, jurisdictionId: string): Promise<boolean> {
-  const row = await db.selectFrom('report_sends').select('id').where('report_id', '=', reportId).where('jurisdiction_id', '=', jurisdictionId).where('status', '=', 'sent').executeTakeFirst();
+  const row = await db
+    .selectFrom('report_sends as s')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
+    .select('s.id')
+    .where('s.report_id', '=', reportId)
+    .where('s.jurisdiction_id', '=', jurisdictionId)
+    .where('s.status', '=', 'sent')
+    .where(receivedByInspector('s', 'sj'))
+    .executeTakeFirst();
   return !!row;
 }
 

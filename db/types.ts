@@ -190,6 +190,8 @@ export interface ReportSendsTable {
   status: 'sent' | 'failed';
   error: string | null;
   message_id: string | null;
+  /** Sent to the jurisdiction's inspector address; null only for sends recorded before this was kept. */
+  to_inspector: ColumnType<boolean | null, boolean | undefined, never>;
   created_by: string | null;
   created_at: CreatedAt;
 }

@@ -3,6 +3,7 @@ import { createHash, randomUUID } from 'node:crypto';
 import { NextRequest } from 'next/server';
 import type { z } from 'zod';
 import {
+  ConfirmationRequiredError,
   ConflictError,
   DomainError,
   ForbiddenError,
@@ -117,6 +118,9 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof UnauthorizedError) return json({ error: err.message }, 401);
   if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
   if (err instanceof NotFoundError) return json({ error: err.message }, 404);
+  if (err instanceof ConfirmationRequiredError) {
+    return json({ error: err.message, errors: [{ path: err.path, message: err.message }], needsConfirmation: true }, 409);
+  }
   if (err instanceof ConflictError) return json({ error: err.message }, 409);
   if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
   // RFC 6585 §4: 429 with how long to wait.

@@ -1,6 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { readdirSync, readFileSync, readlinkSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
+import bcrypt from 'bcryptjs';
 import pg from 'pg';
 import { createDb, type DB } from '@/db';
 
@@ -183,4 +184,18 @@ export async function chunkedUpload(opts: {
   } finally {
     clearInterval(timer);
   }
+}
+
+/**
+ * A company of its own with one installer, signed in: tests that send reports count against that company's
+ * hourly send limit instead of the demo company's, which other test files share.
+ */
+export async function newInstallerCompany(db: DB, label: string): Promise<{ cookie: string; organizationId: string; organizationName: string; email: string }> {
+  const tag = randomBytes(4).toString('hex');
+  const organizationName = `IT ${label} ${tag} (test)`;
+  const org = await db.insertInto('organizations').values({ name: organizationName }).returning('id').executeTakeFirstOrThrow();
+  const email = `it-${tag}@example.test`;
+  const password = `it-pw-${tag}`;
+  await db.insertInto('users').values({ email, name: `Installer ${tag}`, role: 'installer', organization_id: org.id, password_hash: await bcrypt.hash(password, 4) }).execute();
+  return { cookie: await signIn(email, password), organizationId: org.id, organizationName, email };
 }

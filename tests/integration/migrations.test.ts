@@ -84,6 +84,7 @@ describe('reports issued before snapshots were kept', () => {
   // A database as it stood before the snapshot migration, with a report issued and sent then.
   let legacy: Awaited<ReturnType<typeof createScratchDb>>;
   const code = 'NP-LEGA-CY23';
+  const otherCode = 'NP-LEGA-CY24';
   let jurisdictionId: string;
   let projectId: string;
   let checkId: string;
@@ -113,10 +114,16 @@ describe('reports issued before snapshots were kept', () => {
       .values({ check_id: checkId, code, sha256: 'a'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${code}.pdf`, attachment_ids: '[]', created_by: project.created_by })
       .returning('id')
       .executeTakeFirstOrThrow();
-    await legacy.db
-      .insertInto('report_sends')
-      .values({ report_id: report.id, project_id: project.id, jurisdiction_id: project.jurisdiction_id, to_email: 'inspector@nookpass.demo', status: 'sent', created_by: project.created_by })
-      .execute();
+    const jur = await legacy.db.selectFrom('jurisdictions').select('inspector_email').where('id', '=', project.jurisdiction_id).executeTakeFirstOrThrow();
+    const send = { project_id: project.id, jurisdiction_id: project.jurisdiction_id, status: 'sent' as const, created_by: project.created_by };
+    await legacy.db.insertInto('report_sends').values({ ...send, report_id: report.id, to_email: jur.inspector_email!.toUpperCase() }).execute();
+    // A second report of the same check, sent only to some other address.
+    const elsewhere = await legacy.db
+      .insertInto('reports')
+      .values({ check_id: checkId, code: otherCode, sha256: 'c'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${otherCode}.pdf`, attachment_ids: '[]', created_by: project.created_by })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await legacy.db.insertInto('report_sends').values({ ...send, report_id: elsewhere.id, to_email: 'someone-else@example.test' }).execute();
     const after = await migrateToLatest(legacy.db);
     expect(after.error).toBeUndefined();
   }, 60_000);
@@ -130,6 +137,15 @@ describe('reports issued before snapshots were kept', () => {
     expect(facts).toMatchObject({ code, asIssued: false, projectName: 'Renamed after issue', pageCount: 3, summary: { fail: 2 } });
     const queue = await listInspections(legacy.db, jurisdictionId);
     expect(queue.find((r) => r.code === code)).toMatchObject({ asIssued: false, projectName: 'Renamed after issue' });
+    // Sends from before recorded no recipient kind: the inspector's address of today decides, in any case.
+    expect(queue.map((r) => r.code)).not.toContain(otherCode);
+  });
+
+  it('keep recording whether a send went to the inspector from now on', async () => {
+    const report = await legacy.db.selectFrom('reports').select('id').where('code', '=', code).executeTakeFirstOrThrow();
+    const row = { report_id: report.id, project_id: projectId, jurisdiction_id: jurisdictionId, to_email: 'x@example.test', status: 'sent' as const };
+    await expect(legacy.db.insertInto('report_sends').values(row).execute()).rejects.toThrow(/whether it went to the inspector/);
+    await legacy.db.insertInto('report_sends').values({ ...row, to_inspector: false }).execute();
   });
 
   it('are the only ones without a snapshot: a report inserted now must carry one', async () => {

@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+import { api, appDb, baseUrl, newInstallerCompany, postJson, signIn } from './helpers';
 
 /*
  * A report says what it said when issued: after the project is renamed, given another address and
@@ -14,6 +14,7 @@ const tag = randomBytes(3).toString('hex');
 const issued = { name: `Snapshot closet ${tag} (test)`, siteAddress: `${tag} Issued Street`, permitNumber: `BP-${tag}` };
 const later = { name: `Renamed later ${tag}`, siteAddress: `${tag} Elsewhere Avenue`, permitNumber: `BP-LATER-${tag}` };
 let installer: string;
+let companyName: string;
 let inspector: string;
 let code: string;
 let reportId: string;
@@ -23,7 +24,10 @@ const client = `2001:db8:5::${randomBytes(2).toString('hex')}`;
 const text = (html: string) => html.replace(/<!-- -->/g, '');
 
 beforeAll(async () => {
-  [installer, inspector] = await Promise.all([signIn('installer@nookpass.demo'), signIn('inspector@nookpass.demo')]);
+  const company = await newInstallerCompany(db, 'snapshot');
+  installer = company.cookie;
+  companyName = company.organizationName;
+  inspector = await signIn('inspector@nookpass.demo');
   const p = await api('/api/projects', postJson({ ...issued, jurisdiction: 'demo-county' }, { cookie: installer }));
   expect(p.status).toBe(201);
   expect((await api(`/api/projects/${p.body.id}/plans`, postJson({ plan: longExhaustFailPlan }, { cookie: installer }))).status).toBe(201);
@@ -47,7 +51,7 @@ describe('an issued report after its project changed', () => {
       schemaVersion: 1,
       project: { name: issued.name, siteAddress: issued.siteAddress, permitNumber: issued.permitNumber, isDemo: false },
       jurisdiction: { slug: 'demo-county', name: 'Demo County' },
-      company: { name: 'Demo Closet Works' },
+      company: { name: companyName },
       ruleSet: { version: expect.any(Number) },
       check: { checkedAt: expect.any(String), outcome: 'fail', summary: { fail: expect.any(Number) } },
     });
@@ -69,7 +73,7 @@ describe('an issued report after its project changed', () => {
   it('shows the issued values in the inspector queue and on the inspection page', async () => {
     const queue = await api('/api/inspections', { cookie: inspector });
     const row = queue.body.inspections.find((i: { code: string }) => i.code === code);
-    expect(row).toMatchObject({ projectName: issued.name, siteAddress: issued.siteAddress, organizationName: 'Demo Closet Works', asIssued: true });
+    expect(row).toMatchObject({ projectName: issued.name, siteAddress: issued.siteAddress, organizationName: companyName, asIssued: true });
     const list = text(await (await fetch(`${baseUrl}/inspections`, { headers: { cookie: inspector } })).text());
     expect(list).toContain(issued.name);
     expect(list).not.toContain(later.name);

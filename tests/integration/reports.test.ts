@@ -244,7 +244,7 @@ describe('sending to the inspector and the review', () => {
 
   it('says so when the mail server refuses, keeps the check and the report, and records the failed send', async () => {
     const before = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid' }, { cookie: installer }));
+    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid', confirm: true }, { cookie: installer }));
     expect(res.status).toBe(400);
     expect(res.body.errors[0]).toMatchObject({ path: 'to', message: expect.stringContaining('refused nobody@mailbox.invalid') });
     const failed = await db.selectFrom('report_sends').selectAll().where('to_email', '=', 'nobody@mailbox.invalid').executeTakeFirstOrThrow();

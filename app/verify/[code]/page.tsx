@@ -9,7 +9,7 @@ import { Wordmark } from '@/components/ui/logo';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { TooManyRequestsError } from '@/lib/errors';
 import { clientAddressOf } from '@/lib/platform/rate-limit';
-import { countReportLookup, REPORT_LOOKUP_LIMIT } from '@/lib/report/lookups';
+import { countReportLookup, REPORT_LOOKUP_LIMIT } from '@/lib/report/limits';
 
 export const metadata: Metadata = { title: 'Verify a report' };
 export const dynamic = 'force-dynamic';

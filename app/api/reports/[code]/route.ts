@@ -3,7 +3,7 @@ import { publicReportFacts } from '@/db/reports';
 import { NotFoundError } from '@/lib/errors';
 import { json, route } from '@/lib/http';
 import { clientAddress } from '@/lib/platform/rate-limit';
-import { countReportLookup } from '@/lib/report/lookups';
+import { countReportLookup } from '@/lib/report/limits';
 
 type Ctx = { params: Promise<{ code: string }> };
 

@@ -3,7 +3,7 @@ import { findReportByCode } from '@/db/reports';
 import { NotFoundError } from '@/lib/errors';
 import { hashBodyUpTo, json, route } from '@/lib/http';
 import { clientAddress } from '@/lib/platform/rate-limit';
-import { countReportLookup } from '@/lib/report/lookups';
+import { countReportLookup } from '@/lib/report/limits';
 
 type Ctx = { params: Promise<{ code: string }> };
 // Far above any issued report (a few MB with photos); the body is hashed as it arrives, never held.
