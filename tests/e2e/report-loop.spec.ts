@@ -35,9 +35,21 @@ test('installer downloads and sends a report, the verification page accepts it, 
   await verify.screenshot({ path: `${shots}/verify.png`, fullPage: true });
   await verify.close();
 
-  // Send to the jurisdiction's inspector.
+  // An address that is neither the inspector's nor one the company used: the form asks, and Cancel sends nothing.
+  const stranger = `e2e-${Date.now()}@example.test`;
+  await page.getByLabel(/Inspector.s e-mail/).fill(stranger);
+  await page.getByRole('button', { name: 'Send to inspector' }).click();
+  await expect(page.getByTestId('send-confirm')).toContainText(`Send this report to ${stranger}?`);
+  await expect(page.getByTestId('send-confirm')).toContainText('inspector@nookpass.demo');
+  await page.getByRole('button', { name: 'Cancel' }).click();
+  await expect(page.getByTestId('send-confirm')).toHaveCount(0);
+  await expect(page.getByTestId('send-result')).toHaveCount(0);
+
+  // Send to the jurisdiction's inspector: no question asked, and it lands in the inspector's queue.
+  await page.getByLabel(/Inspector.s e-mail/).fill('inspector@nookpass.demo');
   await page.getByRole('button', { name: 'Send to inspector' }).click();
   await expect(page.getByTestId('send-result')).toContainText('sent to inspector@nookpass.demo');
+  await expect(page.getByTestId('send-result')).toContainText('in the inspector’s queue');
   const sentCode = (await page.getByTestId('send-result').textContent())!.match(/NP(?:-[A-Z2-9]{4}){4}/)![0];
 
   // The inspector sees it, opens it and asks for corrections.
