@@ -1,6 +1,7 @@
 import type { DB } from '@/db/index';
 import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
+import { receivedByInspector } from '@/db/reports';
 import type { AttachmentsTable } from '@/db/types';
 import type { Selectable } from 'kysely';
 
@@ -41,6 +42,8 @@ export function toAttachment(r: Selectable<AttachmentsTable>): Attachment {
 }
 
 export const displayKey = (storageKey: string) => `${storageKey}.display.jpg`;
+/** The photo without its metadata, served to everyone outside the uploader's company. */
+export const withoutMetadataKey = (storageKey: string) => `${storageKey}.no-metadata`;
 
 export async function insertAttachment(
   db: DB,
@@ -97,14 +100,16 @@ export async function markAttachmentDeleted(db: DB, id: string, actorId: string)
   });
 }
 
-/** Inspectors may see an attachment only through a report sent to their jurisdiction that includes it. */
+/** Inspectors may see an attachment only through a report sent to their jurisdiction's inspector address that includes it. */
 export async function attachmentSentToJurisdiction(db: DB, attachmentId: string, jurisdictionId: string): Promise<boolean> {
   const row = await db
     .selectFrom('report_sends as s')
     .innerJoin('reports as r', 'r.id', 's.report_id')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
     .select('s.id')
     .where('s.jurisdiction_id', '=', jurisdictionId)
     .where('s.status', '=', 'sent')
+    .where(receivedByInspector('s', 'sj'))
     .where((eb) => eb(eb.fn('jsonb_exists', [eb.ref('r.attachment_ids'), eb.val(attachmentId)]), '=', true))
     .executeTakeFirst();
   return !!row;

@@ -1,7 +1,11 @@
+import { sql } from 'kysely';
 import type { DB } from '@/db/index';
-import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
 import type { ReviewOutcome } from '@/db/types';
+import type { EvaluationSummary } from '@/lib/domain/engine';
+import { isUuid } from '@/lib/domain/ids';
+import { normalizeReportCode } from '@/lib/domain/reports/code';
+import { readReportSnapshot, type ReportSnapshot } from '@/lib/domain/reports/snapshot';
 import { readStoredReport, REPORT_SCHEMA_VERSION } from '@/lib/domain/reports/stored';
 
 export type IssuedReport = {
@@ -13,6 +17,8 @@ export type IssuedReport = {
   pageCount: number;
   storageKey: string;
   attachmentIds: string[];
+  /** What the report said when issued; null for reports issued before snapshots were kept. */
+  snapshot: ReportSnapshot | null;
   createdBy: string | null;
   createdAt: Date;
 };
@@ -34,12 +40,13 @@ function toReport(r: Row): IssuedReport {
     pageCount: r.page_count,
     storageKey: r.storage_key,
     attachmentIds: stored.attachmentIds,
+    snapshot: readReportSnapshot(r.snapshot),
     createdBy: r.created_by,
     createdAt: r.created_at,
   };
 }
 
-export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'createdAt'>): Promise<IssuedReport> {
+export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'createdAt' | 'snapshot'> & { snapshot: ReportSnapshot }): Promise<IssuedReport> {
   return db.transaction().execute(async (trx) => {
     const row = await trx
       .insertInto('reports')
@@ -52,6 +59,7 @@ export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'created
         storage_key: r.storageKey,
         attachment_ids: JSON.stringify(r.attachmentIds),
         schema_version: REPORT_SCHEMA_VERSION,
+        snapshot: JSON.stringify(r.snapshot),
         created_by: r.createdBy,
       })
       .returningAll()
@@ -61,8 +69,10 @@ export async function insertReport(db: DB, r: Omit<IssuedReport, 'id' | 'created
   });
 }
 
-export async function findReportByCode(db: DB, code: string): Promise<IssuedReport | null> {
-  const row = await reportQuery(db).where('code', '=', code.trim().toUpperCase()).executeTakeFirst();
+export async function findReportByCode(db: DB, input: string): Promise<IssuedReport | null> {
+  const code = normalizeReportCode(input);
+  if (!code) return null;
+  const row = await reportQuery(db).where('code', '=', code).executeTakeFirst();
   return row ? toReport(row) : null;
 }
 
@@ -72,25 +82,89 @@ export async function findReportById(db: DB, id: string): Promise<IssuedReport |
   return row ? toReport(row) : null;
 }
 
-/** What the public verification page may show: enough to trust the paper, nothing more. */
-export async function publicReportFacts(db: DB, code: string) {
-  return db
+/** What the public verification page and its API may show: enough to trust the paper, nothing more. */
+export type PublicReportFacts = {
+  code: string;
+  sha256: string;
+  issuedAt: Date;
+  pageCount: number;
+  /** false: issued before reports kept what they said, so the details are the project as it is today. */
+  asIssued: boolean;
+  projectName: string;
+  siteAddress: string;
+  jurisdictionName: string;
+  ruleSetVersion: number;
+  checkedAt: Date;
+  summary: EvaluationSummary;
+};
+
+export async function publicReportFacts(db: DB, input: string): Promise<PublicReportFacts | null> {
+  const code = normalizeReportCode(input);
+  if (!code) return null;
+  const row = await db
     .selectFrom('reports as r')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
     .innerJoin('projects as p', 'p.id', 'c.project_id')
     .innerJoin('rule_sets as s', 's.id', 'c.rule_set_id')
     .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
     .select([
-      'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'p.name as project_name', 'p.site_address',
+      'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'r.snapshot', 'p.name as project_name', 'p.site_address',
       'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name',
     ])
-    .where('r.code', '=', code.trim().toUpperCase())
+    .where('r.code', '=', code)
     .executeTakeFirst();
+  if (!row) return null;
+  const snap = readReportSnapshot(row.snapshot);
+  const common = { code: row.code, sha256: row.sha256, issuedAt: row.issued_at, pageCount: row.page_count };
+  if (snap) {
+    return {
+      ...common,
+      asIssued: true,
+      projectName: snap.project.name,
+      siteAddress: snap.project.siteAddress,
+      jurisdictionName: snap.jurisdiction.name,
+      ruleSetVersion: snap.ruleSet.version,
+      checkedAt: new Date(snap.check.checkedAt),
+      summary: snap.check.summary,
+    };
+  }
+  return {
+    ...common,
+    asIssued: false,
+    projectName: row.project_name,
+    siteAddress: row.site_address,
+    jurisdictionName: row.jurisdiction_name,
+    ruleSetVersion: row.rule_set_version,
+    checkedAt: row.checked_at,
+    summary: row.summary as EvaluationSummary,
+  };
+}
+
+/**
+ * Whether a send went to its jurisdiction's inspector address: as recorded, or, for sends recorded before
+ * that was kept (NULL), by today's inspector address. `sends` and `jurisdictions` are the query's aliases of
+ * report_sends and of the jurisdiction joined on its jurisdiction_id.
+ */
+export function receivedByInspector(sends: string, jurisdictions: string) {
+  return sql<boolean>`coalesce(${sql.ref(`${sends}.to_inspector`)}, lower(${sql.ref(`${sends}.to_email`)}) = lower(${sql.ref(`${jurisdictions}.inspector_email`)}), false)`;
+}
+
+/** Has the company sent a report to this address before (so sending there again needs no confirmation)? */
+export async function companyHasSentTo(db: DB, organizationId: string, email: string): Promise<boolean> {
+  const row = await db
+    .selectFrom('report_sends as s')
+    .innerJoin('projects as p', 'p.id', 's.project_id')
+    .select('s.id')
+    .where('p.organization_id', '=', organizationId)
+    .where('s.status', '=', 'sent')
+    .where(sql<string>`lower(s.to_email)`, '=', email.trim().toLowerCase())
+    .executeTakeFirst();
+  return !!row;
 }
 
 export async function recordSend(
   db: DB,
-  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string },
+  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string },
 ) {
   return db.transaction().execute(async (trx) => {
     const row = await trx
@@ -100,6 +174,7 @@ export async function recordSend(
         project_id: s.projectId,
         jurisdiction_id: s.jurisdictionId,
         to_email: s.to,
+        to_inspector: s.toInspector,
         status: s.status,
         error: s.error,
         message_id: s.messageId,
@@ -107,7 +182,7 @@ export async function recordSend(
       })
       .returningAll()
       .executeTakeFirstOrThrow();
-    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, error: s.error } });
+    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, toInspector: s.toInspector, error: s.error } });
     return row;
   });
 }
@@ -117,7 +192,7 @@ export async function listProjectSends(db: DB, projectId: string) {
     .selectFrom('report_sends as s')
     .innerJoin('reports as r', 'r.id', 's.report_id')
     .leftJoin('users as u', 'u.id', 's.created_by')
-    .select(['s.id', 's.to_email', 's.status', 's.error', 's.created_at', 'r.code', 'r.id as report_id', 'r.check_id', 'u.name as sent_by'])
+    .select(['s.id', 's.to_email', 's.to_inspector', 's.status', 's.error', 's.created_at', 'r.code', 'r.id as report_id', 'r.check_id', 'u.name as sent_by'])
     .where('s.project_id', '=', projectId)
     .orderBy('s.created_at', 'desc')
     .execute();
@@ -135,34 +210,78 @@ export async function listReviewsForProject(db: DB, projectId: string) {
     .execute();
 }
 
-/** Reports sent to one jurisdiction, newest send first, with their latest review. */
-export async function listInspections(db: DB, jurisdictionId: string | null) {
+export type InspectionListItem = {
+  reportId: string;
+  code: string;
+  sentAt: Date;
+  /** false: issued before reports kept what they said; name, address and company are today's. */
+  asIssued: boolean;
+  projectName: string;
+  siteAddress: string;
+  organizationName: string;
+  summary: EvaluationSummary;
+  checkOutcome: string;
+  reviewOutcome: ReviewOutcome | null;
+  reviewedAt: Date | null;
+};
+
+/** Reports sent to one jurisdiction, newest send first, with their latest review, as they were issued. */
+export async function listInspections(db: DB, jurisdictionId: string | null): Promise<InspectionListItem[]> {
   let q = db
     .selectFrom('report_sends as s')
     .innerJoin('reports as r', 'r.id', 's.report_id')
     .innerJoin('projects as p', 'p.id', 's.project_id')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
     .leftJoinLateral(
       (eb) =>
         eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'r.id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
       (join) => join.onTrue(),
     )
     .select([
-      'r.id as report_id', 'r.code', 's.created_at as sent_at', 'p.name as project_name', 'p.site_address', 'o.name as organization_name',
+      'r.id as report_id', 'r.code', 'r.snapshot', 's.created_at as sent_at', 'p.name as project_name', 'p.site_address', 'o.name as organization_name',
       'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
     ])
     .where('s.status', '=', 'sent')
+    // Only what reached the inspector's address is in the queue; copies to anyone else are not.
+    .where(receivedByInspector('s', 'sj'))
     .distinctOn('r.id')
     .orderBy('r.id')
     .orderBy('s.created_at', 'desc');
   if (jurisdictionId) q = q.where('s.jurisdiction_id', '=', jurisdictionId);
   const rows = await q.execute();
-  return rows.sort((a, b) => +new Date(b.sent_at) - +new Date(a.sent_at));
+  return rows
+    .map((r): InspectionListItem => {
+      const snap = readReportSnapshot(r.snapshot);
+      return {
+        reportId: r.report_id,
+        code: r.code,
+        sentAt: r.sent_at,
+        asIssued: !!snap,
+        projectName: snap?.project.name ?? r.project_name,
+        siteAddress: snap?.project.siteAddress ?? r.site_address,
+        organizationName: snap?.company.name ?? r.organization_name,
+        summary: snap?.check.summary ?? (r.summary as EvaluationSummary),
+        checkOutcome: snap?.check.outcome ?? r.check_outcome,
+        reviewOutcome: r.review_outcome ?? null,
+        reviewedAt: r.reviewed_at ?? null,
+      };
+    })
+    .sort((a, b) => +b.sentAt - +a.sentAt);
 }
 
+/** Did the report reach this jurisdiction's inspector address (and so its inspectors)? */
 export async function reportSentToJurisdiction(db: DB, reportId: string, jurisdictionId: string): Promise<boolean> {
-  const row = await db.selectFrom('report_sends').select('id').where('report_id', '=', reportId).where('jurisdiction_id', '=', jurisdictionId).where('status', '=', 'sent').executeTakeFirst();
+  const row = await db
+    .selectFrom('report_sends as s')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
+    .select('s.id')
+    .where('s.report_id', '=', reportId)
+    .where('s.jurisdiction_id', '=', jurisdictionId)
+    .where('s.status', '=', 'sent')
+    .where(receivedByInspector('s', 'sj'))
+    .executeTakeFirst();
   return !!row;
 }
 

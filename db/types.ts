@@ -192,6 +192,8 @@ export interface ReportsTable {
   attachment_ids: Json<string[]>;
   /** Schema version of the report's JSON columns (lib/domain/reports/stored). */
   schema_version: number;
+  /** What the report said when issued (lib/report/snapshot.ts); null only for reports issued before snapshots were kept. */
+  snapshot: ColumnType<Record<string, unknown> | null, string | undefined, never>;
   created_by: string | null;
   created_at: CreatedAt;
 }
@@ -205,6 +207,8 @@ export interface ReportSendsTable {
   status: 'sent' | 'failed';
   error: string | null;
   message_id: string | null;
+  /** Sent to the jurisdiction's inspector address; null only for sends recorded before this was kept. */
+  to_inspector: ColumnType<boolean | null, boolean | undefined, never>;
   created_by: string | null;
   created_at: CreatedAt;
 }

@@ -25,7 +25,7 @@ ensure_database "$DB_NAME"
 export DATABASE_URL="$(database_url "$DB_NAME")" NOOKPASS_ADMIN_DATABASE_URL="$(database_url postgres)" NOOKPASS_DEMO=1
 export NEXTAUTH_SECRET="bench-$$" NEXTAUTH_URL="http://127.0.0.1:$PORT_BENCH" NOOKPASS_BASE_URL="http://127.0.0.1:$PORT_BENCH" NEXT_TELEMETRY_DISABLED=1
 npx tsx db/migrate.ts
-npx tsx db/seed.ts
+npx tsx scripts/seed.ts
 build_if_needed
 start_fakes -bench
 node_modules/.bin/next start -H 127.0.0.1 -p "$PORT_BENCH" > "$NP_DATA/bench-app.log" 2>&1 &

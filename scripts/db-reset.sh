@@ -8,5 +8,5 @@ drop_database "$DB_NAME"
 ensure_database "$DB_NAME"
 export DATABASE_URL="$(database_url "$DB_NAME")" NOOKPASS_DEMO=1
 npx tsx db/migrate.ts
-npx tsx db/seed.ts
+npx tsx scripts/seed.ts
 say "Database $DB_NAME reset. The cluster keeps running; 'npm run stop' stops it."

@@ -10,5 +10,5 @@ ensure_auth_secret
 export DATABASE_URL="$(database_url "$DB_NAME")" NOOKPASS_DEMO=1
 export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:${PORT:-3000}}"
 npx tsx db/migrate.ts
-npx tsx db/seed.ts
+npx tsx scripts/seed.ts
 exec node_modules/.bin/next dev -H 127.0.0.1 -p "${PORT:-3000}"

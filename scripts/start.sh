@@ -19,7 +19,7 @@ export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$APP_PORT}"
 export NOOKPASS_DEMO=1
 
 npx tsx db/migrate.ts
-npx tsx db/seed.ts
+npx tsx scripts/seed.ts
 build_if_needed
 start_fakes
 

@@ -54,7 +54,7 @@ say "Unit tests…"
 npx vitest run tests/unit
 
 npx tsx db/migrate.ts
-npx tsx db/seed.ts
+npx tsx scripts/seed.ts
 
 say "Building the app for the end-to-end tests…"
 npx next build

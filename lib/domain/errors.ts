@@ -23,6 +23,18 @@ export class NotFoundError extends DomainError {
   }
 }
 export class ConflictError extends DomainError {}
+/**
+ * The request is valid but needs the person to confirm it first (say, e-mailing a report to an address the
+ * company never used): a 409 naming the field, and the same request with `confirm: true` goes ahead.
+ */
+export class ConfirmationRequiredError extends ConflictError {
+  constructor(
+    public readonly path: string,
+    message: string,
+  ) {
+    super(message);
+  }
+}
 export class ValidationError extends DomainError {
   constructor(
     public readonly errors: FieldError[],

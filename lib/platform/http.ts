@@ -1,7 +1,9 @@
 import 'server-only';
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
+import { NextRequest } from 'next/server';
 import type { z } from 'zod';
 import {
+  ConfirmationRequiredError,
   ConflictError,
   DomainError,
   ForbiddenError,
@@ -34,8 +36,6 @@ export async function readJson(request: Request): Promise<unknown> {
   if (!/^application\/(.+\+)?json\b/i.test(type)) {
     throw new ValidationError([{ path: '(body)', message: 'Send the body as JSON with Content-Type: application/json.' }]);
   }
-  const declared = Number(request.headers.get('content-length') ?? '0');
-  if (declared > MAX_JSON_BYTES) throw new PayloadTooLargeError(`The body is over ${MAX_JSON_BYTES / 1024} KiB.`);
   const text = await readTextUpTo(request, MAX_JSON_BYTES);
   let body: unknown;
   try {
@@ -66,26 +66,49 @@ export function findLoneSurrogate(value: unknown, path = ''): string | null {
   return null;
 }
 
+function tooLarge(limit: number, message?: string): PayloadTooLargeError {
+  return new PayloadTooLargeError(message ?? `The body is over ${limit >= 1024 * 1024 ? `${limit / 1024 / 1024} MB` : `${limit / 1024} KiB`}.`);
+}
+
 /**
- * Reads the body as UTF-8, stopping once it passes the limit: a chunked body declares no length,
- * so counting as it arrives is what keeps an endless upload from being buffered whole.
+ * Hands the body to `onChunk` as it arrives and stops once it passes `limit` bytes: a chunked body declares
+ * no length, so counting as it arrives is what keeps an endless upload from being held whole. A declared
+ * length over the limit is refused before anything is read. Returns the byte count.
  */
-export async function readTextUpTo(request: Request, limit: number): Promise<string> {
-  if (!request.body) return '';
+export async function streamBodyUpTo(request: Request, limit: number, onChunk: (chunk: Uint8Array) => void, message?: string): Promise<number> {
+  if (Number(request.headers.get('content-length') ?? '0') > limit) throw tooLarge(limit, message);
+  if (!request.body) return 0;
   const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
   let size = 0;
   for (;;) {
     const { done, value } = await reader.read();
-    if (done) break;
+    if (done) return size;
     size += value.byteLength;
     if (size > limit) {
       await reader.cancel().catch(() => undefined);
-      throw new PayloadTooLargeError(`The body is over ${limit / 1024} KiB.`);
+      throw tooLarge(limit, message);
     }
-    chunks.push(value);
+    onChunk(value);
   }
-  return new TextDecoder().decode(Buffer.concat(chunks));
+}
+
+/** The whole body, up to `limit` bytes (for bodies that must be held: small forms). */
+export async function readBytesUpTo(request: Request, limit: number, message?: string): Promise<Buffer> {
+  const chunks: Uint8Array[] = [];
+  await streamBodyUpTo(request, limit, (c) => chunks.push(c), message);
+  return Buffer.concat(chunks);
+}
+
+/** The body as UTF-8, up to `limit` bytes. */
+export async function readTextUpTo(request: Request, limit: number, message?: string): Promise<string> {
+  return new TextDecoder().decode(await readBytesUpTo(request, limit, message));
+}
+
+/** SHA-256 of the body, hashed as it arrives so nothing but the digest is kept. */
+export async function hashBodyUpTo(request: Request, limit: number, message?: string): Promise<{ sha256: string; byteSize: number }> {
+  const hash = createHash('sha256');
+  const byteSize = await streamBodyUpTo(request, limit, (c) => hash.update(c), message);
+  return { sha256: hash.digest('hex'), byteSize };
 }
 
 export async function parseBody<S extends z.ZodType>(request: Request, schema: S): Promise<z.output<S>> {
@@ -117,6 +140,9 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof UnauthorizedError) return json({ error: err.message }, 401);
   if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
   if (err instanceof NotFoundError) return json({ error: err.message }, 404);
+  if (err instanceof ConfirmationRequiredError) {
+    return json({ error: err.message, errors: [{ path: err.path, message: err.message }], needsConfirmation: true }, 409);
+  }
   if (err instanceof ConflictError) return json({ error: err.message }, 409);
   if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
   // RFC 6585 §4: 429 with how long to wait.
@@ -140,5 +166,22 @@ export function route<C = unknown>(handler: Handler<C>): Handler<C> {
     } catch (err) {
       return errorResponse(err);
     }
+  };
+}
+
+/**
+ * For a library that reads the whole body itself (next-auth's handler calls request.text()): the body is
+ * read here first, within `limit`, and the handler gets a copy that holds just those bytes.
+ */
+export function withBodyLimit<C>(handler: (request: NextRequest, context: C) => Promise<Response>, limit: number) {
+  return async (request: NextRequest, context: C): Promise<Response> => {
+    let bytes: Buffer;
+    try {
+      bytes = await readBytesUpTo(request, limit);
+    } catch (err) {
+      return errorResponse(err);
+    }
+    const copy = new NextRequest(request.url, { method: request.method, headers: request.headers, body: request.body ? new Uint8Array(bytes) : undefined });
+    return handler(copy, context);
   };
 }

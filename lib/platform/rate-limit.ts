@@ -100,20 +100,27 @@ export class SharedLimiter {
   }
 }
 
-const globalForLimiter = globalThis as unknown as { nookpassLimiter?: SharedLimiter; nookpassLimiterSweep?: NodeJS.Timeout };
+const globalForLimiter = globalThis as unknown as { nookpassLimiterSweep?: NodeJS.Timeout };
 
 const SWEEP_EVERY_MS = 10 * 60_000;
 
-/** The app's limiter over the app's pool; expired counters are swept every ten minutes. */
+// One per module instance, not one per process: pages and route handlers are bundled apart, each with its
+// own copy of lib/errors, and a limiter shared through globalThis would throw the other bundle's
+// TooManyRequestsError, which `instanceof` there does not recognise. The counters are in PostgreSQL anyway.
+let moduleLimiter: SharedLimiter | undefined;
+
+/** The app's limiter over the app's pool; expired counters are swept every ten minutes (one sweep per process). */
 export function sharedLimiter(): SharedLimiter {
-  if (!globalForLimiter.nookpassLimiter) {
+  if (!moduleLimiter) {
     const limiter = new SharedLimiter(getPool());
-    globalForLimiter.nookpassLimiter = limiter;
-    const sweep = setInterval(() => limiter.sweepExpired().catch(() => undefined), SWEEP_EVERY_MS);
-    sweep.unref();
-    globalForLimiter.nookpassLimiterSweep = sweep;
+    moduleLimiter = limiter;
+    if (!globalForLimiter.nookpassLimiterSweep) {
+      const sweep = setInterval(() => limiter.sweepExpired().catch(() => undefined), SWEEP_EVERY_MS);
+      sweep.unref();
+      globalForLimiter.nookpassLimiterSweep = sweep;
+    }
   }
-  return globalForLimiter.nookpassLimiter;
+  return moduleLimiter;
 }
 
 /**
@@ -122,7 +129,12 @@ export function sharedLimiter(): SharedLimiter {
  * Behind a reverse proxy, set it to append the client address ($proxy_add_x_forwarded_for or equivalent).
  */
 export function clientAddress(request: Pick<Request, 'headers'>): string {
-  const forwarded = request.headers.get('x-forwarded-for');
+  return clientAddressOf(request.headers);
+}
+
+/** The same, from the headers a server component reads with next/headers. */
+export function clientAddressOf(headers: Pick<Headers, 'get'>): string {
+  const forwarded = headers.get('x-forwarded-for');
   const last = forwarded?.split(',').map((s) => s.trim()).filter(Boolean).at(-1);
-  return last || request.headers.get('x-real-ip') || 'unknown';
+  return last || headers.get('x-real-ip') || 'unknown';
 }

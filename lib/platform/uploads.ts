@@ -21,7 +21,8 @@ const EXT: Record<string, string[]> = {
 export function safeFilename(name: string): string {
   const base = name.replace(/\\/g, '/').split('/').pop() ?? '';
   const cleaned = base.replace(/[\u0000-\u001f\u007f<>:"|?*]/g, '').replace(/^\.+/, '').trim();
-  return (cleaned || 'upload').slice(0, 120);
+  // By code point, so an emoji at the cut is not split into half a surrogate pair.
+  return [...(cleaned || 'upload')].slice(0, 120).join('');
 }
 
 export type CheckedUpload = {
@@ -34,7 +35,20 @@ export type CheckedUpload = {
   height: number | null;
   thumbnail: Buffer | null;
   display: Buffer | null;
+  /** A photo re-encoded without EXIF/XMP (camera, GPS position), for everyone outside the uploader's company. */
+  withoutMetadata: Buffer | null;
 };
+
+/**
+ * The photo at full size with no metadata: sharp writes none unless asked (withMetadata/keepExif), and
+ * .rotate() bakes the EXIF orientation into the pixels first so the picture stays the right way up.
+ */
+export async function stripPhotoMetadata(bytes: Buffer, contentType: string): Promise<Buffer> {
+  const image = sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate();
+  if (contentType === 'image/png') return image.png().toBuffer();
+  if (contentType === 'image/webp') return image.webp({ quality: 92 }).toBuffer();
+  return image.jpeg({ quality: 92 }).toBuffer();
+}
 
 /** Checks the real type from the bytes (not the name or the browser's claim), the size and the image itself. */
 export async function checkUpload(bytes: Buffer, declaredName: string): Promise<CheckedUpload> {
@@ -52,7 +66,7 @@ export async function checkUpload(bytes: Buffer, declaredName: string): Promise<
   }
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   if (DOCUMENT_TYPES.has(type)) {
-    return { kind: 'document', contentType: type, filename, bytes, sha256, width: null, height: null, thumbnail: null, display: null };
+    return { kind: 'document', contentType: type, filename, bytes, sha256, width: null, height: null, thumbnail: null, display: null, withoutMetadata: null };
   }
   try {
     const image = sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' });
@@ -61,7 +75,8 @@ export async function checkUpload(bytes: Buffer, declaredName: string): Promise<
     // Thumbnails for the page, a moderate JPEG for the report; both re-encoded, so no metadata rides along.
     const thumbnail = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate().resize(480, 480, { fit: 'inside' }).jpeg({ quality: 78 }).toBuffer();
     const display = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate().resize(1400, 1400, { fit: 'inside', withoutEnlargement: true }).jpeg({ quality: 80 }).toBuffer();
-    return { kind: 'photo', contentType: type, filename, bytes, sha256, width: meta.width, height: meta.height, thumbnail, display };
+    const withoutMetadata = await stripPhotoMetadata(bytes, type);
+    return { kind: 'photo', contentType: type, filename, bytes, sha256, width: meta.width, height: meta.height, thumbnail, display, withoutMetadata };
   } catch (err) {
     const msg = String((err as Error).message);
     if (/pixel limit/i.test(msg)) {

@@ -6,7 +6,7 @@ import { promisify } from 'node:util';
 import { sql } from 'kysely';
 import { afterAll, describe, expect, it } from 'vitest';
 import { migrateToLatest } from '@/db/migrator';
-import { seedDemo } from '@/db/seed';
+import { seedDemo } from '@/lib/services/demo-seed';
 import { createScratchDb } from './helpers';
 
 const run = promisify(execFile);

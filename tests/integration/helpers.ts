@@ -1,4 +1,7 @@
 import { randomBytes } from 'node:crypto';
+import { readdirSync, readFileSync, readlinkSync } from 'node:fs';
+import { request as httpRequest } from 'node:http';
+import bcrypt from 'bcryptjs';
 import pg from 'pg';
 import { createDb, type DB } from '@/db';
 
@@ -137,4 +140,115 @@ export async function api(path: string, init: RequestInit & { cookie?: string; t
 
 export function postJson(body: unknown, extra: RequestInit & { cookie?: string; token?: string } = {}) {
   return { ...extra, method: extra.method ?? 'POST', headers: { 'content-type': 'application/json', ...(extra.headers ?? {}) }, body: JSON.stringify(body) };
+}
+
+/**
+ * The process serving `baseUrl`, found the way `ss -ltnp` does it: the listening socket's inode in
+ * /proc/net/tcp{,6}, then the process holding that inode among its file descriptors (Linux, same user).
+ * A test-only window on the server's memory; null when the app is not a local process we can see.
+ */
+export function appServerPid(): number | null {
+  const port = Number(new URL(baseUrl).port || 80);
+  const inodes = new Set<string>();
+  for (const table of ['/proc/net/tcp', '/proc/net/tcp6']) {
+    let text = '';
+    try {
+      text = readFileSync(table, 'utf8');
+    } catch {
+      continue;
+    }
+    for (const line of text.split('\n').slice(1)) {
+      const cols = line.trim().split(/\s+/);
+      // st 0A is TCP_LISTEN (include/net/tcp_states.h); inode is the tenth column.
+      if (cols.length >= 10 && cols[3] === '0A' && parseInt(cols[1].split(':').pop()!, 16) === port) inodes.add(cols[9]);
+    }
+  }
+  for (const pid of readdirSync('/proc').filter((d) => /^\d+$/.test(d))) {
+    let fds: string[];
+    try {
+      fds = readdirSync(`/proc/${pid}/fd`);
+    } catch {
+      continue;
+    }
+    for (const fd of fds) {
+      try {
+        const inode = readlinkSync(`/proc/${pid}/fd/${fd}`).match(/^socket:\[(\d+)\]$/)?.[1];
+        if (inode && inodes.has(inode)) return Number(pid);
+      } catch {
+        /* closed meanwhile */
+      }
+    }
+  }
+  return null;
+}
+
+/** Resident set size of a process in MiB, from /proc/<pid>/status (VmRSS, in kB: proc(5)). */
+export function rssMiB(pid: number): number {
+  return Number(readFileSync(`/proc/${pid}/status`, 'utf8').match(/VmRSS:\s+(\d+)\s+kB/)![1]) / 1024;
+}
+
+/**
+ * Sends `prefix`, then 64 KiB chunks with Transfer-Encoding: chunked and no Content-Length, until the
+ * server answers or `capBytes` are out. Returns the status, what was sent, and — sampled every 20 ms from
+ * before the first byte until half a second after the answer — how far the server's RSS rose.
+ */
+export async function chunkedUpload(opts: {
+  method?: string;
+  path: string;
+  headers?: Record<string, string>;
+  prefix?: Buffer | string;
+  capBytes: number;
+  fill?: number;
+}): Promise<{ status: number; sentBytes: number; rssGrowthMiB: number | null; ms: number }> {
+  const pid = appServerPid();
+  const baseline = pid ? rssMiB(pid) : 0;
+  let peak = baseline;
+  const sample = () => {
+    if (pid) peak = Math.max(peak, rssMiB(pid));
+  };
+  const timer = setInterval(sample, 20);
+  const started = Date.now();
+  const chunk = Buffer.alloc(64 * 1024, opts.fill ?? 0x20);
+  try {
+    const { status, sentBytes } = await new Promise<{ status: number; sentBytes: number }>((resolve, reject) => {
+      let sent = 0;
+      let answered = false;
+      const req = httpRequest(new URL(opts.path, baseUrl), { method: opts.method ?? 'POST', headers: { ...opts.headers, 'transfer-encoding': 'chunked' } }, (res) => {
+        answered = true;
+        res.resume();
+        resolve({ status: res.statusCode ?? 0, sentBytes: sent });
+        req.destroy(); // the rest of the upload is not wanted, by either side
+      });
+      req.on('error', (err) => (answered ? undefined : reject(err)));
+      if (opts.prefix) req.write(opts.prefix);
+      const pump = () => {
+        while (!answered && sent < opts.capBytes) {
+          sent += chunk.length;
+          if (!req.write(chunk)) return void req.once('drain', pump);
+        }
+        if (!answered) req.end();
+      };
+      pump();
+    });
+    const ms = Date.now() - started;
+    await new Promise((r) => setTimeout(r, 500));
+    sample();
+    return { status, sentBytes, rssGrowthMiB: pid ? peak - baseline : null, ms };
+  } finally {
+    clearInterval(timer);
+  }
+}
+
+/**
+ * A company of its own with one installer, signed in: tests that send reports count against that company's
+ * hourly send limit instead of the demo company's, which other test files share.
+ */
+export async function newInstallerCompany(db: DB, label: string): Promise<{ cookie: string; organizationId: string; organizationName: string; email: string }> {
+  const tag = randomBytes(4).toString('hex');
+  const organizationName = `IT ${label} ${tag} (test)`;
+  const org = await db.insertInto('organizations').values({ name: organizationName }).returning('id').executeTakeFirstOrThrow();
+  const email = `it-${tag}@example.test`;
+  const password = `it-pw-${tag}`;
+  await db.insertInto('users').values({ email, name: `Installer ${tag}`, role: 'installer', organization_id: org.id, password_hash: await bcrypt.hash(password, 4) }).execute();
+  return { cookie: await signIn(email, password), organizationId: org.id, organizationName, email };
 }

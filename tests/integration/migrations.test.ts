@@ -1,6 +1,8 @@
 import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createMigrator, migrateToLatest } from '@/db/migrator';
+import { listInspections, publicReportFacts } from '@/db/reports';
+import { seedDemo } from '@/lib/services/demo-seed';
 import { createScratchDb } from './helpers';
 
 let scratch: Awaited<ReturnType<typeof createScratchDb>>;
@@ -77,5 +79,81 @@ describe('migrations', () => {
     expect((await tables()).filter((t) => !t.startsWith('kysely_'))).toEqual([]);
     const up = await migrateToLatest(scratch.db);
     expect(up.error).toBeUndefined();
+  });
+});
+
+describe('reports issued before snapshots were kept', () => {
+  // A database as it stood before the snapshot migration, with a report issued and sent then.
+  let legacy: Awaited<ReturnType<typeof createScratchDb>>;
+  const code = 'NP-LEGA-CY23';
+  const otherCode = 'NP-LEGA-CY24';
+  let jurisdictionId: string;
+  let projectId: string;
+  let checkId: string;
+
+  beforeAll(async () => {
+    legacy = await createScratchDb();
+    const before = await createMigrator(legacy.db).migrateTo('2026-12-03T00-00-00_rate-limits');
+    expect(before.error).toBeUndefined();
+    await seedDemo(legacy.db);
+    const project = await legacy.db
+      .selectFrom('projects as p')
+      .innerJoin('plan_revisions as r', 'r.project_id', 'p.id')
+      .innerJoin('rule_sets as s', (j) => j.onRef('s.jurisdiction_id', '=', 'p.jurisdiction_id').on('s.status', '=', 'published'))
+      .select(['p.id', 'p.jurisdiction_id', 'p.created_by', 'r.id as revision_id', 's.id as rule_set_id'])
+      .where('p.name', 'like', 'Demo%')
+      .executeTakeFirstOrThrow();
+    projectId = project.id;
+    jurisdictionId = project.jurisdiction_id;
+    const summary = { pass: 30, fail: 2, caution: 1, needsInfo: 0, notApplicable: 3 };
+    checkId = (await legacy.db
+      .insertInto('checks')
+      .values({ project_id: project.id, plan_revision_id: project.revision_id, rule_set_id: project.rule_set_id, inputs: '{}', facts: '{}', findings: '[]', summary: JSON.stringify(summary), outcome: 'fail', duration_ms: 5, created_by: project.created_by } as never) // a row of the schema before versions were recorded
+      .returning('id')
+      .executeTakeFirstOrThrow()).id;
+    const report = await legacy.db
+      .insertInto('reports')
+      .values({ check_id: checkId, code, sha256: 'a'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${code}.pdf`, attachment_ids: '[]', created_by: project.created_by } as never)
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    const jur = await legacy.db.selectFrom('jurisdictions').select('inspector_email').where('id', '=', project.jurisdiction_id).executeTakeFirstOrThrow();
+    const send = { project_id: project.id, jurisdiction_id: project.jurisdiction_id, status: 'sent' as const, created_by: project.created_by };
+    await legacy.db.insertInto('report_sends').values({ ...send, report_id: report.id, to_email: jur.inspector_email!.toUpperCase() }).execute();
+    // A second report of the same check, sent only to some other address.
+    const elsewhere = await legacy.db
+      .insertInto('reports')
+      .values({ check_id: checkId, code: otherCode, sha256: 'c'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${otherCode}.pdf`, attachment_ids: '[]', created_by: project.created_by } as never)
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await legacy.db.insertInto('report_sends').values({ ...send, report_id: elsewhere.id, to_email: 'someone-else@example.test' }).execute();
+    const after = await migrateToLatest(legacy.db);
+    expect(after.error).toBeUndefined();
+  }, 60_000);
+  afterAll(async () => {
+    await legacy?.drop();
+  });
+
+  it('stay readable: the verification facts and the queue fall back to the current project and say so', async () => {
+    await legacy.db.updateTable('projects').set({ name: 'Renamed after issue' }).where('id', '=', projectId).execute();
+    const facts = await publicReportFacts(legacy.db, code);
+    expect(facts).toMatchObject({ code, asIssued: false, projectName: 'Renamed after issue', pageCount: 3, summary: { fail: 2 } });
+    const queue = await listInspections(legacy.db, jurisdictionId);
+    expect(queue.find((r) => r.code === code)).toMatchObject({ asIssued: false, projectName: 'Renamed after issue' });
+    // Sends from before recorded no recipient kind: the inspector's address of today decides, in any case.
+    expect(queue.map((r) => r.code)).not.toContain(otherCode);
+  });
+
+  it('keep recording whether a send went to the inspector from now on', async () => {
+    const report = await legacy.db.selectFrom('reports').select('id').where('code', '=', code).executeTakeFirstOrThrow();
+    const row = { report_id: report.id, project_id: projectId, jurisdiction_id: jurisdictionId, to_email: 'x@example.test', status: 'sent' as const };
+    await expect(legacy.db.insertInto('report_sends').values(row).execute()).rejects.toThrow(/whether it went to the inspector/);
+    await legacy.db.insertInto('report_sends').values({ ...row, to_inspector: false }).execute();
+  });
+
+  it('are the only ones without a snapshot: a report inserted now must carry one', async () => {
+    const row = { check_id: checkId, sha256: 'b'.repeat(64), byte_size: 100, page_count: 3, storage_key: 'reports/x.pdf', attachment_ids: '[]', schema_version: 1 };
+    await expect(legacy.db.insertInto('reports').values({ ...row, code: 'NP-NEWW-ONE2' }).execute()).rejects.toThrow(/snapshot it was issued with/);
+    await expect(legacy.db.insertInto('reports').values({ ...row, code: 'NP-NEWW-ONE3', snapshot: '"not an object"' }).execute()).rejects.toThrow(/snapshot/);
+    await legacy.db.insertInto('reports').values({ ...row, code: 'NP-NEWW-ONE4', snapshot: JSON.stringify({ schemaVersion: 1 }) }).execute();
   });
 });

@@ -111,7 +111,7 @@ describe('a revision stored before the limits', () => {
     const plan = { ...hallClosetPassPlan, doors: [{ ...door, hinges: hundredThousandHinges() }, ...Array.from({ length: 4_999 }, () => door)] };
     const revision = await db
       .insertInto('plan_revisions')
-      .values({ project_id: projectId, number: 2, plan: JSON.stringify(plan), canonical: JSON.stringify({ units: 'imperial' }), change_summary: 'Saved before the plan limits (test)', created_by: model.created_by })
+      .values({ project_id: projectId, number: 2, plan: JSON.stringify(plan), canonical: JSON.stringify({ units: 'imperial' }), change_summary: 'Saved before the plan limits (test)', created_by: model.created_by, schema_version: 0 })
       .returning('id')
       .executeTakeFirstOrThrow();
     const check = await db
@@ -127,6 +127,7 @@ describe('a revision stored before the limits', () => {
         outcome: model.outcome,
         duration_ms: 1,
         created_by: model.created_by,
+        schema_version: 0,
       })
       .returning('id')
       .executeTakeFirstOrThrow();

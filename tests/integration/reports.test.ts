@@ -1,7 +1,10 @@
 import bcrypt from 'bcryptjs';
+import { parse as parseContentDisposition } from 'content-disposition';
 import sharp from 'sharp';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { withoutMetadataKey } from '@/db/attachments';
+import { deleteObject, getObject } from '@/lib/platform/storage';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
 import { api, appDb, baseUrl, postJson, signIn } from './helpers';
 
@@ -85,6 +88,37 @@ describe('uploads', () => {
     expect(await countAttachments()).toBe(before);
   });
 
+  it('accepts a file of exactly 15 MB and refuses one byte more, extra files and unknown fields, naming the part', { timeout: 60_000 }, async () => {
+    const MAX = 15 * 1024 * 1024; // lib/uploads.ts MAX_UPLOAD_BYTES
+    const pdfOf = (size: number) => Buffer.concat([Buffer.from('%PDF-1.4\n'), Buffer.alloc(size - 9, 0x20)]);
+    const atLimit = await upload(installer, 'at-limit.pdf', pdfOf(MAX), 'application/pdf');
+    expect(atLimit.status, JSON.stringify(atLimit.body)).toBe(201);
+    expect(atLimit.body.byteSize).toBe(MAX);
+    expect((await api(`/api/attachments/${atLimit.body.id}`, { method: 'DELETE', cookie: installer })).status).toBe(200);
+    expect((await upload(installer, 'over.pdf', pdfOf(MAX + 1), 'application/pdf')).status).toBe(413);
+
+    const before = await countAttachments();
+    const png = await sharp({ create: { width: 8, height: 8, channels: 3, background: '#123456' } }).png().toBuffer();
+    const post = async (form: FormData) => {
+      const res = await fetch(`${baseUrl}/api/projects/${projectId}/attachments`, { method: 'POST', headers: { cookie: installer }, body: form });
+      return { status: res.status, body: await res.json() };
+    };
+    const two = new FormData();
+    two.append('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), 'a.png');
+    two.append('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), 'b.png');
+    expect((await post(two)).status).toBe(400);
+    const extra = new FormData();
+    extra.set('file', new Blob([new Uint8Array(png)], { type: 'image/png' }), 'a.png');
+    extra.set('owner', 'someone else');
+    const extraRes = await post(extra);
+    expect(extraRes.status).toBe(400);
+    expect(extraRes.body.errors[0].path).toBe('owner');
+    const long = await upload(installer, 'a.png', png, 'image/png', 'x'.repeat(301));
+    expect(long.status).toBe(400);
+    expect(long.body.errors[0].path).toBe('caption');
+    expect(await countAttachments()).toBe(before);
+  });
+
   it('strips folders from the file name', async () => {
     const png = await sharp({ create: { width: 20, height: 20, channels: 3, background: '#fff' } }).png().toBuffer();
     const res = await upload(installer, '../../etc/passwd.png', png, 'image/png');
@@ -93,6 +127,27 @@ describe('uploads', () => {
     const del = await api(`/api/attachments/${res.body.id}`, { method: 'DELETE', cookie: installer });
     expect(del.status).toBe(200);
     expect((await raw(`/api/attachments/${res.body.id}`, installer)).status).toBe(404);
+  });
+
+  it('takes and serves a file named outside Latin-1, with its thumbnail', async () => {
+    const name = 'фото-😀.png';
+    const png = await sharp({ create: { width: 40, height: 30, channels: 3, background: '#88aa66' } }).png().toBuffer();
+    const res = await upload(installer, name, png, 'image/png');
+    expect(res.status).toBe(201);
+    expect(res.body.filename).toBe(name);
+    const orig = await raw(`/api/attachments/${res.body.id}`, installer);
+    expect(orig.status).toBe(200);
+    expect(orig.bytes.equals(png)).toBe(true);
+    // RFC 6266 §4.3 / RFC 8187: filename* carries the UTF-8 name, filename a plain fallback.
+    const header = orig.headers.get('content-disposition')!;
+    expect(header).toContain(`filename*=UTF-8''${encodeURIComponent('фото-')}`);
+    const parsed = parseContentDisposition(header);
+    expect(parsed.type).toBe('inline');
+    expect(parsed.parameters.filename).toBe(name); // the package prefers filename* when both are there
+    const thumb = await raw(`/api/attachments/${res.body.id}?variant=thumb`, installer);
+    expect(thumb.status).toBe(200);
+    expect(parseContentDisposition(thumb.headers.get('content-disposition')!).parameters.filename).toBe('фото-😀.jpg');
+    expect((await sharp(thumb.bytes).metadata()).format).toBe('jpeg');
   });
 
   it('keeps files away from another company', async () => {
@@ -115,7 +170,8 @@ describe('report download and verification', () => {
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toBe('application/pdf');
     code = res.headers.get('x-report-code')!;
-    expect(res.headers.get('content-disposition')).toBe(`attachment; filename="nookpass-it-report-project-ixi-${code}.pdf"`);
+    const disposition = parseContentDisposition(res.headers.get('content-disposition')!);
+    expect(disposition).toMatchObject({ type: 'attachment', parameters: { filename: `nookpass-it-report-project-ixi-${code}.pdf` } });
     pdf = res.bytes;
     const doc = await getDocumentProxy(new Uint8Array(pdf));
     const { text } = await extractText(doc, { mergePages: true });
@@ -146,7 +202,7 @@ describe('report download and verification', () => {
     const facts = await api(`/api/reports/${code}`);
     expect(facts.status).toBe(200);
     expect(facts.body).toMatchObject({ code, projectName: 'IT report project <i>x</i>', ruleSetVersion: 1 });
-    expect(Object.keys(facts.body).sort()).toEqual(['checkedAt', 'code', 'issuedAt', 'jurisdiction', 'pageCount', 'projectName', 'ruleSetVersion', 'sha256', 'siteAddress', 'summary'].sort());
+    expect(Object.keys(facts.body).sort()).toEqual(['asIssued', 'checkedAt', 'code', 'issuedAt', 'jurisdiction', 'pageCount', 'projectName', 'ruleSetVersion', 'sha256', 'siteAddress', 'summary'].sort());
     const verify = (body: Buffer) => fetch(`${baseUrl}/api/reports/${code}/verify`, { method: 'POST', body: new Uint8Array(body) }).then((r) => r.json());
     expect((await verify(pdf)).genuine).toBe(true);
     const altered = Buffer.from(pdf);
@@ -190,7 +246,7 @@ describe('sending to the inspector and the review', () => {
 
   it('says so when the mail server refuses, keeps the check and the report, and records the failed send', async () => {
     const before = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid' }, { cookie: installer }));
+    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid', confirm: true }, { cookie: installer }));
     expect(res.status).toBe(400);
     expect(res.body.errors[0]).toMatchObject({ path: 'to', message: expect.stringContaining('refused nobody@mailbox.invalid') });
     const failed = await db.selectFrom('report_sends').selectAll().where('to_email', '=', 'nobody@mailbox.invalid').executeTakeFirstOrThrow();
@@ -238,5 +294,45 @@ describe('sending to the inspector and the review', () => {
     const page = await fetch(`${baseUrl}/projects/${projectId}`, { headers: { cookie: installer } });
     expect(await page.text()).toContain('Corrections needed');
     await expect(db.updateTable('inspection_reviews').set({ outcome: 'approved' }).where('report_id', '=', reportId).execute()).rejects.toThrow(/append-only/);
+  });
+});
+
+describe('photos seen outside the company', () => {
+  it('serves the original to the company with its GPS position and to the inspector without any metadata', { timeout: 60_000 }, async () => {
+    // EXIF 2.32: GPS data sits in the GPS IFD, reached through tag 34853 (0x8825) of IFD0.
+    const gpsPointer = Buffer.from([0x25, 0x88]); // little-endian ("II"), as sharp writes it
+    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#5577aa' } })
+      .withExif({ IFD0: { ImageDescription: 'test photo' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 1234/100', GPSLongitudeRef: 'W', GPSLongitude: '0/1 7/1 500/100' } })
+      .jpeg()
+      .toBuffer();
+    const source = await sharp(jpeg).metadata();
+    expect(source.exif?.includes(gpsPointer)).toBe(true);
+    const res = await upload(installer, 'site-with-position.jpg', jpeg, 'image/jpeg', 'Photo with a GPS position');
+    expect(res.status).toBe(201);
+    const sent = await api(`/api/checks/${checkId}/send`, postJson({}, { cookie: installer }));
+    expect(sent.status).toBe(201);
+
+    const own = await raw(`/api/attachments/${res.body.id}`, installer);
+    expect(own.bytes.equals(jpeg)).toBe(true);
+    const theirs = await raw(`/api/attachments/${res.body.id}`, inspector);
+    expect(theirs.status).toBe(200);
+    expect(theirs.headers.get('content-type')).toBe('image/jpeg');
+    const meta = await sharp(theirs.bytes).metadata();
+    expect(meta.exif).toBeUndefined();
+    expect(meta.xmp).toBeUndefined();
+    expect([meta.width, meta.height]).toEqual([320, 240]);
+    expect(theirs.bytes.includes(Buffer.from('Exif\0\0', 'latin1'))).toBe(false); // no APP1 EXIF segment (JFIF/EXIF 2.32 §4.5.4)
+    for (const variant of ['thumb', 'display']) {
+      expect((await sharp((await raw(`/api/attachments/${res.body.id}?variant=${variant}`, inspector)).bytes).metadata()).exif, variant).toBeUndefined();
+    }
+
+    // A photo uploaded before copies without metadata were kept gets one made the first time it is served.
+    const row = await db.selectFrom('attachments').select('storage_key').where('id', '=', res.body.id).executeTakeFirstOrThrow();
+    await deleteObject(withoutMetadataKey(row.storage_key));
+    expect(await getObject(withoutMetadataKey(row.storage_key))).toBeNull();
+    const remade = await raw(`/api/attachments/${res.body.id}`, inspector);
+    expect(remade.status).toBe(200);
+    expect((await sharp(remade.bytes).metadata()).exif).toBeUndefined();
+    expect((await getObject(withoutMetadataKey(row.storage_key)))?.equals(remade.bytes)).toBe(true);
   });
 });

@@ -1,10 +1,9 @@
 import { randomBytes } from 'node:crypto';
-import { request as httpRequest } from 'node:http';
 import bcrypt from 'bcryptjs';
 import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+import { api, appDb, baseUrl, chunkedUpload, postJson, signIn } from './helpers';
 
 /*
  * Hostile input against the write paths that take the richest JSON: stateless evaluations, plan
@@ -277,30 +276,51 @@ describe('oversized bodies', () => {
   });
 });
 
+describe('chunked bodies with no length on the routes that take files and forms', () => {
+  // Each is sent up to 256 MiB; the server must answer once it has counted past its limit, having held at
+  // most about that much. Bounds: the limit, plus what sits in socket buffers (client) and not-yet-collected
+  // chunks (server). RSS comes from /proc/<pid>/status of the app server (helpers.appServerPid).
+  const MiB = 1024 * 1024;
+  const CAP = 256 * MiB;
+  let reportCode: string;
+
+  beforeAll(async () => {
+    expect((await api(`/api/projects/${projectId}/plans`, postJson({ plan: hallClosetPassPlan }, { cookie: installer }))).status).toBe(201);
+    const check = await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }));
+    const res = await fetch(`${baseUrl}/api/checks/${check.body.id}/report`, { headers: { cookie: installer } });
+    await res.arrayBuffer();
+    reportCode = res.headers.get('x-report-code')!;
+    expect(reportCode).toBeTruthy();
+  }, 60_000);
+
+  it('the public verification hashes as it reads and refuses past 30 MB', { timeout: 120_000 }, async () => {
+    const res = await chunkedUpload({ path: `/api/reports/${reportCode}/verify`, headers: { 'content-type': 'application/pdf', 'x-forwarded-for': '198.51.100.31' }, prefix: '%PDF-1.7\n', capBytes: CAP });
+    expect(res.status).toBe(413);
+    expect(res.sentBytes).toBeLessThan(30 * MiB + 32 * MiB);
+    expect(res.rssGrowthMiB, 'server RSS growth (MiB)').not.toBeNull();
+    expect(res.rssGrowthMiB!).toBeLessThan(64);
+  });
+
+  it('an attachment upload is refused once the file passes 15 MB, without holding more', { timeout: 120_000 }, async () => {
+    const boundary = 'hostile-boundary-7f3a';
+    const head = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="endless.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`;
+    const res = await chunkedUpload({ path: `/api/projects/${projectId}/attachments`, headers: { cookie: installer, 'content-type': `multipart/form-data; boundary=${boundary}` }, prefix: head, capBytes: CAP });
+    expect(res.status).toBe(413);
+    expect(res.sentBytes).toBeLessThan(15 * MiB + 32 * MiB);
+    expect(res.rssGrowthMiB!).toBeLessThan(64);
+  });
+
+  it('the sign-in form is refused past 16 KiB before next-auth reads it', { timeout: 120_000 }, async () => {
+    const res = await chunkedUpload({ path: '/api/auth/callback/credentials', headers: { 'content-type': 'application/x-www-form-urlencoded' }, prefix: 'email=a%40b.test&password=', capBytes: CAP, fill: 0x61 });
+    expect(res.status).toBe(413);
+    expect(res.sentBytes).toBeLessThan(32 * MiB);
+    expect(res.rssGrowthMiB!).toBeLessThan(64);
+  });
+});
+
 /** Writes a JSON-looking body in 64 KiB chunks until the server answers (or 64 MiB are out), returning the status and bytes sent. */
 function endlessUpload(method: string, path: string, cookie: string): Promise<{ status: number; sentBytes: number }> {
-  const url = new URL(path, baseUrl);
-  const chunk = Buffer.alloc(64 * 1024, 0x20);
-  const cap = 64 * 1024 * 1024;
-  return new Promise((resolve, reject) => {
-    let sent = 0;
-    let answered = false;
-    const req = httpRequest(url, { method, headers: { cookie, 'content-type': 'application/json', 'transfer-encoding': 'chunked' } }, (res) => {
-      answered = true;
-      resolve({ status: res.statusCode ?? 0, sentBytes: sent });
-      req.destroy(); // the rest of the upload is not wanted, by either side
-    });
-    req.on('error', (err) => (answered ? undefined : reject(err)));
-    req.write('{"pad":"');
-    const pump = () => {
-      while (!answered && sent < cap) {
-        sent += chunk.length;
-        if (!req.write(chunk)) return void req.once('drain', pump);
-      }
-      if (!answered) req.end('"}');
-    };
-    pump();
-  });
+  return chunkedUpload({ method, path, headers: { cookie, 'content-type': 'application/json' }, prefix: '{"pad":"', capBytes: 64 * 1024 * 1024 });
 }
 
 describe('hostile ids in the URL', () => {

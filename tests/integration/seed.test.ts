@@ -1,7 +1,7 @@
 import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { migrateToLatest } from '@/db/migrator';
-import { seedDemo } from '@/db/seed';
+import { seedDemo } from '@/lib/services/demo-seed';
 import { createScratchDb } from './helpers';
 
 let scratch: Awaited<ReturnType<typeof createScratchDb>>;

@@ -7,7 +7,6 @@ import { PageHeader } from '@/components/ui/page-header';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
-import type { EvaluationSummary } from '@/lib/domain/engine';
 
 export const metadata: Metadata = { title: 'Inspections' };
 
@@ -37,23 +36,23 @@ export default async function InspectionsPage() {
               <tr><th className="px-4 py-3">Received</th><th className="px-4 py-3">Project</th><th className="px-4 py-3">Installer</th><th className="px-4 py-3">Check</th><th className="px-4 py-3">Your outcome</th></tr>
             </thead>
             <tbody className="divide-y divide-rule">
-              {rows.map((r) => {
-                const s = r.summary as EvaluationSummary;
-                return (
-                  <tr key={r.report_id}>
-                    <td className="px-4 py-3">{new Date(r.sent_at).toLocaleString()}</td>
-                    <td className="px-4 py-3">
-                      <Link href={`/inspections/${r.report_id}`} className="font-semibold underline-offset-2 hover:underline">{r.project_name}</Link>
-                      <div className="text-xs text-ink-faint">{r.site_address} · report {r.code}</div>
-                    </td>
-                    <td className="px-4 py-3">{r.organization_name}</td>
-                    <td className="px-4 py-3 font-mono text-xs">{s.fail} fail · {s.caution} caution · {s.needsInfo} info</td>
-                    <td className="px-4 py-3">
-                      {r.review_outcome === 'approved' ? <StatusBadge status="pass" label="Approved" /> : r.review_outcome === 'corrections-needed' ? <StatusBadge status="fail" label="Corrections needed" /> : <span className="text-ink-faint">Not reviewed</span>}
-                    </td>
-                  </tr>
-                );
-              })}
+              {rows.map((r) => (
+                <tr key={r.reportId}>
+                  <td className="px-4 py-3">{r.sentAt.toLocaleString()}</td>
+                  <td className="px-4 py-3">
+                    <Link href={`/inspections/${r.reportId}`} className="font-semibold underline-offset-2 hover:underline">{r.projectName}</Link>
+                    <div className="text-xs text-ink-faint">
+                      {r.siteAddress} · report {r.code}
+                      {!r.asIssued && ' · issued before reports kept their details; shown as today'}
+                    </div>
+                  </td>
+                  <td className="px-4 py-3">{r.organizationName}</td>
+                  <td className="px-4 py-3 font-mono text-xs">{r.summary.fail} fail · {r.summary.caution} caution · {r.summary.needsInfo} info</td>
+                  <td className="px-4 py-3">
+                    {r.reviewOutcome === 'approved' ? <StatusBadge status="pass" label="Approved" /> : r.reviewOutcome === 'corrections-needed' ? <StatusBadge status="fail" label="Corrections needed" /> : <span className="text-ink-faint">Not reviewed</span>}
+                  </td>
+                </tr>
+              ))}
             </tbody>
           </table>
         </div>

@@ -5,7 +5,7 @@ import { countPdfPages, sha256Hex } from '@/lib/platform/pdf/report-code';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 
 // The code helpers live apart so request handlers use them without loading the PDF renderer.
-export { countPdfPages, newReportCode, sha256Hex } from '@/lib/platform/pdf/report-code';
+export { countPdfPages, sha256Hex } from '@/lib/platform/pdf/report-code';
 
 export type RenderedReport = { pdf: Buffer; sha256: string; pageCount: number };
 

@@ -14,13 +14,18 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   const { projectId } = await assertCanReadReport(db, user, report);
   const check = await findCheckById(db, report.checkId);
   if (!check) throw new NotFoundError('The check of this report is missing.');
-  const project = await db
+  const current = await db
     .selectFrom('projects as p')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
     .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'p.is_demo'])
     .where('p.id', '=', projectId)
     .executeTakeFirstOrThrow();
+  // As issued when the report kept a snapshot; reports from before that show the project as it is today.
+  const snap = report.snapshot;
+  const project = snap
+    ? { id: current.id, name: snap.project.name, siteAddress: snap.project.siteAddress, permitNumber: snap.project.permitNumber, organizationName: snap.company.name, licenseNumber: snap.company.licenseNumber, jurisdictionName: snap.jurisdiction.name, isDemo: snap.project.isDemo }
+    : { id: current.id, name: current.name, siteAddress: current.site_address, permitNumber: current.permit_number, organizationName: current.organization_name, licenseNumber: current.license_number, jurisdictionName: current.jurisdiction_name, isDemo: current.is_demo };
   const included = new Set(report.attachmentIds);
   const attachments = (await listAttachments(db, projectId)).filter((a) => included.has(a.id)).map(({ storageKey: _s, thumbnailKey: _t, ...a }) => a);
   const reviews = await db
@@ -31,7 +36,7 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
     .orderBy('v.created_at', 'desc')
     .execute();
   return {
-    report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount },
+    report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount, asIssued: !!snap },
     project,
     check: { findings: check.findings, summary: check.summary, createdAt: check.createdAt },
     attachments,

@@ -11,7 +11,8 @@ import { NotFoundError } from '@/lib/domain/errors';
 import { parseStoredPlan } from '@/lib/domain/plan';
 import { getObject, putObject } from '@/lib/platform/storage';
 import type { ReportData } from '@/lib/domain/reports/report-data';
-import { newReportCode } from '@/lib/platform/pdf/report-code';
+import { newReportCode } from '@/lib/domain/reports/code';
+import { buildReportSnapshot } from '@/lib/domain/reports/snapshot';
 import { renderReportOffThread } from '@/lib/platform/pdf/render-pool';
 
 export function publicBaseUrl(): string {
@@ -94,6 +95,7 @@ export async function issueReport(db: DB, user: AppUser, checkId: string): Promi
     pageCount,
     storageKey,
     attachmentIds,
+    snapshot: buildReportSnapshot({ ...data, jurisdiction: { slug: project.jurisdiction.slug, name: data.jurisdiction.name } }),
     createdBy: user.id,
   });
   return { report, pdf, project, check, renderMs };

@@ -26,13 +26,19 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
   const { report, project, check, attachments, reviews } = data;
   return (
     <>
-      <PageHeader kicker={`${project.jurisdiction_name} · report ${report.code}`} title={project.name}>
+      <PageHeader kicker={`${project.jurisdictionName} · report ${report.code}`} title={project.name}>
         <a className="btn-secondary" href={`/api/reports/${report.code}/pdf`}>Download the issued PDF</a>
         <Link className="btn-secondary" href={`/verify/${report.code}`}>Verification page</Link>
       </PageHeader>
       <p className="-mt-4 mb-4 text-sm text-ink-soft">
-        {project.site_address} · {project.organization_name}{project.license_number ? `, licence ${project.license_number}` : ''}{project.permit_number ? ` · permit ${project.permit_number}` : ''}
+        {project.siteAddress} · {project.organizationName}{project.licenseNumber ? `, licence ${project.licenseNumber}` : ''}{project.permitNumber ? ` · permit ${project.permitNumber}` : ''}
       </p>
+      {!report.asIssued && (
+        <p className="mb-4 text-sm text-ink-soft">
+          Issued before NookPass recorded what each report said: the project details above are as they are today. The
+          issued PDF is the record of what the report said.
+        </p>
+      )}
       <SummaryCounts summary={check.summary} />
       <div className="mt-4"><SafetyNotice compact /></div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">

@@ -96,7 +96,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                 {sends.map((s) => (
                   <li key={s.id}>
                     {s.status === 'sent' ? <StatusBadge status="pass" label="Sent" /> : <StatusBadge status="fail" label="Failed" />}
-                    <span className="ml-2">report {s.code} to {s.to_email} · {s.sent_by ?? 'former user'} · {new Date(s.created_at).toLocaleString()}</span>
+                    <span className="ml-2">report {s.code} to {s.to_email}{s.to_inspector === false ? ' (e-mail only, not in the inspector’s queue)' : ''} · {s.sent_by ?? 'former user'} · {new Date(s.created_at).toLocaleString()}</span>
                     {s.error && <span className="block text-status-fail">{s.error}</span>}
                   </li>
                 ))}

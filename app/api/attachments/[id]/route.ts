@@ -1,40 +1,70 @@
+import { create as contentDisposition } from 'content-disposition';
 import { z } from 'zod';
 import { getDb } from '@/db';
-import { attachmentSentToJurisdiction, displayKey, findAttachment, markAttachmentDeleted, updateCaption, type Attachment } from '@/db/attachments';
+import { attachmentSentToJurisdiction, displayKey, findAttachment, markAttachmentDeleted, updateCaption, withoutMetadataKey, type Attachment } from '@/db/attachments';
 import { getProject } from '@/db/projects';
 import type { AppUser } from '@/lib/domain/roles';
 import { requireUser } from '@/lib/platform/auth/session';
 import { NotFoundError } from '@/lib/domain/errors';
 import { json, parseBody, route } from '@/lib/platform/http';
-import { deleteObject, getObject } from '@/lib/platform/storage';
+import { deleteObject, getObject, putObject } from '@/lib/platform/storage';
+import { stripPhotoMetadata } from '@/lib/platform/uploads';
 
 type Ctx = { params: Promise<{ id: string }> };
 
-async function load(user: AppUser, id: string, write: boolean): Promise<Attachment> {
+/** The attachment, if the caller may see it, and whether the caller belongs to the company that uploaded it. */
+async function load(user: AppUser, id: string, write: boolean): Promise<{ a: Attachment; ownCompany: boolean }> {
   const db = getDb();
   const a = await findAttachment(db, id);
   if (!a) throw new NotFoundError('No such file.');
   if (user.role === 'inspector') {
-    if (!write && user.jurisdictionId && (await attachmentSentToJurisdiction(db, a.id, user.jurisdictionId))) return a;
+    if (!write && user.jurisdictionId && (await attachmentSentToJurisdiction(db, a.id, user.jurisdictionId))) return { a, ownCompany: false };
     throw new NotFoundError('No such file.');
   }
-  await getProject(db, user, a.projectId);
-  return a;
+  const project = await getProject(db, user, a.projectId);
+  return { a, ownCompany: !!user.organizationId && user.organizationId === project.organizationId };
 }
+
+/** The photo without metadata; one uploaded before such copies were kept gets it made now, and stored. */
+async function photoWithoutMetadata(a: Attachment): Promise<Buffer | null> {
+  const key = withoutMetadataKey(a.storageKey);
+  const stored = await getObject(key);
+  if (stored) return stored;
+  const original = await getObject(a.storageKey);
+  if (!original) return null;
+  const stripped = await stripPhotoMetadata(original, a.contentType);
+  await putObject(key, stripped, a.contentType);
+  return stripped;
+}
+
+const asJpegName = (filename: string) => filename.replace(/\.[^.]*$/, '') + '.jpg';
 
 export const GET = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request);
-  const a = await load(user, (await params).id, false);
+  const { a, ownCompany } = await load(user, (await params).id, false);
   const variant = new URL(request.url).searchParams.get('variant');
-  const key = variant === 'thumb' && a.thumbnailKey ? a.thumbnailKey : variant === 'display' && a.kind === 'photo' ? displayKey(a.storageKey) : a.storageKey;
-  const bytes = await getObject(key);
+  // Thumbnails and the display size are re-encoded JPEGs without metadata; the original keeps its EXIF
+  // (camera, GPS position) only for the company that took it.
+  let bytes: Buffer | null;
+  let type = 'image/jpeg';
+  let filename = a.filename;
+  if (variant === 'thumb' && a.thumbnailKey) {
+    bytes = await getObject(a.thumbnailKey);
+    filename = asJpegName(a.filename);
+  } else if (variant === 'display' && a.kind === 'photo') {
+    bytes = await getObject(displayKey(a.storageKey));
+    filename = asJpegName(a.filename);
+  } else {
+    type = a.contentType;
+    bytes = a.kind === 'photo' && !ownCompany ? await photoWithoutMetadata(a) : await getObject(a.storageKey);
+  }
   if (!bytes) throw new NotFoundError('The file is missing from storage.');
-  const type = key === a.storageKey ? a.contentType : 'image/jpeg';
   return new Response(new Uint8Array(bytes), {
     headers: {
       'content-type': type,
       'content-length': String(bytes.length),
-      'content-disposition': `${a.kind === 'photo' ? 'inline' : 'attachment'}; filename="${a.filename.replace(/"/g, '')}"`,
+      // RFC 6266 with an RFC 8187 filename* for names outside ISO-8859-1, and a plain fallback beside it.
+      'content-disposition': contentDisposition(filename, { type: a.kind === 'photo' ? 'inline' : 'attachment' }),
       'x-content-type-options': 'nosniff',
       'cache-control': 'private, max-age=300',
     },
@@ -45,7 +75,7 @@ const patchSchema = z.strictObject({ caption: z.string().trim().max(300, 'Keep t
 
 export const PATCH = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
-  const a = await load(user, (await params).id, true);
+  const { a } = await load(user, (await params).id, true);
   const { caption } = await parseBody(request, patchSchema);
   await updateCaption(getDb(), a.id, caption, user.id);
   return json({ id: a.id, caption });
@@ -53,9 +83,9 @@ export const PATCH = route<Ctx>(async (request, { params }) => {
 
 export const DELETE = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
-  const a = await load(user, (await params).id, true);
+  const { a } = await load(user, (await params).id, true);
   await markAttachmentDeleted(getDb(), a.id, user.id);
   // Issued reports keep their embedded copy; the stored files go.
-  await Promise.allSettled([a.storageKey, a.thumbnailKey, a.kind === 'photo' ? displayKey(a.storageKey) : null].filter(Boolean).map((k) => deleteObject(k!)));
+  await Promise.allSettled([a.storageKey, a.thumbnailKey, ...(a.kind === 'photo' ? [displayKey(a.storageKey), withoutMetadataKey(a.storageKey)] : [])].filter(Boolean).map((k) => deleteObject(k!)));
   return json({ deleted: true });
 });

@@ -1,3 +1,4 @@
+import { create as contentDisposition } from 'content-disposition';
 import { getDb } from '@/db';
 import { requireUser } from '@/lib/platform/auth/session';
 import { ForbiddenError } from '@/lib/domain/errors';
@@ -15,7 +16,7 @@ export const GET = route<Ctx>(async (request, { params }) => {
   return new Response(new Uint8Array(pdf), {
     headers: {
       'content-type': 'application/pdf',
-      'content-disposition': `attachment; filename="${reportFilename(project, report.code)}"`,
+      'content-disposition': contentDisposition(reportFilename(project, report.code)),
       'content-length': String(pdf.length),
       'cache-control': 'no-store',
       'x-report-code': report.code,

@@ -38,7 +38,7 @@ export const POST = route<Ctx>(async (request, { params }) => {
         to: s.email,
         subject: `Inspection outcome for ${inspection.project.name}: ${outcomeText}`,
         text: [
-          `${user.name} (${inspection.project.jurisdiction_name}) recorded "${outcomeText}" for report ${inspection.report.code}.`,
+          `${user.name} (${inspection.project.jurisdictionName}) recorded "${outcomeText}" for report ${inspection.report.code}.`,
           input.comment ? `\n${input.comment}\n` : '',
           ...Object.entries(findingComments).map(([k, c]) => `- ${inspection.check.findings.find((f) => f.ruleKey === k)?.title ?? k}: ${c}`),
           '',

@@ -1,10 +1,11 @@
 import { randomUUID } from 'node:crypto';
 import { getDb } from '@/db';
-import { displayKey, insertAttachment, listAttachments } from '@/db/attachments';
+import { displayKey, insertAttachment, listAttachments, withoutMetadataKey } from '@/db/attachments';
 import { getProject } from '@/db/projects';
 import { requireUser } from '@/lib/platform/auth/session';
-import { PayloadTooLargeError, ValidationError } from '@/lib/domain/errors';
+import { ValidationError } from '@/lib/domain/errors';
 import { json, route } from '@/lib/platform/http';
+import { readMultipartUpload } from '@/lib/platform/multipart';
 import { deleteObject, putObject } from '@/lib/platform/storage';
 import { checkUpload, MAX_UPLOAD_BYTES } from '@/lib/platform/uploads';
 
@@ -21,23 +22,17 @@ export const POST = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
   const db = getDb();
   const project = await getProject(db, user, (await params).id);
-  if (Number(request.headers.get('content-length') ?? 0) > MAX_UPLOAD_BYTES + 64 * 1024) {
-    throw new PayloadTooLargeError(`Files can be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
-  }
-  if (!/^multipart\/form-data/i.test(request.headers.get('content-type') ?? '')) {
-    throw new ValidationError([{ path: '(body)', message: 'Send the file as multipart/form-data with a "file" field.' }]);
-  }
-  let form: FormData;
-  try {
-    form = await request.formData();
-  } catch {
-    throw new ValidationError([{ path: '(body)', message: 'The upload could not be read.' }]);
-  }
-  const file = form.get('file');
-  if (!(file instanceof File)) throw new ValidationError([{ path: 'file', message: 'Choose a file to upload.' }]);
-  const caption = String(form.get('caption') ?? '').trim();
+  const { file, fields } = await readMultipartUpload(request, {
+    fileField: 'file',
+    maxFileBytes: MAX_UPLOAD_BYTES,
+    fields: ['caption'],
+    maxFieldBytes: 2 * 1024, // 300 characters of any script fit in 1,200 bytes of UTF-8
+    tooLargeMessage: `Files can be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`,
+  });
+  if (!file) throw new ValidationError([{ path: 'file', message: 'Choose a file to upload.' }]);
+  const caption = (fields.caption ?? '').trim();
   if (caption.length > 300) throw new ValidationError([{ path: 'caption', message: 'Keep the caption under 300 characters.' }]);
-  const checked = await checkUpload(Buffer.from(await file.arrayBuffer()), file.name);
+  const checked = await checkUpload(file.bytes, file.filename);
 
   const id = randomUUID();
   const key = `attachments/${project.id}/${id}`;
@@ -53,6 +48,10 @@ export const POST = route<Ctx>(async (request, { params }) => {
     if (checked.display) {
       await putObject(displayKey(key), checked.display, 'image/jpeg');
       written.push(displayKey(key));
+    }
+    if (checked.withoutMetadata) {
+      await putObject(withoutMetadataKey(key), checked.withoutMetadata, checked.contentType);
+      written.push(withoutMetadataKey(key));
     }
     const saved = await insertAttachment(
       db,

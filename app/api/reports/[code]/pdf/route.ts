@@ -1,3 +1,4 @@
+import { create as contentDisposition } from 'content-disposition';
 import { getDb } from '@/db';
 import { findReportByCode } from '@/db/reports';
 import { requireUser } from '@/lib/platform/auth/session';
@@ -20,7 +21,7 @@ export const GET = route<Ctx>(async (request, { params }) => {
   return new Response(new Uint8Array(pdf), {
     headers: {
       'content-type': 'application/pdf',
-      'content-disposition': `attachment; filename="nookpass-report-${report.code}.pdf"`,
+      'content-disposition': contentDisposition(`nookpass-report-${report.code}.pdf`),
       'cache-control': 'private, no-store',
     },
   });

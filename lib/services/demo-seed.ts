@@ -1,4 +1,4 @@
-import { createDb, type DB } from '@/db/index';
+import type { DB } from '@/db/index';
 import { demoAmendments, demoJurisdictions, demoOrganizations, demoPassword, demoProjects, demoUsers } from '@/db/demo';
 import { demoPlans } from '@/db/demo-plans';
 import { toJurisdiction } from '@/db/jurisdictions';
@@ -124,30 +124,4 @@ export async function seedDemo(db: DB): Promise<void> {
         .execute();
     });
   }
-}
-
-async function main() {
-  if (process.env.NOOKPASS_DEMO !== '1') {
-    console.error('[seed] refusing to seed: the demo data is for local use and tests (set NOOKPASS_DEMO=1).');
-    process.exit(1);
-  }
-  const url = process.env.DATABASE_URL;
-  if (!url) {
-    console.error('[seed] DATABASE_URL is not set.');
-    process.exit(1);
-  }
-  const db = createDb(url, 1);
-  try {
-    await seedDemo(db);
-    console.log('[seed] demo scenario is in place');
-  } finally {
-    await db.destroy();
-  }
-}
-
-if (process.argv[1] && /seed\.ts$/.test(process.argv[1])) {
-  main().catch((err) => {
-    console.error('[seed]', err);
-    process.exit(1);
-  });
 }

@@ -1,0 +1,74 @@
+import 'server-only';
+import type { DB } from '@/db';
+import { getCheck } from '@/db/checks';
+import { getProject } from '@/db/projects';
+import { companyHasSentTo, recordSend } from '@/db/reports';
+import type { AppUser } from '@/lib/domain/roles';
+import { ConfirmationRequiredError, NotFoundError, ServiceUnavailableError, ValidationError } from '@/lib/domain/errors';
+import { sendMail } from '@/lib/platform/mail';
+import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
+import { countReportSend } from '@/lib/services/reports/limits';
+import type { SendInput } from '@/lib/domain/reports/send-schema';
+
+const sameAddress = (a: string, b: string | null) => !!b && a.trim().toLowerCase() === b.trim().toLowerCase();
+
+async function inspectorAddress(db: DB, jurisdictionId: string) {
+  return db.selectFrom('jurisdictions').select(['inspector_email', 'name']).where('id', '=', jurisdictionId).executeTakeFirstOrThrow();
+}
+
+/**
+ * Issues a report for the check and e-mails it. The jurisdiction's inspector address, and addresses the
+ * company has sent to before, go without asking; any other address needs `confirm: true`. Only a send to
+ * the inspector address puts the report in the jurisdiction's inspector queue. Sends count against the
+ * company's hourly limit before anything is issued.
+ */
+export async function sendReport(db: DB, user: AppUser, checkId: string, input: SendInput) {
+  const check = await getCheck(db, user, checkId);
+  if (!check) throw new NotFoundError('No such check, or its project belongs to another company.');
+  const before = await getProject(db, user, check.projectId);
+  const jur = await inspectorAddress(db, before.jurisdiction.id);
+  const to = (input.to ?? jur.inspector_email ?? '').trim();
+  if (!to) throw new ValidationError([{ path: 'to', message: `${jur.name} has no inspector e-mail on file; enter the address.` }]);
+  if (!sameAddress(to, jur.inspector_email) && !input.confirm && !(await companyHasSentTo(db, before.organizationId, to))) {
+    throw new ConfirmationRequiredError(
+      'to',
+      `${to} is not ${jur.name}’s inspector address${jur.inspector_email ? ` (${jur.inspector_email})` : ''} and your company has not sent a report there before. ` +
+        'Check the address; to send anyway, send again with confirm: true. Only reports sent to the inspector address reach the inspector’s queue in NookPass.',
+    );
+  }
+  await countReportSend(before.organizationId);
+
+  const { report, pdf, project, check: issuedCheck } = await issueReport(db, user, checkId);
+  // Recorded against the jurisdiction the report was issued for, by its inspector address at this moment.
+  const issuedJur = project.jurisdiction.id === before.jurisdiction.id ? jur : await inspectorAddress(db, project.jurisdiction.id);
+  const toInspector = sameAddress(to, issuedJur.inspector_email);
+  const verifyUrl = `${publicBaseUrl()}/verify/${report.code}`;
+  const s = issuedCheck.summary;
+  const text = [
+    `${user.name} sends the NookPass check report for ${project.name}, ${project.siteAddress} (${issuedJur.name}).`,
+    '',
+    `Report ${report.code}: ${s.fail} fail, ${s.caution} caution, ${s.needsInfo} need information, ${s.pass} pass.`,
+    `Rule set version ${issuedCheck.ruleSet.version}; plan revision ${issuedCheck.planRevision.number}.`,
+    input.note ? `\nNote from the installer:\n${input.note}\n` : '',
+    `Confirm the attached PDF is the one NookPass issued: ${verifyUrl}`,
+    `SHA-256 of the PDF: ${report.sha256}`,
+    '',
+    'The locally adopted code, the AHJ and licensed trades govern; this report does not replace the inspection.',
+  ].join('\n');
+  const record = { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, toInspector, actorId: user.id };
+  try {
+    const { messageId } = await sendMail({
+      to,
+      subject: `Check report ${report.code} — ${project.name}`,
+      text,
+      attachments: [{ filename: reportFilename(project, report.code), content: pdf, contentType: 'application/pdf' }],
+    });
+    await recordSend(db, { ...record, status: 'sent', error: null, messageId });
+    return { sent: true as const, to, toInspector, report: { code: report.code, sha256: report.sha256 } };
+  } catch (err) {
+    if (!(err instanceof ServiceUnavailableError) && !(err instanceof ValidationError)) throw err;
+    // The report stays issued and the failure is on record; sending again later works.
+    await recordSend(db, { ...record, status: 'failed', error: err.message, messageId: null });
+    throw err;
+  }
+}
