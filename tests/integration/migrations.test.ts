@@ -93,7 +93,8 @@ describe('reports issued before snapshots were kept', () => {
 
   beforeAll(async () => {
     legacy = await createScratchDb();
-    const before = await createMigrator(legacy.db).migrateTo('2026-12-03T00-00-00_rate-limits');
+    // The schema just before reports kept their snapshot (the demo seed writes today's other columns).
+    const before = await createMigrator(legacy.db).migrateTo('2026-12-04T00-00-00_stored-schema-versions');
     expect(before.error).toBeUndefined();
     await seedDemo(legacy.db);
     const project = await legacy.db
@@ -108,12 +109,12 @@ describe('reports issued before snapshots were kept', () => {
     const summary = { pass: 30, fail: 2, caution: 1, needsInfo: 0, notApplicable: 3 };
     checkId = (await legacy.db
       .insertInto('checks')
-      .values({ project_id: project.id, plan_revision_id: project.revision_id, rule_set_id: project.rule_set_id, inputs: '{}', facts: '{}', findings: '[]', summary: JSON.stringify(summary), outcome: 'fail', duration_ms: 5, created_by: project.created_by } as never) // a row of the schema before versions were recorded
+      .values({ project_id: project.id, plan_revision_id: project.revision_id, rule_set_id: project.rule_set_id, inputs: '{}', facts: '{}', findings: '[]', summary: JSON.stringify(summary), outcome: 'fail', duration_ms: 5, created_by: project.created_by, schema_version: 0 })
       .returning('id')
       .executeTakeFirstOrThrow()).id;
     const report = await legacy.db
       .insertInto('reports')
-      .values({ check_id: checkId, code, sha256: 'a'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${code}.pdf`, attachment_ids: '[]', created_by: project.created_by } as never)
+      .values({ check_id: checkId, code, sha256: 'a'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${code}.pdf`, attachment_ids: '[]', created_by: project.created_by, schema_version: 0 })
       .returning('id')
       .executeTakeFirstOrThrow();
     const jur = await legacy.db.selectFrom('jurisdictions').select('inspector_email').where('id', '=', project.jurisdiction_id).executeTakeFirstOrThrow();
@@ -122,7 +123,7 @@ describe('reports issued before snapshots were kept', () => {
     // A second report of the same check, sent only to some other address.
     const elsewhere = await legacy.db
       .insertInto('reports')
-      .values({ check_id: checkId, code: otherCode, sha256: 'c'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${otherCode}.pdf`, attachment_ids: '[]', created_by: project.created_by } as never)
+      .values({ check_id: checkId, code: otherCode, sha256: 'c'.repeat(64), byte_size: 100, page_count: 3, storage_key: `reports/${project.id}/${otherCode}.pdf`, attachment_ids: '[]', created_by: project.created_by, schema_version: 0 })
       .returning('id')
       .executeTakeFirstOrThrow();
     await legacy.db.insertInto('report_sends').values({ ...send, report_id: elsewhere.id, to_email: 'someone-else@example.test' }).execute();
