@@ -17,6 +17,7 @@ import type { FieldError } from '@/lib/domain/errors';
 export * from '@/lib/domain/plan/schema';
 export * from '@/lib/domain/plan/registry';
 export { isAreaPath, labelForPath } from '@/lib/domain/plan/labels';
+export * from '@/lib/domain/plan/editor';
 
 export type { FieldError };
 
