@@ -16,7 +16,7 @@ import type { FieldError } from '@/lib/domain/errors';
 
 export * from '@/lib/domain/plan/schema';
 export * from '@/lib/domain/plan/registry';
-export { isAreaPath, labelForPath } from '@/lib/domain/plan/labels';
+export { isAreaPath, isPathWithin, labelForPath } from '@/lib/domain/plan/labels';
 export * from '@/lib/domain/plan/editor';
 
 export type { FieldError };

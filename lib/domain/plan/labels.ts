@@ -1,5 +1,5 @@
 import { keyWords } from '@/lib/domain/units';
-import { entryAt } from '@/lib/domain/plan/registry';
+import { entryAt, patternOf, type PlanFieldPattern } from '@/lib/domain/plan/registry';
 
 /**
  * A plan field's label in messages, from the registry: `exhaust.run.2.straight` reads "Exhaust run item 3
@@ -22,4 +22,10 @@ export function labelForPath(path: string): string {
 /** Whether the field at a path holds an area (sq in / cm²) rather than a length. */
 export function isAreaPath(path: string): boolean {
   return entryAt(path)?.entry.kind === 'area';
+}
+
+/** Whether a plan path is one of `fields` or lies inside one of them (`doors.0.width` inside `doors`). */
+export function isPathWithin(path: string, fields: readonly PlanFieldPattern[]): boolean {
+  const pattern = patternOf(path);
+  return fields.some((field) => pattern === field || pattern.startsWith(`${field}.`));
 }
