@@ -246,37 +246,6 @@ export const planRegistry = {
         },
       },
     },
-    // The doors close the enclosure: listed beside it.
-    doors: {
-      kind: 'list',
-      section: 'doors',
-      label: 'Enclosure doors',
-      itemLabel: 'Door',
-      help: 'The enclosure doors.',
-      max: MAX_DOORS,
-      noun: 'doors',
-      newItem: { kind: 'hinged', width: '', height: '', thickness: '3/4', hinges: '' },
-      item: {
-        kind: 'group',
-        help: 'An enclosure door.',
-        fields: {
-          kind: { kind: 'choice', label: 'Opens', help: 'How the door opens.', choices: doorKinds },
-          width: { kind: 'length', label: 'Width', help: 'Width of the door leaf.' },
-          height: { kind: 'length', label: 'Height', help: 'Height of the door leaf.' },
-          thickness: { kind: 'length', label: 'Thickness', help: 'Thickness of the door leaf.' },
-          hinges: {
-            kind: 'list',
-            label: 'Hinge positions from the bottom edge',
-            help: 'Hinge positions, each measured from the bottom edge of the door.',
-            hint: `Comma-separated, e.g. 3, 40, 77 (at most ${MAX_HINGES_PER_DOOR}); “none” for a door without hinges.`,
-            max: MAX_HINGES_PER_DOOR,
-            noun: 'hinge positions on a door',
-            none: { answer: 'empty', meaning: 'A door without hinges.', word: 'none' },
-            item: { kind: 'length', help: 'Distance of a hinge cup centre from the bottom edge of the door.' },
-          },
-        },
-      },
-    },
     washer: { kind: 'group', section: 'washer', help: 'The clothes washer.', fields: applianceFields },
     dryer: {
       kind: 'group',
@@ -484,6 +453,36 @@ export const planRegistry = {
         connectorLength: { kind: 'length', label: 'Appliance connector length', help: 'Length of the appliance connector to the dryer.' },
       },
     },
+    doors: {
+      kind: 'list',
+      section: 'doors',
+      label: 'Enclosure doors',
+      itemLabel: 'Door',
+      help: 'The enclosure doors.',
+      max: MAX_DOORS,
+      noun: 'doors',
+      newItem: { kind: 'hinged', width: '', height: '', thickness: '3/4', hinges: '' },
+      item: {
+        kind: 'group',
+        help: 'An enclosure door.',
+        fields: {
+          kind: { kind: 'choice', label: 'Opens', help: 'How the door opens.', choices: doorKinds },
+          width: { kind: 'length', label: 'Width', help: 'Width of the door leaf.' },
+          height: { kind: 'length', label: 'Height', help: 'Height of the door leaf.' },
+          thickness: { kind: 'length', label: 'Thickness', help: 'Thickness of the door leaf.' },
+          hinges: {
+            kind: 'list',
+            label: 'Hinge positions from the bottom edge',
+            help: 'Hinge positions, each measured from the bottom edge of the door.',
+            hint: `Comma-separated, e.g. 3, 40, 77 (at most ${MAX_HINGES_PER_DOOR}); “none” for a door without hinges.`,
+            max: MAX_HINGES_PER_DOOR,
+            noun: 'hinge positions on a door',
+            none: { answer: 'empty', meaning: 'A door without hinges.', word: 'none' },
+            item: { kind: 'length', help: 'Distance of a hinge cup centre from the bottom edge of the door.' },
+          },
+        },
+      },
+    },
   },
 } as const satisfies GroupEntry;
 
@@ -552,7 +551,17 @@ export function entryAt(path: string): RegistryEntry | undefined {
   return byPattern.get(patternOf(path));
 }
 
-/** The bounded lists of a plan, outer lists before the lists inside their items. */
-export const PLAN_LIST_LIMITS: ReadonlyArray<{ path: PlanListPath; max: number; noun: string }> = registryEntries.flatMap((e) =>
-  e.entry.kind === 'list' ? [{ path: e.path as PlanListPath, max: e.entry.max, noun: e.entry.noun }] : [],
-);
+const lists = registryEntries.filter((e) => e.entry.kind === 'list');
+const nested = lists.filter((e) => e.path.includes('*') || lists.some((inner) => inner.path.startsWith(`${e.path}.`)));
+
+/**
+ * The bounded lists of a plan: lists that hold lists come first, each before the lists inside its items (so
+ * a list cut to its limit is never walked past it), then the others, in registry order.
+ */
+export const PLAN_LIST_LIMITS: ReadonlyArray<{ path: PlanListPath; max: number; noun: string }> = [
+  ...nested,
+  ...lists.filter((e) => !nested.includes(e)),
+].map((e) => {
+  const entry = e.entry as ListEntry;
+  return { path: e.path as PlanListPath, max: entry.max, noun: entry.noun };
+});
