@@ -1,6 +1,6 @@
 import type { Drawing } from '@/lib/domain/drawing';
 import { StatusMark } from '@/components/ui/status-badge';
-import { labelForPath } from '@/lib/domain/units';
+import { labelForPath } from '@/lib/domain/plan';
 import { DrawingLegend } from '@/components/drawings/drawing-legend';
 import { DrawingSvg } from '@/components/drawings/drawing-svg';
 

@@ -3,11 +3,13 @@
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
 import { fittingEquivalentIn } from '@/lib/domain/facts/exhaust';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import { MAX_EXHAUST_RUN_PIECES, type RunItem } from '@/lib/domain/plan';
+import type { EditorField, EditorList, PlanFieldPath, RunItem } from '@/lib/domain/plan';
 import { formatLength, parseLength, type UnitSystem } from '@/lib/domain/units';
-import { runItemFields } from '@/components/plan-editor/field-spec';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import { ListLimit } from '@/components/plan-editor/list-limit';
+
+// The maker's maximum, when it applies, replaces the code maximum in the running total.
+const MAKER_MAX: PlanFieldPath = 'dryer.maxDuctLength';
 
 type FormRunItem = { straight?: string; elbow?: string; fitting?: string };
 
@@ -22,15 +24,16 @@ function toRunItem(item: FormRunItem, units: UnitSystem, path: string): { item: 
 }
 
 /** The ordered exhaust route: straight runs and elbows, with developed and allowed length updating live. */
-export function ExhaustRouteBuilder({ params }: { params: RuleSetParameters }) {
+export function ExhaustRouteBuilder({ list, params }: { list: EditorList; params: RuleSetParameters }) {
   const { control } = useFormContext();
-  const { fields, append, remove, move } = useFieldArray({ control, name: 'exhaust.run' });
-  const run = (useWatch({ name: 'exhaust.run' }) as FormRunItem[] | undefined) ?? [];
+  const { fields, append, remove, move } = useFieldArray({ control, name: list.path });
+  const run = (useWatch({ name: list.path }) as FormRunItem[] | undefined) ?? [];
+  const itemField = (key: keyof FormRunItem) => list.fields.find((f) => f.path === key) as EditorField;
   const units = ((useWatch({ name: 'units' }) as UnitSystem) || 'imperial') as UnitSystem;
-  const makerMax = useWatch({ name: 'dryer.maxDuctLength' }) as string | undefined;
+  const makerMax = useWatch({ name: MAKER_MAX }) as string | undefined;
 
   const rows = run.map((item, i) => {
-    const { item: parsed, ok } = toRunItem(item ?? {}, units, `exhaust.run.${i}.straight`);
+    const { item: parsed, ok } = toRunItem(item ?? {}, units, `${list.path}.${i}.straight`);
     const equivalentIn = ok ? (parsed.straight ?? 0) + fittingEquivalentIn(parsed, params) : null;
     return { isElbow: !!item?.elbow, equivalentIn };
   });
@@ -41,18 +44,19 @@ export function ExhaustRouteBuilder({ params }: { params: RuleSetParameters }) {
   let allowedSource = 'code maximum';
   if (params.exhaust.allowManufacturerLength && makerMax && String(makerMax).trim()) {
     const text = String(makerMax).trim();
-    const m = parseLength(/^\d+(\.\d+)?$/.test(text) ? Number(text) : text, units, 'dryer.maxDuctLength');
+    const m = parseLength(/^\d+(\.\d+)?$/.test(text) ? Number(text) : text, units, MAKER_MAX);
     if (m.ok) {
       allowedIn = m.value;
       allowedSource = 'maker’s maximum';
     }
   }
   const over = developedIn > allowedIn;
-  const full = fields.length >= MAX_EXHAUST_RUN_PIECES;
+  const full = fields.length >= list.max;
+  const id = `f-${list.path.replace(/\./g, '-')}`;
 
   return (
-    <fieldset id="f-exhaust-run" className="rounded-lg border border-rule p-4" aria-describedby="f-exhaust-run-limit">
-      <legend className="px-1 text-base font-semibold">Exhaust route, from the transition connection to the terminal</legend>
+    <fieldset id={id} className="rounded-lg border border-rule p-4" aria-describedby={`${id}-limit`}>
+      <legend className="px-1 text-base font-semibold">{list.label}</legend>
       <p className="text-sm text-ink-soft">The transition duct is not counted. Each elbow counts at its equivalent length from the adopted edition’s table.</p>
 
       <div className="mt-3 flex flex-wrap items-center gap-4 rounded-md bg-paper-deep px-4 py-3" aria-live="polite" data-testid="route-totals">
@@ -85,11 +89,11 @@ export function ExhaustRouteBuilder({ params }: { params: RuleSetParameters }) {
               <div className="grid flex-1 gap-3 sm:grid-cols-2">
                 {rows[i]?.isElbow ? (
                   <>
-                    <PlanField spec={runItemFields[1]} name={`exhaust.run.${i}.elbow`} />
-                    <PlanField spec={runItemFields[2]} name={`exhaust.run.${i}.fitting`} />
+                    <PlanField spec={itemField('elbow')} name={`${list.path}.${i}.elbow`} />
+                    <PlanField spec={itemField('fitting')} name={`${list.path}.${i}.fitting`} />
                   </>
                 ) : (
-                  <PlanField spec={runItemFields[0]} name={`exhaust.run.${i}.straight`} />
+                  <PlanField spec={itemField('straight')} name={`${list.path}.${i}.straight`} />
                 )}
               </div>
               <div className="mt-6 flex flex-col items-end gap-1">
@@ -113,7 +117,7 @@ export function ExhaustRouteBuilder({ params }: { params: RuleSetParameters }) {
         <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '90', fitting: 'mitered' })}>Add 90° elbow</button>
         <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '45', fitting: 'mitered' })}>Add 45° elbow</button>
       </div>
-      <ListLimit name="exhaust.run" count={fields.length} max={MAX_EXHAUST_RUN_PIECES} noun="pieces in the route" />
+      <ListLimit name={list.path} count={fields.length} max={list.max} noun="pieces in the route" />
     </fieldset>
   );
 }

@@ -1,6 +1,8 @@
 // Converts between a saved plan (as the installer entered it) and the editor's string-valued form.
-import type { PlanInput } from '@/lib/domain/plan';
-import { runItemFields, sections, type FieldSpec, type FormValues } from '@/components/plan-editor/field-spec';
+import { editorSections, followingGroups, type EditorField, type PlanInput } from '@/lib/domain/plan';
+
+// The form holds one string per field, and arrays of those for lists, under the plan's own paths.
+export type FormValues = Record<string, any>;
 
 function getAt(obj: any, path: string): any {
   return path.split('.').reduce((o, k) => (o == null ? undefined : o[k]), obj);
@@ -16,25 +18,34 @@ function setAt(obj: any, path: string, value: unknown) {
   o[keys[keys.length - 1]] = value;
 }
 
-function toFormValue(spec: FieldSpec, v: unknown): string {
+function deleteAt(obj: any, path: string) {
+  const keys = path.split('.');
+  const parent = keys.length === 1 ? obj : getAt(obj, keys.slice(0, -1).join('.'));
+  if (parent && typeof parent === 'object') delete parent[keys[keys.length - 1]];
+}
+
+function toFormValue(spec: EditorField, v: unknown): string {
   if (spec.kind === 'presence') return v === null ? 'none' : v === undefined ? '' : 'present';
   if (spec.noneWord && (v === null || (Array.isArray(v) && v.length === 0))) return spec.noneWord;
   if (v === undefined || v === null) return '';
-  if (spec.kind === 'bool') return v === true ? 'yes' : v === false ? 'no' : '';
+  if (spec.kind === 'boolean') return v === true ? 'yes' : v === false ? 'no' : '';
   if (spec.kind === 'length-list') return Array.isArray(v) ? v.map(String).join(', ') : String(v);
   return String(v);
 }
 
-function fromFormValue(spec: FieldSpec, v: unknown): unknown {
+function fromFormValue(spec: EditorField, v: unknown): unknown {
   if (typeof v !== 'string') return v === '' ? undefined : v;
   const text = v.trim();
   if (text === '') return undefined;
   if (spec.noneWord && text.toLowerCase() === spec.noneWord) return spec.kind === 'length-list' ? [] : null;
   switch (spec.kind) {
-    case 'bool':
+    case 'boolean':
       return text === 'yes' ? true : text === 'no' ? false : text;
+    case 'choice':
+      // Numeric choices (an elbow's 45 or 90) are numbers in the plan.
+      if (!spec.choices?.some((c) => typeof c === 'number')) return text;
+    // falls through
     case 'number':
-    case 'int-enum':
       // Left as text when it is not a number, so the schema names the field in its error.
       return Number.isFinite(Number(text)) ? Number(text) : text;
     case 'length':
@@ -52,11 +63,11 @@ function fromFormValue(spec: FieldSpec, v: unknown): unknown {
   }
 }
 
-function itemToForm(fields: FieldSpec[], item: any): Record<string, string> {
+function itemToForm(fields: EditorField[], item: any): Record<string, string> {
   return Object.fromEntries(fields.map((f) => [f.path, toFormValue(f, getAt(item, f.path))]));
 }
 
-function itemFromForm(fields: FieldSpec[], item: any): Record<string, unknown> {
+function itemFromForm(fields: EditorField[], item: any): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const f of fields) {
     const v = fromFormValue(f, item?.[f.path]);
@@ -67,19 +78,17 @@ function itemFromForm(fields: FieldSpec[], item: any): Record<string, unknown> {
 
 export function planToForm(plan: Partial<PlanInput> | null | undefined): FormValues {
   const values: FormValues = {};
-  for (const section of sections) {
+  for (const section of editorSections) {
     for (const f of section.fields) {
       let v = f.kind === 'presence' ? getAt(plan, f.group!) : getAt(plan, f.path);
-      if (f.path === 'exhaust.boosterFan.kind' && plan?.exhaust && plan.exhaust.boosterFan === null) v = 'none';
+      if (f.noneOfGroup && getAt(plan, f.noneOfGroup) === null) v = f.choices![0];
       setAt(values, f.path, toFormValue(f, v));
     }
-    for (const list of section.lists ?? []) {
+    for (const list of section.lists) {
       const items = getAt(plan, list.path);
       setAt(values, list.path, Array.isArray(items) ? items.map((i) => itemToForm(list.fields, i)) : []);
     }
   }
-  const run = plan?.exhaust?.run;
-  setAt(values, 'exhaust.run', Array.isArray(run) ? run.map((i) => itemToForm(runItemFields, i)) : []);
   if (!values.units) values.units = 'imperial';
   return values;
 }
@@ -102,34 +111,38 @@ function prune(obj: any): any {
 /** The plan the editor's values describe; blank fields are left out (they become needs-info findings). */
 export function formToPlan(values: FormValues): PlanInput {
   const plan: any = {};
-  for (const section of sections) {
+  for (const section of editorSections) {
     for (const f of section.fields) {
       if (f.kind === 'presence') continue;
       const v = fromFormValue(f, getAt(values, f.path));
       if (v !== undefined) setAt(plan, f.path, v);
     }
-    for (const list of section.lists ?? []) {
+    for (const list of section.lists) {
       const items = getAt(values, list.path);
       if (Array.isArray(items) && items.length > 0) setAt(plan, list.path, items.map((i) => itemFromForm(list.fields, i)));
     }
   }
-  const run = getAt(values, 'exhaust.run');
-  if (Array.isArray(run) && run.length > 0) setAt(plan, 'exhaust.run', run.map((i) => itemFromForm(runItemFields, i)));
 
   const pruned = prune(plan);
   // "Not there" (null) and "there, details to come" ({}) are different answers from "not known yet".
-  for (const section of sections) {
+  for (const section of editorSections) {
     for (const f of section.fields) {
-      if (f.kind !== 'presence') continue;
-      const answer = getAt(values, f.path);
-      if (answer === 'none') setAt(pruned, f.group!, null);
-      else if (answer === 'present' && getAt(pruned, f.group!) == null) setAt(pruned, f.group!, {});
+      if (f.kind === 'presence') {
+        const answer = getAt(values, f.path);
+        if (answer === 'none') setAt(pruned, f.group!, null);
+        else if (answer === 'present' && getAt(pruned, f.group!) == null) setAt(pruned, f.group!, {});
+      } else if (f.noneOfGroup && getAt(pruned, f.path) === f.choices![0]) {
+        setAt(pruned, f.noneOfGroup, null);
+      }
     }
   }
-  if (pruned.exhaust?.boosterFan?.kind === 'none') pruned.exhaust.boosterFan = null;
-  // An electric dryer has no gas supply; a gas dryer's gas section is kept even when blank.
-  if (pruned.dryer?.fuel === 'gas') pruned.gas = pruned.gas ?? {};
-  else if (pruned.dryer?.fuel === 'electric') pruned.gas = null;
-  else delete pruned.gas;
+  // A group that follows another answer (a gas supply follows a gas dryer) is kept even when blank, set to
+  // null when the answer rules it out, and left out while that answer is not known.
+  for (const { path, follows } of followingGroups) {
+    const answer = getAt(pruned, follows.path);
+    if (answer === follows.present) setAt(pruned, path, getAt(pruned, path) ?? {});
+    else if (answer === follows.absent) setAt(pruned, path, null);
+    else deleteAt(pruned, path);
+  }
   return pruned as PlanInput;
 }

@@ -2,7 +2,7 @@
 
 import { useFormContext, useWatch, get } from 'react-hook-form';
 import { formatArea, formatLength, parseArea, parseLength, type UnitSystem } from '@/lib/domain/units';
-import type { FieldSpec } from '@/components/plan-editor/field-spec';
+import type { EditorField } from '@/lib/domain/plan';
 
 /** Shows a typed length or area in the other unit system, so a mixed-unit entry can be checked at a glance. */
 function OtherUnits({ name, kind }: { name: string; kind: 'length' | 'area' }) {
@@ -24,9 +24,9 @@ function OtherUnits({ name, kind }: { name: string; kind: 'length' | 'area' }) {
   );
 }
 
-const selectLabel = (spec: FieldSpec, v: string | number) => spec.optionLabels?.[String(v)] ?? String(v);
+const selectLabel = (spec: EditorField, v: string | number) => spec.choiceLabels?.[String(v)] ?? String(v);
 
-export function PlanField({ spec, name }: { spec: FieldSpec; name: string }) {
+export function PlanField({ spec, name }: { spec: EditorField; name: string }) {
   const {
     register,
     formState: { errors },
@@ -45,7 +45,7 @@ export function PlanField({ spec, name }: { spec: FieldSpec; name: string }) {
         <option value="none">None</option>
       </select>
     );
-  } else if (spec.kind === 'bool') {
+  } else if (spec.kind === 'boolean') {
     control = (
       <select {...common} className="field-input">
         <option value="">— not known yet</option>
@@ -53,11 +53,11 @@ export function PlanField({ spec, name }: { spec: FieldSpec; name: string }) {
         <option value="no">No</option>
       </select>
     );
-  } else if (spec.kind === 'enum' || spec.kind === 'int-enum') {
+  } else if (spec.kind === 'choice') {
     control = (
       <select {...common} className="field-input">
         <option value="">— not known yet</option>
-        {spec.options?.map((o) => (
+        {spec.choices?.map((o) => (
           <option key={String(o)} value={String(o)}>{selectLabel(spec, o)}</option>
         ))}
       </select>

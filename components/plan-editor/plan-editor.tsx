@@ -5,10 +5,9 @@ import { useEffect, useMemo, useState } from 'react';
 import { FormProvider, useFieldArray, useForm, useFormContext, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import { parsePlan, type PlanInput } from '@/lib/domain/plan';
+import { editorSections, entryAt, parsePlan, type EditorList, type PlanInput } from '@/lib/domain/plan';
 import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
-import { sections, type FormValues, type ListSpec } from '@/components/plan-editor/field-spec';
-import { formToPlan, planToForm } from '@/components/plan-editor/form-values';
+import { formToPlan, planToForm, type FormValues } from '@/components/plan-editor/form-values';
 import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import type { FieldError } from '@/lib/domain/errors';
@@ -16,7 +15,11 @@ import type { FieldError } from '@/lib/domain/errors';
 
 /** Maps a plan path to the editor field that shows it ("doors.0.hinges.2" → "doors.0.hinges"). */
 function formPathFor(planPath: string): string {
-  return planPath.replace(/^(doors\.\d+\.hinges)\.\d+$/, '$1');
+  const parts = planPath.split('.');
+  const list = entryAt(parts.slice(0, -1).join('.'))?.entry;
+  // A list of plain values is typed into one field, so its items' errors show there.
+  const inOneField = /^\d+$/.test(parts[parts.length - 1]) && list?.kind === 'list' && list.item.kind !== 'group';
+  return inOneField ? parts.slice(0, -1).join('.') : planPath;
 }
 
 function toFormErrors(errors: FieldError[]): FieldErrors<FormValues> {
@@ -37,7 +40,7 @@ const planResolver: Resolver<FormValues> = async (values) => {
   return { values: {}, errors: toFormErrors(parsed.errors) };
 };
 
-function ListEditor({ list }: { list: ListSpec }) {
+function ListEditor({ list }: { list: EditorList }) {
   const { control } = useFormContext();
   const { fields, append, remove } = useFieldArray({ control, name: list.path });
   const full = fields.length >= list.max;
@@ -67,12 +70,16 @@ function ListEditor({ list }: { list: ListSpec }) {
   );
 }
 
+function getPath(values: FormValues, path: string): unknown {
+  return path.split('.').reduce<unknown>((o, k) => (o == null ? undefined : (o as Record<string, unknown>)[k]), values);
+}
+
 function Sections({ params }: { params: RuleSetParameters }) {
   const values = useWatch() as FormValues;
   return (
     <>
-      {sections.map((section) => {
-        if (section.showWhen && !section.showWhen(values)) return null;
+      {editorSections.map((section) => {
+        if (section.shownWhen && getPath(values, section.shownWhen.path) !== section.shownWhen.equals) return null;
         return (
           <section key={section.id} id={`section-${section.id}`} aria-labelledby={`h-${section.id}`} className="card p-5">
             <h2 id={`h-${section.id}`} className="text-lg font-bold">{section.title}</h2>
@@ -82,8 +89,13 @@ function Sections({ params }: { params: RuleSetParameters }) {
                 {section.fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
               </div>
             )}
-            {section.id === 'exhaust' && <div className="mt-5"><ExhaustRouteBuilder params={params} /></div>}
-            {section.lists?.map((list) => <ListEditor key={list.path} list={list} />)}
+            {section.lists.map((list) =>
+              list.bespoke === 'exhaust-route-builder' ? (
+                <div key={list.path} className="mt-5"><ExhaustRouteBuilder list={list} params={params} /></div>
+              ) : (
+                <ListEditor key={list.path} list={list} />
+              ),
+            )}
           </section>
         );
       })}

@@ -1,5 +1,5 @@
 import { computeFactsWithMissing, fittingEquivalentIn } from '@/lib/domain/facts';
-import type { FittingKind, Plan, RunItem } from '@/lib/domain/plan';
+import type { FittingKind, Plan, PlanFieldPath, RunItem } from '@/lib/domain/plan';
 import { formatLength } from '@/lib/domain/units';
 import type { DrawingOptions } from '@/lib/domain/drawing/front-elevation';
 import { markNotes, toMarks } from '@/lib/domain/drawing/marks';
@@ -62,7 +62,7 @@ export function exhaustSchematic(plan: Plan, options: DrawingOptions): ExhaustSc
   const fmt = (inches: number) => formatLength(inches, plan.units);
   const exhaust = plan.exhaust;
   const run = exhaust?.run ?? [];
-  const missing: string[] = [];
+  const missing: PlanFieldPath[] = [];
   if (run.length === 0) missing.push(...(factMissing['exhaust.developedLengthIn'] ?? ['exhaust.run']));
   const transition = exhaust?.transition?.length ?? null;
   if (transition === null) missing.push('exhaust.transition.length');

@@ -1,5 +1,5 @@
 import type { RuleSetParameters } from '@/lib/domain/params';
-import type { Plan } from '@/lib/domain/plan';
+import { isPathWithin, type Plan, type PlanFieldPattern } from '@/lib/domain/plan';
 import { formatLength } from '@/lib/domain/units';
 import { closetLayout, type UnitBox } from '@/lib/domain/drawing/layout';
 import { markNotes, toMarks, type Mark, type MarkSource } from '@/lib/domain/drawing/marks';
@@ -14,8 +14,17 @@ export interface DrawingOptions {
 const ELEVATION_RULES = ['clearances.width', 'clearances.height', 'service.removal-width', 'service.toe-kick'];
 
 // What a front view needs; depths belong to the plan view.
-const ELEVATION_FIELDS =
-  /^(enclosure\.(width|height|depthMeasured|panelThickness|openingWidth|toeKick.*)|arrangement|(washer|dryer)\.(width|height|clearances\.(side|top))|doors.*)$/;
+const ELEVATION_FIELDS: readonly PlanFieldPattern[] = [
+  'enclosure.width',
+  'enclosure.height',
+  'enclosure.depthMeasured',
+  'enclosure.panelThickness',
+  'enclosure.openingWidth',
+  'enclosure.toeKick',
+  'arrangement',
+  ...(['washer', 'dryer'] as const).flatMap((unit) => [`${unit}.width`, `${unit}.height`, `${unit}.clearances.side`, `${unit}.clearances.top`] as const),
+  'doors',
+];
 
 function zoneStatus(marks: Map<string, Mark>, ruleKey: string) {
   const mark = marks.get(ruleKey);
@@ -102,7 +111,7 @@ export function frontElevation(plan: Plan, options: DrawingOptions): Drawing {
     title: 'Front elevation',
     scale: 'to-scale',
     ...framed,
-    missing: layout.missing.filter((path) => ELEVATION_FIELDS.test(path)),
+    missing: layout.missing.filter((path) => isPathWithin(path, ELEVATION_FIELDS)),
     notes: [...layout.notes, ...markNotes(marks, ELEVATION_RULES)],
     caution: DRAWING_CAUTION,
   };

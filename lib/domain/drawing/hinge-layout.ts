@@ -1,5 +1,5 @@
 import { hingesRequired } from '@/lib/domain/facts';
-import type { Plan } from '@/lib/domain/plan';
+import { isPathWithin, type Plan, type PlanFieldPath, type PlanFieldPattern } from '@/lib/domain/plan';
 import { formatLength, inchesToMm, mmToInches, type UnitSystem } from '@/lib/domain/units';
 import {
   CUP_BORING_DISTANCE_MM,
@@ -18,6 +18,9 @@ import type { DrawingOptions } from '@/lib/domain/drawing/front-elevation';
 import { closetLayout, type ClosetLayout, type DoorBox } from '@/lib/domain/drawing/layout';
 import { markNotes, toMarks, type Mark } from '@/lib/domain/drawing/marks';
 import { DRAWING_CAUTION, frame, mirrorX, wrapText, type Drawing, type MarkStatus, type Shape } from '@/lib/domain/drawing/shapes';
+
+// The enclosure's inside height, where the hinge layout starts, comes from these.
+const INSIDE_HEIGHT_FIELDS: readonly PlanFieldPattern[] = ['enclosure.height', 'enclosure.depthMeasured', 'enclosure.panelThickness'];
 
 export interface HingePosition {
   /** 1 is the top hinge. */
@@ -86,14 +89,14 @@ function doorLayout(
   options: DrawingOptions,
 ): DoorHingeLayout {
   const door = plan.doors![index];
-  const missing: string[] = [];
+  const missing: PlanFieldPath[] = [];
   const notes: string[] = [];
   const height = door.height ?? null;
   if (height === null) missing.push(`doors.${index}.height`);
   if (door.width === undefined) missing.push(`doors.${index}.width`);
   if (door.thickness === undefined) missing.push(`doors.${index}.thickness`);
   if (door.hinges === undefined) missing.push(`doors.${index}.hinges`);
-  if (layout.insideHeight === null) missing.push(...layout.missing.filter((p) => /^enclosure\.(height|depthMeasured|panelThickness)$/.test(p)));
+  if (layout.insideHeight === null) missing.push(...layout.missing.filter((p) => isPathWithin(p, INSIDE_HEIGHT_FIELDS)));
 
   const bottom = box?.bottom ?? layout.toeKickHeight;
   const hingeSide = box?.hingeSide ?? 'left';

@@ -1,5 +1,5 @@
 import { insideDimension } from '@/lib/domain/facts/clearances';
-import type { Appliance, Door, Plan } from '@/lib/domain/plan';
+import type { Appliance, Door, Plan, PlanFieldPath } from '@/lib/domain/plan';
 import { measure, MissingList } from '@/lib/domain/drawing/shapes';
 
 /**
@@ -51,11 +51,11 @@ export interface ClosetLayout {
   arrangement: 'side-by-side' | 'stacked';
   units: UnitBox[];
   doors: DoorBox[];
-  missing: string[];
+  missing: PlanFieldPath[];
   notes: string[];
 }
 
-function clearance(missing: MissingList, name: string, unit: Appliance | undefined, side: 'side' | 'top' | 'rear' | 'front') {
+function clearance(missing: MissingList, name: 'washer' | 'dryer', unit: Appliance | undefined, side: 'side' | 'top' | 'rear' | 'front') {
   return missing.take(`${name}.clearances.${side}`, unit?.clearances?.[side]) ?? null;
 }
 

@@ -1,3 +1,4 @@
+import type { PlanFieldPath } from '@/lib/domain/plan';
 /**
  * Drawings as plain data, so the web SVG and a later PDF renderer draw the same geometry.
  *
@@ -296,14 +297,14 @@ export function frame(shapes: Shape[], pad: number): { width: number; height: nu
   };
 }
 
-type Need = <T>(path: string, value: T | null | undefined) => T;
+type Need = <T>(path: PlanFieldPath, value: T | null | undefined) => T;
 
 /**
  * Runs a computation the way lib/facts does (a `need` per plan field) but never throws: the
  * value is null when any field was missing, and the missing paths are returned to list.
  */
-export function measure<T>(compute: (need: Need) => T): { value: T | null; missing: string[] } {
-  const missing: string[] = [];
+export function measure<T>(compute: (need: Need) => T): { value: T | null; missing: PlanFieldPath[] } {
+  const missing: PlanFieldPath[] = [];
   const need: Need = (path, value) => {
     if (value === undefined || value === null) missing.push(path);
     return value as never;
@@ -321,14 +322,14 @@ export function measure<T>(compute: (need: Need) => T): { value: T | null; missi
 
 /** Collects missing plan paths across a drawing, in first-seen order. */
 export class MissingList {
-  private readonly paths = new Set<string>();
+  private readonly paths = new Set<PlanFieldPath>();
 
-  add(paths: readonly string[]): void {
+  add(paths: readonly PlanFieldPath[]): void {
     paths.forEach((p) => this.paths.add(p));
   }
 
   /** `value` if present, otherwise records `path` and returns undefined. */
-  take<T>(path: string, value: T | null | undefined): T | undefined {
+  take<T>(path: PlanFieldPath, value: T | null | undefined): T | undefined {
     if (value === undefined || value === null) {
       this.paths.add(path);
       return undefined;
@@ -336,7 +337,7 @@ export class MissingList {
     return value;
   }
 
-  list(): string[] {
+  list(): PlanFieldPath[] {
     return [...this.paths];
   }
 }

@@ -1,10 +1,10 @@
 import { Engine, type RuleProperties, type RuleResult, type TopLevelCondition } from 'json-rules-engine';
 import { citationText, type FindingStatus } from '@/lib/domain/vocabulary';
 import { computeFactsWithMissing, factsSchema, type FactKind, type Facts, type FactValue } from '@/lib/domain/facts';
-import type { Plan } from '@/lib/domain/plan';
+import { labelForPath, type Plan } from '@/lib/domain/plan';
 import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { computeRemedy } from '@/lib/domain/remedies';
-import { formatArea, formatLength, labelForPath, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
+import { formatArea, formatLength, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
 import { conditionFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
 
 export type { FindingStatus };

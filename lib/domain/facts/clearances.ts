@@ -1,5 +1,5 @@
 import type { Appliance, Plan } from '@/lib/domain/plan';
-import { define, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
+import { define, type FactContext, type FactDefinition, type Need } from '@/lib/domain/facts/context';
 
 export const clearanceFactDefinitions: FactDefinition[] = [
   define('clearances.insideWidthIn', 'length', 'Inside width of the enclosure (outside width less two side panels when measured outside).', ['enclosure.width', 'enclosure.depthMeasured', 'enclosure.panelThickness']),
@@ -12,7 +12,6 @@ export const clearanceFactDefinitions: FactDefinition[] = [
   define('clearances.rearZoneRequiredIn', 'length', 'Rear zone wanted: the larger of the common-practice figure and the maker’s rear clearance.', ['washer.clearances.rear', 'dryer.clearances.rear']),
 ];
 
-type Need = <T>(path: string, value: T | null | undefined) => T;
 
 /** Thickness allowed for the closed doors in an outside depth: the thickest door, else one panel. */
 function doorAllowance(plan: Plan, panel: number): number {
@@ -40,7 +39,7 @@ export function units(plan: Plan): Array<['washer' | 'dryer', Appliance | undefi
 }
 
 /** Cabinet depth plus knobs and door: how far the unit reaches forward from its back. */
-export function overallDepth(need: Need, name: string, unit: Appliance | undefined): number {
+export function overallDepth(need: Need, name: 'washer' | 'dryer', unit: Appliance | undefined): number {
   return need(`${name}.depth`, unit?.depth) + need(`${name}.frontProjection`, unit?.frontProjection);
 }
 

@@ -1,4 +1,4 @@
-import type { Plan } from '@/lib/domain/plan';
+import type { Plan, PlanFieldPath } from '@/lib/domain/plan';
 import type { RuleSetParameters } from '@/lib/domain/params';
 
 export type FactKind = 'length' | 'area' | 'cfm' | 'count' | 'amps' | 'volts' | 'boolean' | 'text';
@@ -8,8 +8,8 @@ export interface FactDefinition {
   name: string;
   kind: FactKind;
   description: string;
-  /** Plan fields the fact is computed from. */
-  planPaths: string[];
+  /** Plan fields the fact is computed from (registry paths, checked by the compiler). */
+  planPaths: PlanFieldPath[];
   /** For text facts, the values it can take. */
   values?: readonly string[];
 }
@@ -23,19 +23,20 @@ function trimNoise(value: number): number {
   return Math.abs(snapped - value) < 1e-9 ? snapped : value;
 }
 
-type Need = <T>(path: string, value: T | null | undefined) => T;
+/** Reads a plan value the fact needs; the path names it in the registry when it is missing. */
+export type Need = <T>(path: PlanFieldPath, value: T | null | undefined) => T;
 
 /** Collects fact values and, for each null fact, the plan fields whose absence made it null. */
 export class FactContext {
   readonly values: Record<string, FactValue> = {};
-  readonly missing: Record<string, string[]> = {};
+  readonly missing: Record<string, PlanFieldPath[]> = {};
 
   constructor(
     readonly plan: Plan,
     readonly params: RuleSetParameters,
   ) {}
 
-  private pending: string[] = [];
+  private pending: PlanFieldPath[] = [];
   // One `need` per context: a closure made per fact costs more than the fact itself.
   private readonly need: Need = (path, value) => {
     if (value === undefined || value === null) this.pending.push(path);
@@ -94,7 +95,7 @@ export function define(
   name: string,
   kind: FactKind,
   description: string,
-  planPaths: string[],
+  planPaths: PlanFieldPath[],
   values?: readonly string[],
 ): FactDefinition {
   return values ? { name, kind, description, planPaths, values } : { name, kind, description, planPaths };

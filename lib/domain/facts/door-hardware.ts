@@ -1,6 +1,6 @@
 import type { Door, Plan } from '@/lib/domain/plan';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import { define, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
+import { define, type FactContext, type FactDefinition, type Need } from '@/lib/domain/facts/context';
 import { insideDimension, overallDepth, units } from '@/lib/domain/facts/clearances';
 
 export const doorHardwareFactDefinitions: FactDefinition[] = [
@@ -14,7 +14,6 @@ export const doorHardwareFactDefinitions: FactDefinition[] = [
   define('doors.applianceDoorSpanIn', 'length', 'Width the appliance doors need clear in front of them at one time.', ['arrangement', 'washer.width', 'dryer.width', 'doors']),
 ];
 
-type Need = <T>(path: string, value: T | null | undefined) => T;
 
 export function hingesRequired(heightIn: number, params: RuleSetParameters): number {
   const chart = [...params.doors.hingeCountChart].sort((a, b) => a.maxDoorHeightIn - b.maxDoorHeightIn);

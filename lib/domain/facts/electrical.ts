@@ -1,6 +1,6 @@
 import type { Receptacle } from '@/lib/domain/plan';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import { define, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
+import { define, type FactContext, type FactDefinition, type Need } from '@/lib/domain/facts/context';
 
 export const electricalFactDefinitions: FactDefinition[] = [
   define('electrical.laundryCircuitAmps', 'amps', 'Rating of the laundry branch circuit.', ['electrical.laundryCircuit.amps']),
@@ -20,7 +20,6 @@ export const electricalFactDefinitions: FactDefinition[] = [
   define('electrical.dryerReceptacleAmps', 'amps', 'Rating of the dryer receptacle and circuit.', ['electrical.receptacles']),
 ];
 
-type Need = <T>(path: string, value: T | null | undefined) => T;
 
 function findReceptacle(receptacles: Receptacle[] | undefined, appliance: 'washer' | 'dryer'): { receptacle?: Receptacle; index: number } {
   const index = receptacles?.findIndex((r) => r.serves === appliance || r.serves === 'both') ?? -1;
@@ -46,10 +45,10 @@ export function computeElectricalFacts(ctx: FactContext): void {
   ctx.fact('electrical.laundryCircuitAmps', (need) => need('electrical.laundryCircuit.amps', circuit?.amps));
   ctx.fact('electrical.laundryCircuitDedicated', (need) => need('electrical.laundryCircuit.dedicated', circuit?.dedicated));
 
-  const field = <K extends keyof Receptacle>(appliance: 'washer' | 'dryer', key: K) => (need: Need) => {
+  const field = <K extends keyof Receptacle & string>(appliance: 'washer' | 'dryer', key: K) => (need: Need) => {
     const { receptacle, index } = findReceptacle(receptacles, appliance);
     const found = need("electrical.receptacles", receptacle);
-    return need(`electrical.receptacles.${index}.${String(key)}`, found[key]) as never;
+    return need(`electrical.receptacles.${index}.${key}`, found[key]) as never;
   };
 
   ctx.fact('electrical.washerReceptacleDistanceIn', field('washer', 'distanceToAppliance'));

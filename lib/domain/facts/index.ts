@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { Plan } from '@/lib/domain/plan';
+import type { Plan, PlanFieldPath } from '@/lib/domain/plan';
 import type { RuleSetParameters } from '@/lib/domain/params';
 import { clearanceFactDefinitions, computeClearanceFacts } from '@/lib/domain/facts/clearances';
 import { FactContext, type FactDefinition, type FactKind, type FactValue } from '@/lib/domain/facts/context';
@@ -36,7 +36,7 @@ export type Facts = Record<string, FactValue>;
 export interface FactsWithMissing {
   facts: Facts;
   /** For each null fact, the plan fields that are missing. */
-  missing: Record<string, string[]>;
+  missing: Record<string, PlanFieldPath[]>;
 }
 
 export function computeFactsWithMissing(plan: Plan, params: RuleSetParameters): FactsWithMissing {

@@ -1,4 +1,4 @@
-import { define, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
+import { define, type FactContext, type FactDefinition, type Need } from '@/lib/domain/facts/context';
 
 export const makeupAirFactDefinitions: FactDefinition[] = [
   define('makeupAir.isCloset', 'boolean', 'The appliances stand in a closet or cabinet enclosure.', ['space.kind']),
@@ -19,7 +19,7 @@ export function computeMakeupAirFacts(ctx: FactContext): void {
   const openings = plan.makeupAir?.openings;
 
   ctx.fact('makeupAir.isCloset', (need) => CLOSETS.has(need('space.kind', plan.space?.kind)));
-  const sumWhere = (position?: string) => (need: <T>(path: string, value: T | null | undefined) => T) =>
+  const sumWhere = (position?: string) => (need: Need) =>
     need('makeupAir.openings', openings).reduce((sum, opening, index) => {
       if (position !== undefined && need(`makeupAir.openings.${index}.position`, opening.position) !== position) return sum;
       return sum + need(`makeupAir.openings.${index}.netFreeArea`, opening.netFreeArea);

@@ -1,5 +1,5 @@
 import type { RuleSetParameters } from '@/lib/domain/params';
-import { define, nominalSizeIn, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
+import { define, nominalSizeIn, type FactContext, type FactDefinition, type Need } from '@/lib/domain/facts/context';
 
 export const plumbingFactDefinitions: FactDefinition[] = [
   define('plumbing.standpipeHeightIn', 'length', 'Standpipe height above the trap weir.', ['plumbing.standpipeHeight']),
@@ -18,7 +18,7 @@ type Policy = RuleSetParameters['plumbing']['drainPanPolicy'];
 export function computePlumbingFacts(ctx: FactContext): void {
   const { plan, params } = ctx;
   const plumbing = plan.plumbing;
-  const required = (policy: Policy) => (need: <T>(path: string, value: T | null | undefined) => T) => {
+  const required = (policy: Policy) => (need: Need) => {
     if (policy === 'never') return false;
     if (policy === 'always') return true;
     return need('space.overFinishedSpace', plan.space?.overFinishedSpace);

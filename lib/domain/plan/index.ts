@@ -1,5 +1,6 @@
 import type { z } from 'zod';
-import { labelForPath, type UnitSystem } from '@/lib/domain/units';
+import type { UnitSystem } from '@/lib/domain/units';
+import { isAreaPath, labelForPath } from '@/lib/domain/plan/labels';
 import {
   canonicalPlanSchema,
   listLimitMessage,
@@ -14,6 +15,9 @@ import {
 import type { FieldError } from '@/lib/domain/errors';
 
 export * from '@/lib/domain/plan/schema';
+export * from '@/lib/domain/plan/registry';
+export { isAreaPath, isPathWithin, labelForPath } from '@/lib/domain/plan/labels';
+export * from '@/lib/domain/plan/editor';
 
 export type { FieldError };
 
@@ -21,10 +25,6 @@ export type ParsePlanResult = { ok: true; plan: Plan } | { ok: false; errors: Fi
 
 function joinPath(path: ReadonlyArray<PropertyKey>): string {
   return path.map(String).join('.');
-}
-
-function isAreaPath(path: string): boolean {
-  return /(netFreeArea|closetVent\.(top|bottom))$/.test(path);
 }
 
 function describeIssue(issue: z.core.$ZodIssue): FieldError[] {

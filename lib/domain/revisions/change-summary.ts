@@ -1,4 +1,4 @@
-import { labelForPath } from '@/lib/domain/units';
+import { labelForPath } from '@/lib/domain/plan';
 
 export type PlanChange = { path: string; label: string; from: unknown; to: unknown };
 

@@ -51,14 +51,19 @@ export const feetToInches = (feet: number): number => convertLength(feet, 'ft', 
 export const sqInToCm2 = (sqIn: number): number => convertArea(sqIn, 'in2', 'cm2');
 export const cm2ToSqIn = (cm2: number): number => convertArea(cm2, 'cm2', 'in2');
 
-/** Turns a field path such as `exhaust.run.2.straight` into "Exhaust run item 3 straight". */
-export function labelForPath(path: string): string {
+/** A camelCase key in words: `netFreeArea` → "net free area". */
+export function keyWords(key: string): string {
+  return key.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
+}
+
+// Units sit below the plan, so a unit message names its path in plain words; the plan's parser calls
+// with no path and puts the registry's label in front (labelForPath in lib/domain/plan).
+function pathLabel(path: string): string {
   if (!path) return 'Value';
-  const words = path.split('.').map((part) => {
-    if (/^\d+$/.test(part)) return `item ${Number(part) + 1}`;
-    return part.replace(/([a-z0-9])([A-Z])/g, '$1 $2').toLowerCase();
-  });
-  const text = words.join(' ');
+  const text = path
+    .split('.')
+    .map((part) => (/^\d+$/.test(part) ? `item ${Number(part) + 1}` : keyWords(part)))
+    .join(' ');
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
@@ -89,8 +94,8 @@ function fail(path: string, message: string): UnitResult {
 }
 
 function checkNumber(value: number, path: string, kind: 'length' | 'area'): UnitResult {
-  if (!Number.isFinite(value)) return fail(path, `${labelForPath(path)}: must be a finite ${kind}.`);
-  if (value < 0) return fail(path, `${labelForPath(path)}: a ${kind} cannot be negative.`);
+  if (!Number.isFinite(value)) return fail(path, `${pathLabel(path)}: must be a finite ${kind}.`);
+  if (value < 0) return fail(path, `${pathLabel(path)}: a ${kind} cannot be negative.`);
   return { ok: true, value };
 }
 
@@ -122,11 +127,11 @@ function parseLengthUncapped(input: unknown, units: UnitSystem, path: string): U
     return { ok: true, value: units === 'metric' ? mmToInches(input) : input };
   }
   if (typeof input !== 'string') {
-    return fail(path, `${labelForPath(path)}: expected a length; ${LENGTH_EXAMPLE}.`);
+    return fail(path, `${pathLabel(path)}: expected a length; ${LENGTH_EXAMPLE}.`);
   }
   const text = normalizeText(input);
-  const notALength = fail(path, `${labelForPath(path)}: '${input}' is not a length; ${LENGTH_EXAMPLE}.`);
-  if (text.startsWith('-')) return fail(path, `${labelForPath(path)}: a length cannot be negative ('${input}').`);
+  const notALength = fail(path, `${pathLabel(path)}: '${input}' is not a length; ${LENGTH_EXAMPLE}.`);
+  if (text.startsWith('-')) return fail(path, `${pathLabel(path)}: a length cannot be negative ('${input}').`);
   if (text === '') return notALength;
 
   const metric = METRIC_LENGTH.exec(text);
@@ -170,16 +175,16 @@ function parseAreaUncapped(input: unknown, units: UnitSystem, path: string): Uni
     return { ok: true, value: convertArea(input, bareUnit, 'in2') };
   }
   if (typeof input !== 'string') {
-    return fail(path, `${labelForPath(path)}: expected an area; ${AREA_EXAMPLE}.`);
+    return fail(path, `${pathLabel(path)}: expected an area; ${AREA_EXAMPLE}.`);
   }
   const text = normalizeText(input);
-  if (text.startsWith('-')) return fail(path, `${labelForPath(path)}: an area cannot be negative ('${input}').`);
+  if (text.startsWith('-')) return fail(path, `${pathLabel(path)}: an area cannot be negative ('${input}').`);
   const match = AREA.exec(text);
-  if (!match) return fail(path, `${labelForPath(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
+  if (!match) return fail(path, `${pathLabel(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
   const value = Number(match[1]);
   const unitText = match[2];
   const unit = unitText === undefined ? bareUnit : AREA_UNITS.find(([re]) => re.test(unitText))?.[1];
-  if (!unit) return fail(path, `${labelForPath(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
+  if (!unit) return fail(path, `${pathLabel(path)}: '${input}' is not an area; ${AREA_EXAMPLE}.`);
   return checkNumber(convertArea(value, unit, 'in2'), path, 'area');
 }
 
@@ -194,14 +199,14 @@ export const MAX_AREA_SQ_IN = 144_000;
  */
 export function parseLength(input: unknown, units: UnitSystem, path: string): UnitResult {
   const r = parseLengthUncapped(input, units, path);
-  if (r.ok && r.value > MAX_LENGTH_IN) return fail(path, `${labelForPath(path)}: ${String(input)} is longer than 1,000 ft; check the number and its unit.`);
+  if (r.ok && r.value > MAX_LENGTH_IN) return fail(path, `${pathLabel(path)}: ${String(input)} is longer than 1,000 ft; check the number and its unit.`);
   return r;
 }
 
 /** Parses an area into canonical square inches; bare values are sq in (imperial) or cm² (metric). */
 export function parseArea(input: unknown, units: UnitSystem, path: string): UnitResult {
   const r = parseAreaUncapped(input, units, path);
-  if (r.ok && r.value > MAX_AREA_SQ_IN) return fail(path, `${labelForPath(path)}: ${String(input)} is larger than 1,000 sq ft; check the number and its unit.`);
+  if (r.ok && r.value > MAX_AREA_SQ_IN) return fail(path, `${pathLabel(path)}: ${String(input)} is larger than 1,000 sq ft; check the number and its unit.`);
   return r;
 }
 
