@@ -299,3 +299,16 @@ export async function insertReview(
     return row;
   });
 }
+
+/** E-mail addresses of the people who sent this report to the inspector (they hear the outcome). */
+export async function listReportSenderEmails(db: DB, reportId: string): Promise<string[]> {
+  const rows = await db
+    .selectFrom('report_sends as s')
+    .innerJoin('users as u', 'u.id', 's.created_by')
+    .select(['u.email'])
+    .distinct()
+    .where('s.report_id', '=', reportId)
+    .where('s.status', '=', 'sent')
+    .execute();
+  return rows.map((r) => r.email);
+}

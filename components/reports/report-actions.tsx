@@ -55,7 +55,10 @@ export function ReportActions({ checkId, inspectorEmail, canSend }: { checkId: s
     <section className="card no-print p-5" aria-labelledby="report-h">
       <h2 id="report-h" className="text-lg font-bold">Report for the inspector</h2>
       <p className="mt-1 text-sm text-ink-soft">A PDF citing every section checked, with the drawings, hinge layout and photos. Each copy gets its own code, verifiable online.</p>
-      <a href={`/api/checks/${checkId}/report`} className="btn-secondary mt-3" data-testid="download-report">Download report (PDF)</a>
+      <form method="post" action={`/api/checks/${checkId}/report`}>
+        {/* Issuing records a report, so it is a form POST; the answer is the PDF as a download. */}
+        <button type="submit" className="btn-secondary mt-3" data-testid="download-report">Download report (PDF)</button>
+      </form>
       {canSend && (
         <form onSubmit={(e) => { e.preventDefault(); void send(false); }} className="mt-4 space-y-3" noValidate>
           <div>

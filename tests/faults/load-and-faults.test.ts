@@ -147,7 +147,7 @@ describe('mail relay and file storage down', () => {
       const res = await upload();
       expect(res.status).toBe(503);
       expect(res.body.error).toMatch(/storage is not reachable/i);
-      const report = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { headers: { cookie } });
+      const report = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { method: 'POST', headers: { cookie } });
       expect(report.status).toBe(503);
       const after = await counts();
       expect(after.attachments).toBe(before.attachments);
@@ -156,6 +156,6 @@ describe('mail relay and file storage down', () => {
       await run('bash', ['scripts/fakes.sh', 'start', 's3', suffix]);
     }
     expect((await upload()).status).toBe(201);
-    expect((await fetch(`${baseUrl}/api/checks/${checkId}/report`, { headers: { cookie } })).status).toBe(200);
+    expect((await fetch(`${baseUrl}/api/checks/${checkId}/report`, { method: 'POST', headers: { cookie } })).status).toBe(200);
   });
 });

@@ -162,7 +162,7 @@ describe('a revision stored before the limits', () => {
   });
 
   it('gets a report that says the plan is too large to draw, with the findings of its check', { timeout: 90_000 }, async () => {
-    const report = await timed(`/api/checks/${checkId}/report`);
+    const report = await timed(`/api/checks/${checkId}/report`, { method: 'POST' });
     expect(report.status, report.text.slice(0, 300)).toBe(200);
     expect(report.ms).toBeLessThan(30_000);
     const text = await pdfText(report.bytes);
@@ -192,7 +192,7 @@ describe('a report rendering', () => {
     }
     const check = await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }));
     expect(check.status).toBe(201);
-    await timed(`/api/checks/${check.body.id}/report`); // the worker thread has started and loaded its fonts
+    await timed(`/api/checks/${check.body.id}/report`, { method: 'POST' }); // the worker thread has started and loaded its fonts
     // The same number of pings with nothing rendering: what this shared machine gives anyway.
     const baseline: number[] = [];
     for (let i = 0; i < 40; i++) {
@@ -201,7 +201,7 @@ describe('a report rendering', () => {
     }
 
     let rendered: Awaited<ReturnType<typeof timed>> | null = null;
-    const report = timed(`/api/checks/${check.body.id}/report`).then((r) => (rendered = r));
+    const report = timed(`/api/checks/${check.body.id}/report`, { method: 'POST' }).then((r) => (rendered = r));
     const pings: number[] = [];
     const deadline = performance.now() + 90_000;
     while (!rendered && pings.length < 2_000 && performance.now() < deadline) {

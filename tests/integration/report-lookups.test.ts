@@ -35,7 +35,7 @@ beforeAll(async () => {
   expect(p.status).toBe(201);
   expect((await api(`/api/projects/${p.body.id}/plans`, postJson({ plan: hallClosetPassPlan }, { cookie: installer }))).status).toBe(201);
   checkId = (await api(`/api/projects/${p.body.id}/checks`, postJson({}, { cookie: installer }))).body.id;
-  const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { headers: { cookie: installer } });
+  const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { method: 'POST', headers: { cookie: installer } });
   await res.arrayBuffer();
   code = res.headers.get('x-report-code')!;
 }, 60_000);

@@ -17,8 +17,8 @@ let cityInspector: string;
 let projectId: string;
 let checkId: string;
 
-async function raw(path: string, cookie?: string) {
-  const res = await fetch(`${baseUrl}${path}`, { headers: cookie ? { cookie } : {} });
+async function raw(path: string, cookie?: string, method = 'GET') {
+  const res = await fetch(`${baseUrl}${path}`, { method, headers: cookie ? { cookie } : {} });
   return { status: res.status, headers: res.headers, bytes: Buffer.from(await res.arrayBuffer()) };
 }
 
@@ -166,7 +166,7 @@ describe('report download and verification', () => {
   let pdf: Buffer;
 
   it('downloads a PDF with a meaningful name that cites the checked sections and records code, hash and author', async () => {
-    const res = await raw(`/api/checks/${checkId}/report`, installer);
+    const res = await raw(`/api/checks/${checkId}/report`, installer, 'POST');
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toBe('application/pdf');
     code = res.headers.get('x-report-code')!;
@@ -192,7 +192,7 @@ describe('report download and verification', () => {
 
   it('refuses to issue a report from a cross-site link', async () => {
     const before = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-    const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { headers: { cookie: installer, 'sec-fetch-site': 'cross-site' } });
+    const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { method: 'POST', headers: { cookie: installer, 'sec-fetch-site': 'cross-site' } });
     expect(res.status).toBe(403);
     const after = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
     expect(Number(after.n)).toBe(Number(before.n));

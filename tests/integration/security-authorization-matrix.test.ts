@@ -117,7 +117,7 @@ const apiMatrix: Record<string, ApiRow> = {
   'PATCH /api/attachments/[id]':                 { path: (i) => `/api/attachments/${i.attachmentId}`, send: { json: () => ({ caption: 'Matrix caption' }) }, expect: a(401, 200, 404, 403, 403, 403) },
   'DELETE /api/attachments/[id]':                { path: (i) => `/api/attachments/${i.attachmentToDeleteId}`, expect: a(401, 200, 404, 403, 403, 403) },
   'GET /api/checks/[id]':                        { path: (i) => `/api/checks/${i.checkId}`, expect: a(401, 200, 404, 403, 403, 200) },
-  'GET /api/checks/[id]/report':                 { path: (i) => `/api/checks/${i.checkId}/report`, expect: a(401, 200, 404, 403, 403, 200) },
+  'POST /api/checks/[id]/report':                { path: (i) => `/api/checks/${i.checkId}/report`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/checks/[id]/send':                  { path: (i) => `/api/checks/${i.checkId}/send`, send: { json: () => ({ note: 'Sent by the authorization matrix.' }) }, expect: a(401, 201, 404, 403, 403, 403) },
   // Public on purpose: whoever holds the paper can confirm it.
   'GET /api/reports/[code]':                     { path: (i) => `/api/reports/${i.reportCode}`, expect: a(200, 200, 200, 200, 200, 200) },

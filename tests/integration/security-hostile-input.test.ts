@@ -287,7 +287,7 @@ describe('chunked bodies with no length on the routes that take files and forms'
   beforeAll(async () => {
     expect((await api(`/api/projects/${projectId}/plans`, postJson({ plan: hallClosetPassPlan }, { cookie: installer }))).status).toBe(201);
     const check = await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }));
-    const res = await fetch(`${baseUrl}/api/checks/${check.body.id}/report`, { headers: { cookie: installer } });
+    const res = await fetch(`${baseUrl}/api/checks/${check.body.id}/report`, { method: 'POST', headers: { cookie: installer } });
     await res.arrayBuffer();
     reportCode = res.headers.get('x-report-code')!;
     expect(reportCode).toBeTruthy();

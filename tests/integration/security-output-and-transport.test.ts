@@ -87,7 +87,7 @@ describe('text holding markup', () => {
   });
 
   it('appears in the PDF report as the literal characters, not entities and not dropped', { timeout: 60_000 }, async () => {
-    const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { headers: { cookie: installer } });
+    const res = await fetch(`${baseUrl}/api/checks/${checkId}/report`, { method: 'POST', headers: { cookie: installer } });
     expect(res.status).toBe(200);
     const doc = await getDocumentProxy(new Uint8Array(await res.arrayBuffer()));
     const { text } = await extractText(doc, { mergePages: true });

@@ -155,7 +155,7 @@ describe('a check of version 0', () => {
   });
 
   it('issues a report from its stored findings, drawn from its plan under its own rule set', async () => {
-    const res = await fetch(`${baseUrl}/api/checks/${oldCheckId}/report`, { headers: { cookie: installer } });
+    const res = await fetch(`${baseUrl}/api/checks/${oldCheckId}/report`, { method: 'POST', headers: { cookie: installer } });
     expect(res.status).toBe(200);
     const doc = await getDocumentProxy(new Uint8Array(await res.arrayBuffer()));
     const { text } = await extractText(doc, { mergePages: true });
@@ -240,7 +240,7 @@ describe('a row written by a newer build', () => {
       .returning('id')
       .executeTakeFirstOrThrow();
     expect((await api(`/api/checks/${check.id}`, { cookie: installer })).status).toBe(500);
-    expect((await api(`/api/checks/${check.id}/report`, { cookie: installer })).status).toBe(500);
+    expect((await api(`/api/checks/${check.id}/report`, { cookie: installer, method: 'POST' })).status).toBe(500);
 
     const v1 = await db.selectFrom('rule_sets').select('parameters').where('id', '=', other.v1Id).executeTakeFirstOrThrow();
     const draft = await db

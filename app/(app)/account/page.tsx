@@ -1,5 +1,7 @@
 import type { Metadata } from 'next';
 import { getDb } from '@/db';
+import { findJurisdictionById } from '@/db/jurisdictions';
+import { findOrganizationById } from '@/db/organizations';
 import { listLiveSessions } from '@/db/sessions';
 import { ApiTokens } from '@/components/account/api-tokens';
 import { Sessions } from '@/components/account/sessions';
@@ -13,12 +15,8 @@ export default async function AccountPage() {
   const { user, sessionId } = await requirePageSession(pageRoles['/account'], '/account');
   const db = getDb();
   const sessions = await listLiveSessions(db, user.id);
-  const org = user.organizationId
-    ? await db.selectFrom('organizations').select(['name', 'license_number']).where('id', '=', user.organizationId).executeTakeFirst()
-    : null;
-  const jur = user.jurisdictionId
-    ? await db.selectFrom('jurisdictions').select(['name']).where('id', '=', user.jurisdictionId).executeTakeFirst()
-    : null;
+  const org = user.organizationId ? await findOrganizationById(db, user.organizationId) : null;
+  const jur = user.jurisdictionId ? await findJurisdictionById(db, user.jurisdictionId) : null;
   return (
     <>
       <PageHeader kicker="Your account" title={user.name} />
@@ -28,7 +26,7 @@ export default async function AccountPage() {
           <dl className="mt-3 space-y-2">
             <div><dt className="text-ink-faint">E-mail</dt><dd className="font-mono">{user.email}</dd></div>
             <div><dt className="text-ink-faint">Role</dt><dd className="capitalize">{user.role}</dd></div>
-            {org && <div><dt className="text-ink-faint">Company</dt><dd>{org.name}{org.license_number ? ` · licence ${org.license_number}` : ''}</dd></div>}
+            {org && <div><dt className="text-ink-faint">Company</dt><dd>{org.name}{org.licenseNumber ? ` · licence ${org.licenseNumber}` : ''}</dd></div>}
             {jur && <div><dt className="text-ink-faint">Jurisdiction</dt><dd>{jur.name}</dd></div>}
           </dl>
         </section>

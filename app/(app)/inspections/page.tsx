@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { getDb } from '@/db';
+import { findJurisdictionById } from '@/db/jurisdictions';
 import { listInspections } from '@/db/reports';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
@@ -14,7 +15,7 @@ export default async function InspectionsPage() {
   const user = await requirePageUser(pageRoles['/inspections'], '/inspections');
   const db = getDb();
   const jurisdiction = user.jurisdictionId
-    ? await db.selectFrom('jurisdictions').select(['name']).where('id', '=', user.jurisdictionId).executeTakeFirst()
+    ? await findJurisdictionById(db, user.jurisdictionId)
     : null;
   const rows = await listInspections(db, user.role === 'inspector' ? user.jurisdictionId : null);
   return (

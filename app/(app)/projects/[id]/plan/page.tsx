@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
+import { findJurisdictionById } from '@/db/jurisdictions';
 import { parsePositiveInt } from '@/lib/domain/integers';
 import { getPlanRevision } from '@/db/plan-revisions';
 import { PlanEditor } from '@/components/plan-editor/plan-editor';
@@ -24,18 +25,10 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
   const [revision, latest] = await Promise.all([getPlanRevision(db, user, id, wanted), getPlanRevision(db, user, id, 'latest')]);
   if (wanted !== 'latest' && !revision) notFound();
   const rules = published ? await getRuleSetById(db, published.id) : null;
-  const jurisdictionRow = await db.selectFrom('jurisdictions').selectAll().where('id', '=', project.jurisdiction.id).executeTakeFirstOrThrow();
+  const jurisdiction = await findJurisdictionById(db, project.jurisdiction.id);
+  if (!jurisdiction) notFound();
   // The live route totals use the published parameters; before a first publication, the model-code defaults.
-  const parameters =
-    rules?.parameters ??
-    defaultParameters({
-      building: jurisdictionRow.building_edition,
-      electrical: jurisdictionRow.electrical_edition,
-      plumbing: jurisdictionRow.plumbing_edition,
-      plumbingFamily: jurisdictionRow.plumbing_family,
-      mechanical: jurisdictionRow.mechanical_edition,
-      fuelGas: jurisdictionRow.fuel_gas_edition,
-    });
+  const parameters = rules?.parameters ?? defaultParameters(jurisdiction.editions);
   const viewingOld = revision && latest && revision.number !== latest.number;
   // A revision saved before the list limits opens cut to them, so the editor stays usable; the stored row is untouched.
   const oversize = revision ? findOversizeLists(revision.plan) : [];

@@ -7,8 +7,9 @@ import { issueReport, reportFilename } from '@/lib/services/reports/issue';
 
 type Ctx = { params: Promise<{ id: string }> };
 
-// Each download issues a new report: its own code, its own recorded hash.
-export const GET = route<Ctx>(async (request, { params }) => {
+// Issuing records a new report (its own code, its own recorded hash), so it is a POST; an issued report is
+// downloaded again with GET /api/reports/<code>/pdf.
+export const POST = route<Ctx>(async (request, { params }) => {
   // Issuing records a report, so a link on another site must not trigger it (Fetch Metadata, W3C).
   if (request.headers.get('sec-fetch-site') === 'cross-site') throw new ForbiddenError('Download reports from NookPass itself.');
   const user = await requireUser(request, ['installer', 'admin']);

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
+import { findJurisdictionById } from '@/db/jurisdictions';
 import { getCheck, previousCheck } from '@/db/checks';
 import { citationText } from '@/lib/domain/vocabulary';
 import { FindingsList } from '@/components/checks/findings-list';
@@ -25,8 +26,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
   const prev = await previousCheck(db, check);
   const changes = prev ? compareFindings(prev.findings, check.findings) : [];
   const newer = published && published.version > check.ruleSet.version;
-  const jur = await db.selectFrom('jurisdictions').select('inspector_email').where('id', '=', project.jurisdiction.id).executeTakeFirst();
-  const inspectorEmail = jur?.inspector_email ?? null;
+  const inspectorEmail = (await findJurisdictionById(db, project.jurisdiction.id))?.inspectorEmail ?? null;
   const cited = [...new Set(check.findings.filter((f) => f.status !== 'not-applicable').map((f) => citationText(f.citation)))];
 
   return (

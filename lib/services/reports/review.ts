@@ -1,0 +1,43 @@
+import 'server-only';
+import type { DB } from '@/db';
+import { insertReview, listReportSenderEmails } from '@/db/reports';
+import { ValidationError } from '@/lib/domain/errors';
+import type { ReviewInput } from '@/lib/domain/reports/review-schema';
+import type { AppUser } from '@/lib/domain/roles';
+import { sendMail } from '@/lib/platform/mail';
+import { loadInspection } from '@/lib/services/reports/inspection';
+import { publicBaseUrl } from '@/lib/services/reports/issue';
+
+/** An inspector records an outcome on a report; the installers who sent it are told by e-mail (the outcome stands if mail is down). */
+export async function recordInspectionOutcome(db: DB, user: AppUser, input: { reportId: string; review: ReviewInput }) {
+  const inspection = await loadInspection(db, user, input.reportId);
+  const keys = new Set(inspection.check.findings.map((f) => f.ruleKey));
+  const unknown = Object.keys(input.review.findingComments).filter((k) => !keys.has(k));
+  if (unknown.length) throw new ValidationError(unknown.map((k) => ({ path: `findingComments.${k}`, message: `The report has no finding ${k}.` })));
+  const findingComments = Object.fromEntries(Object.entries(input.review.findingComments).filter(([, c]) => c.length > 0));
+  const review = await insertReview(db, { reportId: inspection.report.id, inspectorId: user.id, outcome: input.review.outcome, comment: input.review.comment, findingComments });
+
+  // The installers who sent the report hear about the outcome; the outcome is saved even if mail is down.
+  const senders = await listReportSenderEmails(db, inspection.report.id);
+  const outcomeText = input.review.outcome === 'approved' ? 'approved' : 'corrections needed';
+  let mailed = 0;
+  for (const email of senders) {
+    try {
+      await sendMail({
+        to: email,
+        subject: `Inspection outcome for ${inspection.project.name}: ${outcomeText}`,
+        text: [
+          `${user.name} (${inspection.project.jurisdictionName}) recorded "${outcomeText}" for report ${inspection.report.code}.`,
+          input.review.comment ? `\n${input.review.comment}\n` : '',
+          ...Object.entries(findingComments).map(([k, c]) => `- ${inspection.check.findings.find((f) => f.ruleKey === k)?.title ?? k}: ${c}`),
+          '',
+          `Open the project: ${publicBaseUrl()}/projects/${inspection.project.id}`,
+        ].join('\n'),
+      });
+      mailed++;
+    } catch (err) {
+      console.error('[review] outcome e-mail not sent:', (err as Error).message);
+    }
+  }
+  return { review, mailed };
+}
