@@ -122,7 +122,7 @@ export async function listChecks(db: DB, user: AppUser, projectId: string): Prom
 }
 
 /** One check, if the user may see its project. */
-export async function getCheck(db: DB, user: AppUser, checkId: string): Promise<StoredCheck | null> {
+export async function findCheck(db: DB, user: AppUser, checkId: string): Promise<StoredCheck | null> {
   if (!isUuid(checkId)) return null;
   const check = await findCheckById(db, checkId);
   if (!check) return null;

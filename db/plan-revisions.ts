@@ -90,7 +90,15 @@ export async function listPlanRevisions(db: DB, user: AppUser, projectId: string
   });
 }
 
-export async function getPlanRevision(db: DB, user: AppUser, projectId: string, number: number | 'latest'): Promise<PlanRevision | null> {
+/** Who saved a revision and when, by its id (a report names the revision it was checked from). */
+export async function findPlanRevisionSummaryById(db: DB, id: string): Promise<PlanRevisionSummary | null> {
+  const row = await revisionQuery(db).where('r.id', '=', id).executeTakeFirst();
+  if (!row) return null;
+  const { plan: _p, canonical: _c, ...rest } = toRevision(row);
+  return rest;
+}
+
+export async function findPlanRevision(db: DB, user: AppUser, projectId: string, number: number | 'latest'): Promise<PlanRevision | null> {
   const project = await getProject(db, user, projectId);
   let q = revisionQuery(db).where('r.project_id', '=', project.id);
   q = number === 'latest' ? q.orderBy('r.number', 'desc').limit(1) : q.where('r.number', '=', number);

@@ -312,3 +312,29 @@ export async function listReportSenderEmails(db: DB, reportId: string): Promise<
     .execute();
   return rows.map((r) => r.email);
 }
+
+/** The project as it is today, with its company and jurisdiction: what a report without a snapshot shows. */
+export async function findReportHeading(db: DB, projectId: string) {
+  const row = await db
+    .selectFrom('projects as p')
+    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
+    .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
+    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'p.is_demo'])
+    .where('p.id', '=', projectId)
+    .executeTakeFirst();
+  return row
+    ? { id: row.id, name: row.name, siteAddress: row.site_address, permitNumber: row.permit_number, organizationName: row.organization_name, licenseNumber: row.license_number, jurisdictionName: row.jurisdiction_name, isDemo: row.is_demo }
+    : null;
+}
+
+/** The outcomes recorded on one report, newest first. */
+export async function listReviewsOfReport(db: DB, reportId: string) {
+  return db
+    .selectFrom('inspection_reviews as v')
+    .leftJoin('users as u', 'u.id', 'v.created_by')
+    .select(['v.id', 'v.outcome', 'v.comment', 'v.finding_comments', 'v.created_at', 'u.name as inspector_name'])
+    .where('v.report_id', '=', reportId)
+    .orderBy('v.created_at', 'desc')
+    .execute();
+}
+

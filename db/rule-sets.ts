@@ -84,19 +84,19 @@ export async function loadRules(db: DB, ruleSetId: string): Promise<StoredRule[]
   );
 }
 
-export async function getRuleSetById(db: DB, id: string): Promise<RuleSetWithRules | null> {
+export async function findRuleSetById(db: DB, id: string): Promise<RuleSetWithRules | null> {
   const row = await versionQuery(db).where('s.id', '=', id).executeTakeFirst();
   if (!row) return null;
   return { ...toVersion(row), rules: await loadRules(db, row.id) };
 }
 
-export async function getPublishedVersion(db: DB, jurisdictionId: string): Promise<RuleSetVersion | null> {
+export async function findPublishedVersion(db: DB, jurisdictionId: string): Promise<RuleSetVersion | null> {
   const row = await versionQuery(db).where('s.jurisdiction_id', '=', jurisdictionId).where('s.status', '=', 'published').executeTakeFirst();
   return row ? toVersion(row) : null;
 }
 
-export async function getPublishedRuleSet(db: DB, jurisdictionId: string): Promise<RuleSetWithRules | null> {
-  const v = await getPublishedVersion(db, jurisdictionId);
+export async function findPublishedRuleSet(db: DB, jurisdictionId: string): Promise<RuleSetWithRules | null> {
+  const v = await findPublishedVersion(db, jurisdictionId);
   return v ? { ...v, rules: await loadRules(db, v.id) } : null;
 }
 
@@ -149,7 +149,7 @@ export async function listVersions(db: DB, jurisdictionId: string): Promise<Vers
   return rows.map((r) => ({ ...toVersion(r), ruleCount: Number(byId.get(r.id)?.n ?? 0), enabledCount: Number(byId.get(r.id)?.on ?? 0) }));
 }
 
-export async function getVersionByNumber(db: DB, jurisdictionId: string, version: number): Promise<RuleSetWithRules | null> {
+export async function findVersionByNumber(db: DB, jurisdictionId: string, version: number): Promise<RuleSetWithRules | null> {
   const row = await versionQuery(db).where('s.jurisdiction_id', '=', jurisdictionId).where('s.version', '=', version).executeTakeFirst();
   return row ? { ...toVersion(row), rules: await loadRules(db, row.id) } : null;
 }
@@ -281,7 +281,7 @@ export async function saveDraft(
       });
     }),
   );
-  return (await getRuleSetById(db, input.id))!;
+  return (await findRuleSetById(db, input.id))!;
 }
 
 export type RuleEdit = { kind: 'add'; rule: StoredRule } | { kind: 'replace'; key: string; rule: StoredRule } | { kind: 'delete'; key: string };
@@ -326,7 +326,7 @@ export async function editDraftRule(db: DB, input: { id: string; revision: numbe
       });
     }),
   );
-  return (await getRuleSetById(db, input.id))!;
+  return (await findRuleSetById(db, input.id))!;
 }
 
 /** Discards an unpublished draft (its rules go with it); published history is untouched. */
@@ -351,7 +351,7 @@ type PublishInput = { id: string; revision: number; changelog: string; actorUser
 /** The publish steps inside the caller's transaction (also used for a new jurisdiction published at once). */
 export async function publishWithin(trx: DB, input: PublishInput): Promise<{ retired: { id: string; version: number } | null }> {
   const claimed = await claimRevision(trx, input.id, input.revision);
-  const draft = await getRuleSetById(trx, input.id);
+  const draft = await findRuleSetById(trx, input.id);
   input.validate(draft!);
   const previous = await trx
     .selectFrom('rule_sets')
@@ -393,6 +393,6 @@ export async function publishWithin(trx: DB, input: PublishInput): Promise<{ ret
  */
 export async function publishDraft(db: DB, input: PublishInput): Promise<{ published: RuleSetVersion; retired: { id: string; version: number } | null }> {
   const result = await withConflicts(() => db.transaction().execute((trx) => publishWithin(trx, input)));
-  const published = (await getRuleSetById(db, input.id))!;
+  const published = (await findRuleSetById(db, input.id))!;
   return { published, retired: result.retired };
 }

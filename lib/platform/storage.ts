@@ -60,7 +60,7 @@ export async function putObject(key: string, body: Buffer, contentType: string):
   }
 }
 
-export async function getObject(key: string): Promise<Buffer | null> {
+export async function findObject(key: string): Promise<Buffer | null> {
   try {
     const res = await client().send(new GetObjectCommand({ Bucket: storageConfig().bucket, Key: key }));
     return Buffer.from(await res.Body!.transformToByteArray());

@@ -4,7 +4,7 @@ import sharp from 'sharp';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { withoutMetadataKey } from '@/db/attachments';
-import { deleteObject, getObject } from '@/lib/platform/storage';
+import { deleteObject, findObject } from '@/lib/platform/storage';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
 import { api, appDb, baseUrl, postJson, signIn } from './helpers';
 
@@ -329,10 +329,10 @@ describe('photos seen outside the company', () => {
     // A photo uploaded before copies without metadata were kept gets one made the first time it is served.
     const row = await db.selectFrom('attachments').select('storage_key').where('id', '=', res.body.id).executeTakeFirstOrThrow();
     await deleteObject(withoutMetadataKey(row.storage_key));
-    expect(await getObject(withoutMetadataKey(row.storage_key))).toBeNull();
+    expect(await findObject(withoutMetadataKey(row.storage_key))).toBeNull();
     const remade = await raw(`/api/attachments/${res.body.id}`, inspector);
     expect(remade.status).toBe(200);
     expect((await sharp(remade.bytes).metadata()).exif).toBeUndefined();
-    expect((await getObject(withoutMetadataKey(row.storage_key)))?.equals(remade.bytes)).toBe(true);
+    expect((await findObject(withoutMetadataKey(row.storage_key)))?.equals(remade.bytes)).toBe(true);
   });
 });

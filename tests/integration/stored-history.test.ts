@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { getRuleSetById, ruleToRow } from '@/db/rule-sets';
+import { findRuleSetById, ruleToRow } from '@/db/rule-sets';
 import { outcomeOf } from '@/lib/domain/checks/outcome';
 import { CHECK_SCHEMA_VERSION } from '@/lib/domain/checks/stored';
 import { evaluate, type Finding } from '@/lib/domain/engine';
@@ -82,7 +82,7 @@ beforeAll(async () => {
 
   // Version 0 rows, as the app wrote them before versions were recorded.
   const revision = await insertRevision(projectId, hallClosetPassPlan, 0);
-  const v1 = (await getRuleSetById(db, made.v1Id))!;
+  const v1 = (await findRuleSetById(db, made.v1Id))!;
   const canonical = parsePlan(hallClosetPassPlan);
   if (!canonical.ok) throw new Error('fixture does not parse');
   const evaluation = await evaluate({ jurisdiction: j.slug, version: 1, parameters: v1.parameters, rules: v1.rules }, canonical.plan);

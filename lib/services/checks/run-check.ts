@@ -1,7 +1,7 @@
 import 'server-only';
 import type { DB } from '@/db';
 import { insertCheck, type StoredCheck } from '@/db/checks';
-import { getPlanRevision } from '@/db/plan-revisions';
+import { findPlanRevision } from '@/db/plan-revisions';
 import { getProject } from '@/db/projects';
 import type { AppUser } from '@/lib/domain/roles';
 import { ConflictError, NotFoundError } from '@/lib/domain/errors';
@@ -10,7 +10,7 @@ import { evaluateUnder, parsePlanOrThrow, publishedRuleSetOf } from '@/lib/servi
 /** Runs a check of a plan revision (the latest by default) against the jurisdiction's published rule set, and stores it. */
 export async function runCheck(db: DB, user: AppUser, projectId: string, revisionNumber?: number): Promise<StoredCheck> {
   const project = await getProject(db, user, projectId);
-  const revision = await getPlanRevision(db, user, project.id, revisionNumber ?? 'latest');
+  const revision = await findPlanRevision(db, user, project.id, revisionNumber ?? 'latest');
   if (!revision) {
     throw revisionNumber ? new NotFoundError(`This project has no plan revision ${revisionNumber}.`) : new ConflictError('Save a plan before running a check.');
   }

@@ -1,7 +1,7 @@
 import 'server-only';
 import { getDb } from '@/db';
 import { getProject, type Project } from '@/db/projects';
-import { getPublishedVersion, type RuleSetVersion } from '@/db/rule-sets';
+import { findPublishedVersion, type RuleSetVersion } from '@/db/rule-sets';
 import { requirePageUser } from '@/lib/platform/auth/session';
 import type { AppUser } from '@/lib/domain/roles';
 import { loadProjectOr404 } from '@/lib/platform/page-data';
@@ -11,6 +11,6 @@ export async function loadProjectPage(id: string, path: string): Promise<{ user:
   const user = await requirePageUser(['installer', 'admin'], path);
   const db = getDb();
   const project = await loadProjectOr404(() => getProject(db, user, id));
-  const published = await getPublishedVersion(db, project.jurisdiction.id);
+  const published = await findPublishedVersion(db, project.jurisdiction.id);
   return { user, project, published };
 }

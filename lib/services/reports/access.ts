@@ -1,5 +1,6 @@
 import 'server-only';
 import type { DB } from '@/db';
+import { findCheckById } from '@/db/checks';
 import { getProject } from '@/db/projects';
 import { reportSentToJurisdiction, type IssuedReport } from '@/db/reports';
 import type { AppUser } from '@/lib/domain/roles';
@@ -7,11 +8,12 @@ import { NotFoundError } from '@/lib/domain/errors';
 
 /** A report is readable by its company and admins, and by inspectors of a jurisdiction it was sent to. */
 export async function assertCanReadReport(db: DB, user: AppUser, report: IssuedReport): Promise<{ projectId: string }> {
-  const check = await db.selectFrom('checks').select(['project_id']).where('id', '=', report.checkId).executeTakeFirstOrThrow();
+  const check = await findCheckById(db, report.checkId);
+  if (!check) throw new NotFoundError('The check of this report is missing.');
   if (user.role === 'inspector') {
-    if (user.jurisdictionId && (await reportSentToJurisdiction(db, report.id, user.jurisdictionId))) return { projectId: check.project_id };
+    if (user.jurisdictionId && (await reportSentToJurisdiction(db, report.id, user.jurisdictionId))) return { projectId: check.projectId };
     throw new NotFoundError('No such report for your jurisdiction.');
   }
-  await getProject(db, user, check.project_id);
-  return { projectId: check.project_id };
+  await getProject(db, user, check.projectId);
+  return { projectId: check.projectId };
 }

@@ -2,7 +2,7 @@ import 'server-only';
 import type { DB } from '@/db';
 import { listAttachments } from '@/db/attachments';
 import { findCheckById } from '@/db/checks';
-import { findReportById } from '@/db/reports';
+import { findReportById, findReportHeading, listReviewsOfReport } from '@/db/reports';
 import type { AppUser } from '@/lib/domain/roles';
 import { NotFoundError } from '@/lib/domain/errors';
 import { assertCanReadReport } from '@/lib/services/reports/access';
@@ -14,27 +14,16 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   const { projectId } = await assertCanReadReport(db, user, report);
   const check = await findCheckById(db, report.checkId);
   if (!check) throw new NotFoundError('The check of this report is missing.');
-  const current = await db
-    .selectFrom('projects as p')
-    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
-    .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
-    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'p.is_demo'])
-    .where('p.id', '=', projectId)
-    .executeTakeFirstOrThrow();
+  const current = await findReportHeading(db, projectId);
+  if (!current) throw new NotFoundError('The project of this report is missing.');
   // As issued when the report kept a snapshot; reports from before that show the project as it is today.
   const snap = report.snapshot;
   const project = snap
     ? { id: current.id, name: snap.project.name, siteAddress: snap.project.siteAddress, permitNumber: snap.project.permitNumber, organizationName: snap.company.name, licenseNumber: snap.company.licenseNumber, jurisdictionName: snap.jurisdiction.name, isDemo: snap.project.isDemo }
-    : { id: current.id, name: current.name, siteAddress: current.site_address, permitNumber: current.permit_number, organizationName: current.organization_name, licenseNumber: current.license_number, jurisdictionName: current.jurisdiction_name, isDemo: current.is_demo };
+    : current;
   const included = new Set(report.attachmentIds);
   const attachments = (await listAttachments(db, projectId)).filter((a) => included.has(a.id)).map(({ storageKey: _s, thumbnailKey: _t, ...a }) => a);
-  const reviews = await db
-    .selectFrom('inspection_reviews as v')
-    .leftJoin('users as u', 'u.id', 'v.created_by')
-    .select(['v.id', 'v.outcome', 'v.comment', 'v.finding_comments', 'v.created_at', 'u.name as inspector_name'])
-    .where('v.report_id', '=', report.id)
-    .orderBy('v.created_at', 'desc')
-    .execute();
+  const reviews = await listReviewsOfReport(db, report.id);
   return {
     report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount, asIssued: !!snap },
     project,

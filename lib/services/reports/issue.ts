@@ -2,14 +2,17 @@ import 'server-only';
 import { randomBytes } from 'node:crypto';
 import type { DB } from '@/db';
 import { displayKey, listAttachments } from '@/db/attachments';
-import { getCheck, type StoredCheck } from '@/db/checks';
+import { findCheck, type StoredCheck } from '@/db/checks';
 import { getProject, type Project } from '@/db/projects';
 import { insertReport, type IssuedReport } from '@/db/reports';
-import { getRuleSetById } from '@/db/rule-sets';
+import { findRuleSetById } from '@/db/rule-sets';
+import { findJurisdictionById } from '@/db/jurisdictions';
+import { findOrganizationById } from '@/db/organizations';
+import { findPlanRevisionSummaryById } from '@/db/plan-revisions';
 import type { AppUser } from '@/lib/domain/roles';
 import { NotFoundError } from '@/lib/domain/errors';
 import { parseStoredPlan } from '@/lib/domain/plan';
-import { getObject, putObject } from '@/lib/platform/storage';
+import { findObject, putObject } from '@/lib/platform/storage';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 import { newReportCode } from '@/lib/domain/reports/code';
 import { buildReportSnapshot } from '@/lib/domain/reports/snapshot';
@@ -26,19 +29,20 @@ export function reportFilename(project: Pick<Project, 'name'>, code: string): st
 
 async function gather(db: DB, user: AppUser, check: StoredCheck, project: Project, code: string): Promise<{ data: ReportData; attachmentIds: string[] }> {
   const [ruleSet, org, jur, revision, attachments] = await Promise.all([
-    getRuleSetById(db, check.ruleSet.id),
-    db.selectFrom('organizations').select(['name', 'license_number']).where('id', '=', project.organizationId).executeTakeFirstOrThrow(),
-    db.selectFrom('jurisdictions').selectAll().where('id', '=', project.jurisdiction.id).executeTakeFirstOrThrow(),
-    db.selectFrom('plan_revisions as r').leftJoin('users as u', 'u.id', 'r.created_by').select(['r.number', 'r.created_at', 'u.name']).where('r.id', '=', check.planRevision.id).executeTakeFirstOrThrow(),
+    findRuleSetById(db, check.ruleSet.id),
+    findOrganizationById(db, project.organizationId),
+    findJurisdictionById(db, project.jurisdiction.id),
+    findPlanRevisionSummaryById(db, check.planRevision.id),
     listAttachments(db, project.id),
   ]);
   if (!ruleSet) throw new NotFoundError('The rule set of this check is missing.');
+  if (!org || !jur || !revision) throw new NotFoundError('The project, jurisdiction or plan revision of this check is missing.');
   // Read as stored: a plan saved before today's list limits still gets its report, without drawings.
   const parsed = parseStoredPlan(check.inputs.plan);
   if (!parsed.ok) throw new NotFoundError('The plan stored with this check no longer parses.');
   const photos: ReportData['photos'] = [];
   for (const a of attachments.filter((x) => x.kind === 'photo')) {
-    const image = await getObject(displayKey(a.storageKey));
+    const image = await findObject(displayKey(a.storageKey));
     if (image) photos.push({ caption: a.caption, filename: a.filename, image, width: a.width ?? 4, height: a.height ?? 3 });
   }
   const data: ReportData = {
@@ -46,22 +50,15 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     verifyUrl: `${publicBaseUrl()}/verify/${code}`,
     generatedAt: new Date(),
     project: { name: project.name, siteAddress: project.siteAddress, permitNumber: project.permitNumber, isDemo: project.isDemo },
-    organization: { name: org.name, licenseNumber: org.license_number },
+    organization: { name: org.name, licenseNumber: org.licenseNumber },
     jurisdiction: {
       name: jur.name,
       region: jur.region,
-      editions: {
-        building: jur.building_edition,
-        electrical: jur.electrical_edition,
-        plumbing: jur.plumbing_edition,
-        plumbingFamily: jur.plumbing_family,
-        mechanical: jur.mechanical_edition,
-        fuelGas: jur.fuel_gas_edition,
-      },
-      amendmentNotes: jur.amendment_notes,
+      editions: jur.editions,
+      amendmentNotes: jur.amendmentNotes,
     },
     ruleSet: { version: ruleSet.version, publishedAt: ruleSet.publishedAt, changelog: ruleSet.changelog },
-    planRevision: { number: revision.number, savedBy: revision.name, savedAt: revision.created_at },
+    planRevision: { number: revision.number, savedBy: revision.createdBy.name, savedAt: revision.createdAt },
     check: { id: check.id, createdAt: check.createdAt, runBy: check.createdBy.name, summary: check.summary, outcome: check.outcome },
     findings: check.findings,
     plan: parsed.plan,
@@ -76,7 +73,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
 
 /** Renders a new report for a check, stores the PDF and records its code and SHA-256. */
 export async function issueReport(db: DB, user: AppUser, checkId: string): Promise<{ report: IssuedReport; pdf: Buffer; project: Project; check: StoredCheck; renderMs: number }> {
-  const check = await getCheck(db, user, checkId);
+  const check = await findCheck(db, user, checkId);
   if (!check) throw new NotFoundError('No such check, or its project belongs to another company.');
   const project = await getProject(db, user, check.projectId);
   const code = newReportCode(randomBytes);

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { DB } from '@/db';
-import { getCheck } from '@/db/checks';
+import { findCheck } from '@/db/checks';
+import { findJurisdictionById } from '@/db/jurisdictions';
 import { getProject } from '@/db/projects';
 import { companyHasSentTo, recordSend } from '@/db/reports';
 import type { AppUser } from '@/lib/domain/roles';
@@ -12,8 +13,10 @@ import type { SendInput } from '@/lib/domain/reports/send-schema';
 
 const sameAddress = (a: string, b: string | null) => !!b && a.trim().toLowerCase() === b.trim().toLowerCase();
 
-async function inspectorAddress(db: DB, jurisdictionId: string) {
-  return db.selectFrom('jurisdictions').select(['inspector_email', 'name']).where('id', '=', jurisdictionId).executeTakeFirstOrThrow();
+async function inspectorAddress(db: DB, jurisdictionId: string): Promise<{ name: string; inspectorEmail: string | null }> {
+  const jurisdiction = await findJurisdictionById(db, jurisdictionId);
+  if (!jurisdiction) throw new NotFoundError('The jurisdiction of this project is missing.');
+  return jurisdiction;
 }
 
 /**
@@ -23,16 +26,16 @@ async function inspectorAddress(db: DB, jurisdictionId: string) {
  * company's hourly limit before anything is issued.
  */
 export async function sendReport(db: DB, user: AppUser, checkId: string, input: SendInput) {
-  const check = await getCheck(db, user, checkId);
+  const check = await findCheck(db, user, checkId);
   if (!check) throw new NotFoundError('No such check, or its project belongs to another company.');
   const before = await getProject(db, user, check.projectId);
   const jur = await inspectorAddress(db, before.jurisdiction.id);
-  const to = (input.to ?? jur.inspector_email ?? '').trim();
+  const to = (input.to ?? jur.inspectorEmail ?? '').trim();
   if (!to) throw new ValidationError([{ path: 'to', message: `${jur.name} has no inspector e-mail on file; enter the address.` }]);
-  if (!sameAddress(to, jur.inspector_email) && !input.confirm && !(await companyHasSentTo(db, before.organizationId, to))) {
+  if (!sameAddress(to, jur.inspectorEmail) && !input.confirm && !(await companyHasSentTo(db, before.organizationId, to))) {
     throw new ConfirmationRequiredError(
       'to',
-      `${to} is not ${jur.name}’s inspector address${jur.inspector_email ? ` (${jur.inspector_email})` : ''} and your company has not sent a report there before. ` +
+      `${to} is not ${jur.name}’s inspector address${jur.inspectorEmail ? ` (${jur.inspectorEmail})` : ''} and your company has not sent a report there before. ` +
         'Check the address; to send anyway, send again with confirm: true. Only reports sent to the inspector address reach the inspector’s queue in NookPass.',
     );
   }
@@ -41,7 +44,7 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
   const { report, pdf, project, check: issuedCheck } = await issueReport(db, user, checkId);
   // Recorded against the jurisdiction the report was issued for, by its inspector address at this moment.
   const issuedJur = project.jurisdiction.id === before.jurisdiction.id ? jur : await inspectorAddress(db, project.jurisdiction.id);
-  const toInspector = sameAddress(to, issuedJur.inspector_email);
+  const toInspector = sameAddress(to, issuedJur.inspectorEmail);
   const verifyUrl = `${publicBaseUrl()}/verify/${report.code}`;
   const s = issuedCheck.summary;
   const text = [

@@ -4,7 +4,7 @@ import { writeAudit } from '@/db/audit';
 import { listLatestChecksInJurisdiction } from '@/db/checks';
 import { demoPlans } from '@/db/demo-plans';
 import { listLatestPlansInJurisdiction } from '@/db/plan-revisions';
-import { getPublishedRuleSet, getRuleSetById, type RuleSetWithRules } from '@/db/rule-sets';
+import { findPublishedRuleSet, findRuleSetById, type RuleSetWithRules } from '@/db/rule-sets';
 import { outcomeOf } from '@/lib/domain/checks/outcome';
 import type { Evaluation, EvaluationSummary } from '@/lib/domain/engine';
 import { NotFoundError } from '@/lib/domain/errors';
@@ -38,9 +38,9 @@ export type DryRunResult = {
  * would change. Nothing is stored but the audit entry.
  */
 export async function runDryRun(db: DB, draftId: string, actorUserId: string): Promise<DryRunResult> {
-  const draft = await getRuleSetById(db, draftId);
+  const draft = await findRuleSetById(db, draftId);
   if (!draft) throw new NotFoundError('No such rule set version.');
-  const published = await getPublishedRuleSet(db, draft.jurisdictionId);
+  const published = await findPublishedRuleSet(db, draft.jurisdictionId);
   const baseline = published && published.id !== draft.id ? published : null;
   const subjects: SubjectComparison[] = [];
   for (const demo of demoPlans) {
@@ -82,7 +82,7 @@ export type ImpactItem = {
  * installer sees that newer rules exist and re-runs).
  */
 export async function computeImpact(db: DB, jurisdictionId: string): Promise<{ published: { id: string; version: number; changelog: string } | null; items: ImpactItem[] }> {
-  const published = await getPublishedRuleSet(db, jurisdictionId);
+  const published = await findPublishedRuleSet(db, jurisdictionId);
   const items: ImpactItem[] = [];
   for (const project of await listLatestChecksInJurisdiction(db, jurisdictionId)) {
     const base = { projectId: project.projectId, name: project.name, organization: project.organization };

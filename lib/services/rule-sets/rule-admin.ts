@@ -2,7 +2,7 @@ import 'server-only';
 import type { DB } from '@/db';
 import { writeAudit } from '@/db/audit';
 import { findJurisdictionBySlug, insertJurisdiction, type Jurisdiction, type JurisdictionFields } from '@/db/jurisdictions';
-import { getPublishedRuleSet, getRuleSetById, insertDraft, publishWithin, withConflicts, type RuleSetVersion, type RuleSetWithRules } from '@/db/rule-sets';
+import { findPublishedRuleSet, findRuleSetById, insertDraft, publishWithin, withConflicts, type RuleSetVersion, type RuleSetWithRules } from '@/db/rule-sets';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { isUuid } from '@/lib/domain/ids';
 import type { RuleSetParameters } from '@/lib/domain/params';
@@ -26,7 +26,7 @@ export async function resolveDraftSource(
     const built = buildRuleSet(jurisdiction.editions);
     return { parameters: built.parameters, rules: built.rules, basedOnId: null, label: `baseline for ${jurisdiction.editions.building}, ${jurisdiction.editions.electrical}, ${jurisdiction.editions.plumbing}` };
   }
-  const copy = source.from === 'published' ? await getPublishedRuleSet(db, jurisdiction.id) : await getRuleSetById(db, source.ruleSetId);
+  const copy = source.from === 'published' ? await findPublishedRuleSet(db, jurisdiction.id) : await findRuleSetById(db, source.ruleSetId);
   if (!copy) {
     if (source.from === 'published') throw new ConflictError(`${jurisdiction.name} has no published version to copy; start from the baseline instead.`);
     throw new ValidationError([{ path: 'ruleSetId', message: 'No such rule set version.' }]);
@@ -46,7 +46,7 @@ export async function createJurisdictionWithDraft(
   let source: DraftSource = { from: 'baseline' };
   if (input.startFrom !== 'baseline') {
     const other = await findJurisdictionBySlug(db, input.startFrom);
-    const published = other ? await getPublishedRuleSet(db, other.id) : null;
+    const published = other ? await findPublishedRuleSet(db, other.id) : null;
     if (!published) throw new ValidationError([{ path: 'startFrom', message: `'${input.startFrom}' has no published rule set to start from; choose another or the baseline.` }]);
     source = { from: 'version', ruleSetId: published.id };
   }
@@ -67,7 +67,7 @@ export async function createJurisdictionWithDraft(
       // jurisdiction never appears without a published version.
       if (publishChangelog) {
         await publishWithin(trx, { id: draft.id, revision: draft.revision, changelog: publishChangelog, actorUserId, validate });
-        return { jurisdiction, draft: (await getRuleSetById(trx, draft.id))! };
+        return { jurisdiction, draft: (await findRuleSetById(trx, draft.id))! };
       }
       return { jurisdiction, draft };
     }),
@@ -88,7 +88,7 @@ export async function createJurisdictionWithDraft(
 
 /** A rule set version by id for the admin routes; a malformed id is a 404 like any unknown one. */
 export async function requireRuleSet(db: DB, id: string): Promise<RuleSetWithRules> {
-  const set = isUuid(id) ? await getRuleSetById(db, id) : null;
+  const set = isUuid(id) ? await findRuleSetById(db, id) : null;
   if (!set) throw new NotFoundError('No such rule set version.');
   return set;
 }

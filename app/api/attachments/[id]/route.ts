@@ -7,7 +7,7 @@ import type { AppUser } from '@/lib/domain/roles';
 import { requireUser } from '@/lib/platform/auth/session';
 import { NotFoundError } from '@/lib/domain/errors';
 import { json, parseBody, route } from '@/lib/platform/http';
-import { deleteObject, getObject, putObject } from '@/lib/platform/storage';
+import { deleteObject, findObject, putObject } from '@/lib/platform/storage';
 import { stripPhotoMetadata } from '@/lib/platform/uploads';
 
 type Ctx = { params: Promise<{ id: string }> };
@@ -28,9 +28,9 @@ async function load(user: AppUser, id: string, write: boolean): Promise<{ a: Att
 /** The photo without metadata; one uploaded before such copies were kept gets it made now, and stored. */
 async function photoWithoutMetadata(a: Attachment): Promise<Buffer | null> {
   const key = withoutMetadataKey(a.storageKey);
-  const stored = await getObject(key);
+  const stored = await findObject(key);
   if (stored) return stored;
-  const original = await getObject(a.storageKey);
+  const original = await findObject(a.storageKey);
   if (!original) return null;
   const stripped = await stripPhotoMetadata(original, a.contentType);
   await putObject(key, stripped, a.contentType);
@@ -49,14 +49,14 @@ export const GET = route<Ctx>(async (request, { params }) => {
   let type = 'image/jpeg';
   let filename = a.filename;
   if (variant === 'thumb' && a.thumbnailKey) {
-    bytes = await getObject(a.thumbnailKey);
+    bytes = await findObject(a.thumbnailKey);
     filename = asJpegName(a.filename);
   } else if (variant === 'display' && a.kind === 'photo') {
-    bytes = await getObject(displayKey(a.storageKey));
+    bytes = await findObject(displayKey(a.storageKey));
     filename = asJpegName(a.filename);
   } else {
     type = a.contentType;
-    bytes = a.kind === 'photo' && !ownCompany ? await photoWithoutMetadata(a) : await getObject(a.storageKey);
+    bytes = a.kind === 'photo' && !ownCompany ? await photoWithoutMetadata(a) : await findObject(a.storageKey);
   }
   if (!bytes) throw new NotFoundError('The file is missing from storage.');
   return new Response(new Uint8Array(bytes), {

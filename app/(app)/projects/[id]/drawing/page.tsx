@@ -3,10 +3,10 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb, type DB } from '@/db';
 import { parsePositiveInt } from '@/lib/domain/integers';
-import { getCheck, listChecks } from '@/db/checks';
+import { findCheck, listChecks } from '@/db/checks';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { getPlanRevision } from '@/db/plan-revisions';
-import { getRuleSetById, type RuleSetVersion } from '@/db/rule-sets';
+import { findPlanRevision } from '@/db/plan-revisions';
+import { findRuleSetById, type RuleSetVersion } from '@/db/rule-sets';
 import { DrawingFigure } from '@/components/drawings/drawing-figure';
 import { HingeLayoutSection } from '@/components/drawings/hinge-layout-section';
 import { PrintButton } from '@/components/drawings/print-button';
@@ -31,7 +31,7 @@ const PRINT_CSS = '@media print { @page { margin: 0.4in; } }';
  * published one, else the model-code defaults for its editions.
  */
 async function loadParameters(db: DB, ruleSetId: string | null, published: RuleSetVersion | null, jurisdictionSlug: string): Promise<RuleSetParameters> {
-  const stored = ruleSetId ? (await getRuleSetById(db, ruleSetId))?.parameters : published?.parameters;
+  const stored = ruleSetId ? (await findRuleSetById(db, ruleSetId))?.parameters : published?.parameters;
   const valid = stored ? ruleSetParametersSchema.safeParse(stored) : null;
   if (valid?.success) return valid.data;
   const jurisdiction = await findJurisdictionBySlug(db, jurisdictionSlug);
@@ -46,7 +46,7 @@ export default async function DrawingPage({ params, searchParams }: { params: Pr
   const db = getDb();
   const wanted = revParam ? parsePositiveInt(revParam) : 'latest';
   if (wanted === null) notFound();
-  const [revision, checks] = await Promise.all([getPlanRevision(db, user, id, wanted), listChecks(db, user, id)]);
+  const [revision, checks] = await Promise.all([findPlanRevision(db, user, id, wanted), listChecks(db, user, id)]);
   if (wanted !== 'latest' && !revision) notFound();
 
   if (!revision) {
@@ -89,7 +89,7 @@ export default async function DrawingPage({ params, searchParams }: { params: Pr
   // Failures are marked only from a check of this very revision; the newest one wins (listChecks is newest first).
   const checkOfRevision = checks.find((c) => c.planRevision.number === revision.number) ?? null;
   const [check, parameters] = await Promise.all([
-    checkOfRevision ? getCheck(db, user, checkOfRevision.id) : Promise.resolve(null),
+    checkOfRevision ? findCheck(db, user, checkOfRevision.id) : Promise.resolve(null),
     loadParameters(db, checkOfRevision?.ruleSet.id ?? checks[0]?.ruleSet.id ?? null, published, project.jurisdiction.slug),
   ]);
   const options = { params: parameters, marks: check?.findings ?? [] };

@@ -4,14 +4,14 @@ import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionById } from '@/db/jurisdictions';
 import { parsePositiveInt } from '@/lib/domain/integers';
-import { getPlanRevision } from '@/db/plan-revisions';
+import { findPlanRevision } from '@/db/plan-revisions';
 import { PlanEditor } from '@/components/plan-editor/plan-editor';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { defaultParameters } from '@/lib/domain/params';
 import { findOversizeLists, truncateToLimits, type PlanInput } from '@/lib/domain/plan';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
-import { getRuleSetById } from '@/db/rule-sets';
+import { findRuleSetById } from '@/db/rule-sets';
 
 export const metadata: Metadata = { title: 'Plan' };
 
@@ -22,9 +22,9 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
   const db = getDb();
   const wanted = revParam ? parsePositiveInt(revParam) : 'latest';
   if (wanted === null) notFound();
-  const [revision, latest] = await Promise.all([getPlanRevision(db, user, id, wanted), getPlanRevision(db, user, id, 'latest')]);
+  const [revision, latest] = await Promise.all([findPlanRevision(db, user, id, wanted), findPlanRevision(db, user, id, 'latest')]);
   if (wanted !== 'latest' && !revision) notFound();
-  const rules = published ? await getRuleSetById(db, published.id) : null;
+  const rules = published ? await findRuleSetById(db, published.id) : null;
   const jurisdiction = await findJurisdictionById(db, project.jurisdiction.id);
   if (!jurisdiction) notFound();
   // The live route totals use the published parameters; before a first publication, the model-code defaults.

@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { getVersionByNumber, listVersions } from '@/db/rule-sets';
+import { findVersionByNumber, listVersions } from '@/db/rule-sets';
 import { DiffView } from '@/components/admin/diff-view';
 import { PageHeader } from '@/components/ui/page-header';
 import { diffRuleSets } from '@/lib/domain/rule-sets/diff';
@@ -26,7 +26,7 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
     const versions = await listVersions(db, jurisdiction.id);
     return <PickVersions slug={slug} name={jurisdiction.name} versions={versions.map((v) => ({ version: v.version, status: v.status }))} from={query.from} to={query.to} />;
   }
-  const [from, to] = await Promise.all([getVersionByNumber(db, jurisdiction.id, fromNumber), getVersionByNumber(db, jurisdiction.id, toNumber)]);
+  const [from, to] = await Promise.all([findVersionByNumber(db, jurisdiction.id, fromNumber), findVersionByNumber(db, jurisdiction.id, toNumber)]);
   if (!from || !to) notFound();
   const label = (s: typeof from) => `v${s.version} (${s.status})`;
   return (

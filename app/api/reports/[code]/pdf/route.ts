@@ -5,7 +5,7 @@ import { requireUser } from '@/lib/platform/auth/session';
 import { NotFoundError } from '@/lib/domain/errors';
 import { route } from '@/lib/platform/http';
 import { assertCanReadReport } from '@/lib/services/reports/access';
-import { getObject } from '@/lib/platform/storage';
+import { findObject } from '@/lib/platform/storage';
 
 type Ctx = { params: Promise<{ code: string }> };
 
@@ -16,7 +16,7 @@ export const GET = route<Ctx>(async (request, { params }) => {
   const report = await findReportByCode(db, (await params).code);
   if (!report) throw new NotFoundError('No such report.');
   await assertCanReadReport(db, user, report);
-  const pdf = await getObject(report.storageKey);
+  const pdf = await findObject(report.storageKey);
   if (!pdf) throw new NotFoundError('The report file is missing from storage.');
   return new Response(new Uint8Array(pdf), {
     headers: {

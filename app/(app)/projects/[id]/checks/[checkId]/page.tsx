@@ -3,7 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionById } from '@/db/jurisdictions';
-import { getCheck, previousCheck } from '@/db/checks';
+import { findCheck, previousCheck } from '@/db/checks';
 import { citationText } from '@/lib/domain/vocabulary';
 import { FindingsList } from '@/components/checks/findings-list';
 import { ReportActions } from '@/components/reports/report-actions';
@@ -21,7 +21,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
   const { id, checkId } = await params;
   const { user, project, published } = await loadProjectPage(id, `/projects/${id}/checks/${checkId}`);
   const db = getDb();
-  const check = await getCheck(db, user, checkId);
+  const check = await findCheck(db, user, checkId);
   if (!check || check.projectId !== project.id) notFound();
   const prev = await previousCheck(db, check);
   const changes = prev ? compareFindings(prev.findings, check.findings) : [];

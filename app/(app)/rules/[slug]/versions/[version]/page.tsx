@@ -4,7 +4,7 @@ import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { parsePositiveInt } from '@/lib/domain/integers';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
-import { getPublishedVersion, getVersionByNumber } from '@/db/rule-sets';
+import { findPublishedVersion, findVersionByNumber } from '@/db/rule-sets';
 import { DraftWorkspace } from '@/components/admin/draft-workspace';
 import { ParametersForm } from '@/components/admin/parameters-form';
 import { RuleTable } from '@/components/admin/rule-editor';
@@ -24,9 +24,9 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
   const jurisdiction = await findJurisdictionBySlug(db, slug);
   const number = parsePositiveInt(version);
   if (!jurisdiction || number === null) notFound();
-  const set = await getVersionByNumber(db, jurisdiction.id, number);
+  const set = await findVersionByNumber(db, jurisdiction.id, number);
   if (!set) notFound();
-  const published = await getPublishedVersion(db, jurisdiction.id);
+  const published = await findPublishedVersion(db, jurisdiction.id);
   const mismatches = citationMismatches(set.rules, jurisdiction.editions);
 
   return (
