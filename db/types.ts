@@ -192,7 +192,7 @@ export interface ReportsTable {
   attachment_ids: Json<string[]>;
   /** Schema version of the report's JSON columns (lib/domain/reports/stored). */
   schema_version: number;
-  /** What the report said when issued (lib/report/snapshot.ts); null only for reports issued before snapshots were kept. */
+  /** What the report said when issued (lib/domain/reports/snapshot.ts); null only for reports issued before snapshots were kept. */
   snapshot: ColumnType<Record<string, unknown> | null, string | undefined, never>;
   created_by: string | null;
   created_at: CreatedAt;

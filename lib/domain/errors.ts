@@ -1,4 +1,4 @@
-/** Typed domain errors; lib/http.ts maps each to one HTTP status in one place. */
+/** Typed domain errors; lib/platform/http.ts maps each to one HTTP status in one place. */
 export type FieldError = { path: string; message: string };
 
 export class DomainError extends Error {

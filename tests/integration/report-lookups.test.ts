@@ -19,8 +19,8 @@ const PROJECT = `Lookup closet ${randomBytes(3).toString('hex')} (test)`;
 // use up nor depend on what other test files spend from the loopback address.
 const newClient = () => `2001:db8::${randomBytes(8).toString('hex').match(/.{4}/g)!.join(':')}`;
 
-const SYMBOL = '[2-9A-HJ-NP-Z]'; // lib/report/code.ts: no 0, O, 1, I
-const LIMIT = 60; // lib/report/lookups.ts REPORT_LOOKUP_LIMIT: 60 a minute per address
+const SYMBOL = '[2-9A-HJ-NP-Z]'; // lib/domain/reports/code.ts: no 0, O, 1, I
+const LIMIT = 60; // lib/services/reports/limits.ts REPORT_LOOKUP_LIMIT: 60 a minute per address
 
 function lookup(kind: 'api' | 'verify' | 'page', reportCode: string, client: string) {
   const headers = { 'x-forwarded-for': client };

@@ -23,7 +23,7 @@ let draftRule: Record<string, unknown>;
 let jurisdictionSlug: string;
 
 const RUNS = 50;
-const LIMIT = 512 * 1024; // lib/http.ts
+const LIMIT = 512 * 1024; // lib/platform/http.ts
 
 type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
 type Answer = { status: number; body: any };
@@ -116,7 +116,7 @@ function nearChange(reported: string, changed: string): boolean {
   return related(reported, changed) || related(reported, parent) || reported === NUL_PATH;
 }
 
-// lib/http.ts answers text PostgreSQL cannot store (U+0000) on this path, as a last line of defence.
+// lib/platform/http.ts answers text PostgreSQL cannot store (U+0000) on this path, as a last line of defence.
 const NUL_PATH = '(request)';
 
 function expectClearRefusal(res: Answer, what: string) {

@@ -38,7 +38,7 @@ describe('hinge positions', () => {
   });
 
   it('places the plates from the top of the opening and the top of the side panel', () => {
-    // common practice, no published source (geometry stated in lib/drawing/layout.ts): the door hangs on the toe kick.
+    // common practice, no published source (geometry stated in lib/domain/drawing/layout.ts): the door hangs on the toe kick.
     // Demo: 84 in outside, 3/4 in top panel → opening 83-1/4 in high; door bottom at 3-1/2 in; top hinge 75 in up.
     const [door] = hingeLayouts(planOf(hallClosetPassPlan), { params });
     expect(door.positions[0].plateFromOpeningTopIn).toBe(83.25 - (3.5 + 75));

@@ -18,7 +18,7 @@ import {
 } from '@/lib/domain/plan';
 import { hallClosetPassPlan, largestAllowedPlan } from '@/tests/fixtures/plans';
 
-// The limits are NookPass's own product limits (lib/plan/schema.ts), common practice, no published source;
+// The limits are NookPass's own product limits (lib/domain/plan/registry.ts), common practice, no published source;
 // these tests hold the schema, the stored-plan reader and the drawings to the same exported numbers.
 
 const door = { kind: 'hinged', width: 20, height: 78, thickness: 0.75, hinges: [3, 75] };

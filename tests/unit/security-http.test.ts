@@ -4,7 +4,7 @@ import { PayloadTooLargeError, ValidationError } from '@/lib/domain/errors';
 import { parseBody, readJson, route } from '@/lib/platform/http';
 
 const KiB = 1024;
-// lib/http.ts refuses JSON bodies over 512 KiB; a full plan is a few KiB, so this is generous.
+// lib/platform/http.ts refuses JSON bodies over 512 KiB; a full plan is a few KiB, so this is generous.
 const LIMIT = 512 * KiB;
 
 /** A body that arrives in chunks with no Content-Length (HTTP/1.1 chunked coding), counting what the reader pulled. */

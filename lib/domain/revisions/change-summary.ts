@@ -6,7 +6,7 @@ function isObject(v: unknown): v is Record<string, unknown> {
   return typeof v === 'object' && v !== null && !Array.isArray(v);
 }
 
-// Above every plan list limit (lib/plan/schema.ts), so lists of a plan saved today always compare item by item.
+// Above every plan list limit (lib/domain/plan/registry.ts), so lists of a plan saved today always compare item by item.
 const MAX_COMPARED_ITEMS = 100;
 
 function entries(v: unknown): unknown {
