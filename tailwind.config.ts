@@ -7,11 +7,11 @@ export default {
     extend: {
       colors: {
         paper: { DEFAULT: '#f6f4ee', deep: '#ece8dd' },
-        ink: { DEFAULT: '#1c2a3a', soft: '#3d4d60', faint: '#6b7785' },
+        ink: { DEFAULT: '#1c2a3a', soft: '#3d4d60', faint: '#5b6673' },
         rule: '#d6d0c2',
-        brass: { DEFAULT: '#a8741a', soft: '#f3e6c8' },
+        brass: { DEFAULT: '#8a5c12', soft: '#f3e6c8' },
         status: {
-          pass: '#2e7d5b',
+          pass: '#256a4c',
           fail: '#b23a2a',
           caution: '#b8860b',
           info: '#4a58b8',

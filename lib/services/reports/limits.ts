@@ -4,7 +4,8 @@ import { sharedLimiter, type LimitPolicy } from '@/lib/platform/rate-limit';
 /**
  * Public report lookups (the facts API, the verification POST and the /verify page) per client address:
  * 60 a minute. An inspector checking a stack of papers by hand opens one every few seconds, and an office
- * of several behind one address still fits; guessing codes gets one try a second instead of hundreds.
+ * of several behind one address still fits; guessing codes gets one try a second instead of hundreds
+ * (common practice, no published source).
  */
 export const REPORT_LOOKUP_LIMIT: LimitPolicy = {
   name: 'report-lookup',
@@ -20,7 +21,8 @@ export async function countReportLookup(address: string): Promise<void> {
 
 /**
  * Report e-mails per company: 30 an hour. A busy company sends a handful of reports a day; the limit keeps
- * one account from turning NookPass into a mail cannon, and counts across app servers like the rest.
+ * one account from turning NookPass into a mail cannon, and counts across app servers like the rest
+ * (common practice, no published source).
  */
 export const REPORT_SEND_LIMIT: LimitPolicy = {
   name: 'report-send',
