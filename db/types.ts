@@ -16,8 +16,12 @@ export interface OrganizationsTable {
   id: Generated<string>;
   name: string;
   license_number: string | null;
+  address: Generated<string>;
+  phone: Generated<string>;
+  default_jurisdiction_id: string | null;
   is_demo: Generated<boolean>;
   created_at: CreatedAt;
+  updated_at: Generated<Date>;
 }
 
 export interface JurisdictionsTable {
@@ -46,9 +50,43 @@ export interface UsersTable {
   role: Role;
   organization_id: string | null;
   jurisdiction_id: string | null;
+  /** An installer who administers their company (its people, settings and invitations). */
+  is_owner: Generated<boolean>;
+  /** Switched off: sessions and API tokens stop working; the person's records stay. */
+  deactivated_at: Timestamp | null;
+  email_confirmed_at: Timestamp | null;
+  password_changed_at: Timestamp | null;
   is_demo: Generated<boolean>;
   created_at: CreatedAt;
   updated_at: Timestamp;
+}
+
+export type InvitedRole = 'installer' | 'owner' | 'inspector' | 'admin';
+
+/** A single-use invitation; only the SHA-256 of its token is kept. */
+export interface InvitationsTable {
+  id: Generated<string>;
+  email: string;
+  role: InvitedRole;
+  organization_id: string | null;
+  jurisdiction_id: string | null;
+  invited_by: string | null;
+  token_hash: string;
+  created_at: CreatedAt;
+  expires_at: Timestamp;
+  accepted_at: Timestamp | null;
+  accepted_user_id: string | null;
+  revoked_at: Timestamp | null;
+}
+
+/** A single-use token sent by e-mail (password reset, address confirmation); only its SHA-256 is kept. */
+export interface EmailTokensTable {
+  id: Generated<string>;
+  user_id: string;
+  token_hash: string;
+  created_at: CreatedAt;
+  expires_at: Timestamp;
+  used_at: Timestamp | null;
 }
 
 export interface ApiTokensTable {
@@ -83,6 +121,8 @@ export interface AuditLogTable {
   entity_type: string;
   entity_id: string | null;
   details: Json<Record<string, unknown>>;
+  /** The company whose owners may read this row (account events); null for platform-wide events. */
+  organization_id: string | null;
 }
 
 
@@ -236,6 +276,9 @@ export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
   users: UsersTable;
+  invitations: InvitationsTable;
+  password_resets: EmailTokensTable;
+  email_confirmations: EmailTokensTable;
   api_tokens: ApiTokensTable;
   sessions: SessionsTable;
   audit_log: AuditLogTable;
