@@ -7,6 +7,8 @@ export type AuditEntry = {
   entityType: string;
   entityId?: string | null;
   details?: Record<string, unknown>;
+  /** The company whose owners may read the row (account events of its people). */
+  organizationId?: string | null;
 };
 
 export async function writeAudit(db: DB, entry: AuditEntry): Promise<void> {
@@ -18,6 +20,7 @@ export async function writeAudit(db: DB, entry: AuditEntry): Promise<void> {
       entity_type: entry.entityType,
       entity_id: entry.entityId ?? null,
       details: JSON.stringify(entry.details ?? {}),
+      organization_id: entry.organizationId ?? null,
     })
     .execute();
 }
