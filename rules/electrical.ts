@@ -60,7 +60,8 @@ export const electricalRules: RuleDefinition[] = [
     area: 'electrical',
     severity: 'fail',
     citations: [nec('210.50(C)', 'S')],
-    applicability: null,
+    // A hard-wired dryer has no receptacle outlet to place.
+    applicability: all('dryer-plugged-in', cond('dryer-not-hard-wired', 'electrical.dryerHardWired', 'equal', false)),
     conditions: all('within-reach', cond('receptacle-within-distance', 'electrical.dryerReceptacleDistanceIn', 'lessThanInclusive', param('electrical.receptacleMaxDistanceIn'))),
     requires: ['electrical.dryerReceptacleDistanceIn'],
     measured: 'electrical.dryerReceptacleDistanceIn',
@@ -69,7 +70,7 @@ export const electricalRules: RuleDefinition[] = [
     messages: {
       pass: 'The dryer receptacle is {measured} from the dryer (within {limit}).',
       fail: `The dryer receptacle is {measured} from the dryer; it must be within {limit}. ${SHOCK}`,
-      notApplicable: 'No dryer.',
+      notApplicable: 'The dryer is hard-wired: there is no receptacle for it (see its disconnecting means).',
     },
     remedy: 'electrical.move-receptacle',
   },
@@ -80,7 +81,8 @@ export const electricalRules: RuleDefinition[] = [
     severity: 'fail',
     // From memory (TRADE.md M).
     citations: [nec('422.33', 'M')],
-    applicability: null,
+    // A hard-wired appliance has no plug to reach; its disconnecting means is checked instead (NEC 422.31).
+    applicability: all('plug-connected', cond('has-plug-connections', 'electrical.hasPlugConnections', 'equal', true)),
     conditions: all('reachable', cond('all-receptacles-reachable', 'electrical.receptaclesReachable', 'equal', true)),
     requires: ['electrical.receptaclesReachable'],
     measured: 'electrical.receptaclesReachable',
@@ -89,7 +91,7 @@ export const electricalRules: RuleDefinition[] = [
     messages: {
       pass: 'Every plug can be reached with the appliances in place.',
       fail: `A cord-and-plug connection used as the disconnect must stay accessible with the appliance installed. ${SHOCK}`,
-      notApplicable: 'No receptacles.',
+      notApplicable: 'No appliance is connected by cord and plug.',
     },
     remedy: 'electrical.receptacle-access',
   },
@@ -114,7 +116,7 @@ export const electricalRules: RuleDefinition[] = [
   },
   {
     key: 'electrical.dryer-gfci',
-    title: 'GFCI protection of the dryer receptacle',
+    title: 'GFCI protection of the dryer outlet',
     area: 'electrical',
     severity: 'fail',
     // NEC 2020 extends 210.8(A) to 125-250 V receptacles; NEC 2023 210.8(D) covers dryer outlets.
@@ -126,10 +128,16 @@ export const electricalRules: RuleDefinition[] = [
     limit: true,
     unit: 'boolean',
     messages: {
-      pass: 'The dryer receptacle is GFCI protected.',
-      fail: `The adopted NEC edition requires GFCI protection for the dryer receptacle; it has none. ${SHOCK}`,
+      pass: 'The dryer outlet is GFCI protected.',
+      fail: `The adopted NEC edition requires GFCI protection for the dryer outlet (NEC 2023: hard-wired or cord-and-plug); it has none. ${SHOCK}`,
       notApplicable: 'The adopted NEC edition does not require GFCI protection for this dryer receptacle.',
     },
+    variants: [
+      {
+        when: { fact: 'electrical.dryerHardWired', equals: true },
+        messages: { notApplicable: 'Before NEC 2023 the laundry GFCI rule, 210.8(A), covers receptacles; a hard-wired dryer has none. NEC 2023 210.8(D) adds dryer outlets, hard-wired or not.' },
+      },
+    ],
     remedy: 'electrical.add-gfci',
   },
   {
@@ -196,5 +204,25 @@ export const electricalRules: RuleDefinition[] = [
       notApplicable: 'Not an electric dryer.',
     },
     remedy: 'electrical.dryer-circuit',
+  },
+  {
+    key: 'electrical.dryer-disconnect',
+    title: 'Disconnecting means of a hard-wired dryer',
+    area: 'electrical',
+    severity: 'fail',
+    // NEC 422.31: a permanently connected appliance needs a disconnecting means (TRADE.md M).
+    citations: [nec('422.31', 'M')],
+    applicability: all('hard-wired-dryer', cond('dryer-is-hard-wired', 'electrical.dryerHardWired', 'equal', true)),
+    conditions: all('disconnect-provided', cond('has-disconnect', 'electrical.dryerDisconnect', 'notEqual', 'none')),
+    requires: ['electrical.dryerDisconnect'],
+    measured: 'electrical.dryerDisconnect',
+    limit: null,
+    unit: 'text',
+    messages: {
+      pass: 'The hard-wired dryer can be disconnected by {measured}.',
+      fail: `The hard-wired dryer has no disconnecting means: it needs a switch or breaker within sight, or a breaker that locks in the open position. ${SHOCK}`,
+      notApplicable: 'The dryer is connected by cord and plug; see the plug-reachability finding.',
+    },
+    remedy: 'electrical.add-disconnect',
   },
 ];

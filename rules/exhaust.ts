@@ -1,4 +1,5 @@
-import { all, any, cond, param, paramCond, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import { all, any, cond, param, paramCond, type CitationEntry, type CitationVariant, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import type { TopLevelCondition } from 'json-rules-engine';
 
 const irc = (section: string, confidence: CitationEntry['confidence'], years?: number[]): CitationEntry => ({
   source: 'building',
@@ -10,18 +11,62 @@ const irc = (section: string, confidence: CitationEntry['confidence'], years?: n
 
 const LINT = 'Lint builds up in long, crushed or obstructed ducts and is a fire risk.';
 
-export const exhaustRules: RuleDefinition[] = [
+/** The dryer is vented (the default): it needs an exhaust duct. */
+export const DUCT_REQUIRED = cond('dryer-needs-duct', 'exhaust.ductRequired', 'equal', true);
+
+/**
+ * A listed condensing or heat-pump dryer needs no exhaust duct (IRC M1502.2 exception; TRADE.md S): its
+ * exhaust findings are not-applicable and cite the exception, never ask for a route it does not have.
+ */
+export const VENTLESS: CitationVariant = {
+  when: { fact: 'exhaust.ductRequired', equals: false },
+  citations: [irc('M1502.2 exception', 'S')],
+  messages: { notApplicable: 'A listed condensing or heat-pump dryer needs no exhaust duct; follow its maker’s instructions for condensate and closet clearances.' },
+};
+
+/** Gates a rule on a vented dryer: its applicability gains the duct clause and its citation the ventless exception. */
+export function forVentedDryer(rule: RuleDefinition): RuleDefinition {
+  const current = rule.applicability as unknown as { name: string; all?: unknown[] } | null;
+  if (current && !current.all) throw new Error(`${rule.key}: applicability must be an "all" to gate it on a vented dryer`);
+  const applicability = current
+    ? all(current.name, DUCT_REQUIRED, ...(current.all as unknown[]))
+    : (all('dryer-vented', DUCT_REQUIRED) as TopLevelCondition);
+  return { ...rule, applicability, variants: [VENTLESS, ...(rule.variants ?? [])] };
+}
+
+const exhaustRuleDefinitions: RuleDefinition[] = [
   {
     key: 'exhaust.developed-length',
     title: 'Exhaust duct developed length',
     area: 'exhaust',
     severity: 'fail',
-    // Same rule renumbered: IRC 2018 M1502.4.5.1, IRC 2021 M1502.4.6.1 (TRADE.md, V).
+    // Same rule renumbered: IRC 2018 M1502.4.5.1, IRC 2021 M1502.4.6.1 (TRADE.md, V). Before the 2018 IRC
+    // inserted the power-ventilator section it was M1502.4.4.1 (2012 S, 2009 and 2015 M).
     citations: [
       irc('M1502.4.5.1', 'V', [2018]),
       irc('M1502.4.6.1', 'V', [2021]),
-      irc('M1502.4.5.1', 'M', [2015]),
-      irc('M1502.4.4.1', 'M', [2009, 2012]),
+      irc('M1502.4.4.1', 'S', [2012]),
+      irc('M1502.4.4.1', 'M', [2009, 2015]),
+    ],
+    variants: [
+      {
+        // The maker's maximum replaces the code's where make and model are known (TRADE.md S; 2012/2015 M).
+        when: { fact: 'exhaust.allowedLengthSource', equals: 'manufacturer' },
+        citations: [irc('M1502.4.5.2', 'S', [2018]), irc('M1502.4.6.2', 'S', [2021]), irc('M1502.4.4.2', 'M', [2012, 2015])],
+        messages: {
+          pass: 'Developed length {measured} is within the {limit} the dryer maker allows. The maker’s installation instructions must reach the inspector before the duct is concealed.',
+          fail: `Developed length {measured} exceeds the {limit} the dryer maker allows. The maker’s installation instructions must reach the inspector before the duct is concealed. ${LINT}`,
+        },
+      },
+      {
+        // With a listed power ventilator the length follows its instructions: IRC 2018 M1502.4.5.3 / 2021 M1502.4.6.3 (S).
+        when: { fact: 'exhaust.allowedLengthSource', equals: 'power-ventilator' },
+        citations: [irc('M1502.4.5.3', 'S', [2018]), irc('M1502.4.6.3', 'S', [2021])],
+        messages: {
+          pass: 'Developed length {measured} is within the {limit} the power ventilator’s maker allows.',
+          fail: `Developed length {measured} exceeds the {limit} the power ventilator’s maker allows. ${LINT}`,
+        },
+      },
     ],
     applicability: null,
     conditions: all('within-allowed-length', cond('developed-length-within-limit', 'exhaust.developedLengthIn', 'lessThanInclusive', { fact: 'exhaust.allowedLengthIn' })),
@@ -197,8 +242,8 @@ export const exhaustRules: RuleDefinition[] = [
     title: 'Concealed duct length label',
     area: 'exhaust',
     severity: 'fail',
-    // IRC 2015 labels every concealed duct; 2018+ only where the length exceeds the maximum.
-    citations: [irc('M1502.4.6', 'S', [2015, 2018]), irc('M1502.4.7', 'S', [2021]), irc('M1502.4.5', 'M', [2009, 2012])],
+    // IRC 2012/2015 label every concealed duct (M1502.4.5, M); 2018+ only where the length exceeds the maximum.
+    citations: [irc('M1502.4.6', 'S', [2018]), irc('M1502.4.7', 'S', [2021]), irc('M1502.4.5', 'M', [2009, 2012, 2015])],
     applicability: all('label-required', cond('edition-requires-label', 'exhaust.lengthLabelRequired', 'equal', true)),
     conditions: all('labelled', cond('label-installed', 'exhaust.lengthLabel', 'equal', true)),
     requires: ['exhaust.lengthLabel'],
@@ -274,7 +319,8 @@ export const exhaustRules: RuleDefinition[] = [
     title: 'Fan added to the exhaust duct',
     area: 'exhaust',
     severity: 'fail',
-    citations: [irc('M1502.4.5', 'S', [2021]), irc('M1502.4.4', 'S', [2018]), irc('M1502.4.4', 'M', [2015])],
+    // Power ventilators got their own section in the 2018 IRC; earlier editions are cited from 2018 with a note to confirm.
+    citations: [irc('M1502.4.5', 'S', [2021]), irc('M1502.4.4', 'S', [2018])],
     applicability: all('fan-present', cond('has-added-fan', 'exhaust.boosterFanPresent', 'equal', true)),
     conditions: all(
       'fan-allowed',
@@ -296,4 +342,92 @@ export const exhaustRules: RuleDefinition[] = [
     },
     remedy: 'exhaust.listed-power-ventilator',
   },
+  {
+    key: 'exhaust.termination-location',
+    title: 'Duct ends outdoors',
+    area: 'exhaust',
+    severity: 'fail',
+    // IRC M1502.3: terminate outdoors; M1501.1: never into an attic, soffit, ridge vent or crawl space (TRADE.md S).
+    citations: [irc('M1502.3', 'S')],
+    applicability: null,
+    conditions: all('outdoors', cond('ends-outdoors', 'exhaust.terminationLocation', 'equal', 'outdoors')),
+    requires: ['exhaust.terminationLocation'],
+    measured: 'exhaust.terminationLocation',
+    limit: 'outdoors',
+    unit: 'text',
+    messages: {
+      pass: 'The exhaust duct ends outdoors.',
+      fail: `The exhaust duct ends inside the building ({measured}); it must end outdoors, never in an attic, soffit, ridge vent, crawl space, garage or other indoor space (IRC M1501.1 too). Moist, lint-laden air indoors feeds mould and fire. ${LINT}`,
+      notApplicable: 'No exhaust duct.',
+    },
+    remedy: 'exhaust.terminate-outdoors',
+  },
+  {
+    key: 'exhaust.terminal-opening',
+    title: 'Terminal opening area',
+    area: 'exhaust',
+    severity: 'fail',
+    // IRC 2018/2021 M1502.3: the terminal's opening at least 12.5 sq in (TRADE.md S); earlier editions set none.
+    citations: [irc('M1502.3', 'S', [2018, 2021])],
+    applicability: all('edition-sets-opening', paramCond('edition-sets-terminal-opening', 'exhaust.minTerminalOpeningSqIn', 'notEqual', null)),
+    conditions: all('open-enough', cond('opening-at-least-minimum', 'exhaust.terminalOpeningSqIn', 'greaterThanInclusive', param('exhaust.minTerminalOpeningSqIn'))),
+    requires: ['exhaust.terminalOpeningSqIn'],
+    measured: 'exhaust.terminalOpeningSqIn',
+    limit: param('exhaust.minTerminalOpeningSqIn'),
+    unit: 'area',
+    messages: {
+      pass: 'The terminal’s opening is {measured} (at least {limit} needed).',
+      fail: `The terminal’s opening is {measured}; at least {limit} is needed so it does not choke the airflow. ${LINT}`,
+      notApplicable: 'The adopted edition sets no minimum terminal opening.',
+    },
+    remedy: 'exhaust.larger-terminal',
+  },
+  {
+    key: 'exhaust.support-spacing',
+    title: 'Duct support spacing',
+    area: 'exhaust',
+    severity: 'fail',
+    // IRC M1502.4.2: supports at intervals of at most 12 ft, 2015 and later (TRADE.md S).
+    citations: [irc('M1502.4.2', 'S', [2015, 2018, 2021])],
+    applicability: all('edition-sets-spacing', paramCond('edition-sets-support-spacing', 'exhaust.maxSupportSpacingIn', 'notEqual', null)),
+    conditions: all('supported', cond('spacing-within-max', 'exhaust.supportSpacingIn', 'lessThanInclusive', param('exhaust.maxSupportSpacingIn'))),
+    requires: ['exhaust.supportSpacingIn'],
+    measured: 'exhaust.supportSpacingIn',
+    limit: param('exhaust.maxSupportSpacingIn'),
+    unit: 'length',
+    messages: {
+      pass: 'Duct supports are at most {measured} apart (within {limit}).',
+      fail: `Duct supports are {measured} apart; at most {limit} is allowed. A sagging duct collects lint and separates at its joints. ${LINT}`,
+      notApplicable: 'The adopted edition sets no support spacing for dryer exhaust ducts.',
+    },
+    remedy: 'exhaust.add-supports',
+  },
+  {
+    key: 'exhaust.shield-plates',
+    title: 'Shield plates near the framing face',
+    area: 'exhaust',
+    severity: 'fail',
+    // IRC M1502.5: steel plates where the duct is less than 1-1/4 in from the framing face (TRADE.md S).
+    citations: [irc('M1502.5', 'S')],
+    applicability: all('duct-concealed', cond('duct-is-concealed', 'exhaust.concealed', 'equal', true)),
+    conditions: any(
+      'protected-from-fasteners',
+      cond('far-from-framing-face', 'exhaust.framingFaceClearanceIn', 'greaterThanInclusive', param('exhaust.shieldPlateMinClearanceIn')),
+      cond('shield-plates-installed', 'exhaust.shieldPlates', 'equal', true),
+    ),
+    requires: ['exhaust.framingFaceClearanceIn', 'exhaust.shieldPlates'],
+    measured: 'exhaust.framingFaceClearanceIn',
+    limit: param('exhaust.shieldPlateMinClearanceIn'),
+    unit: 'length',
+    lengthStyle: 'inches',
+    messages: {
+      pass: 'The duct is {measured} from the framing face ({limit} or more, or protected by shield plates).',
+      fail: `The duct is {measured} from the framing face, less than {limit}, with no shield plates: a drywall nail or screw can pierce it and catch lint. ${LINT}`,
+      notApplicable: 'The duct is not concealed in framing.',
+    },
+    remedy: 'exhaust.add-shield-plates',
+  },
 ];
+
+/** Every exhaust rule applies only to a vented dryer. */
+export const exhaustRules: RuleDefinition[] = exhaustRuleDefinitions.map(forVentedDryer);

@@ -43,9 +43,16 @@ export interface BuiltRuleSet {
 }
 
 function toStored(definition: RuleDefinition, parameters: RuleSetParameters, override?: RuleOverride): StoredRule {
-  const { citations, ...rest } = definition;
+  const { citations, variants, ...rest } = definition;
   const resolved = resolveCitation(citations, parameters);
   const stored: StoredRule = structuredClone({ ...rest, enabled: true, ...resolved });
+  if (variants) {
+    stored.variants = variants.map((v) => ({
+      when: { ...v.when },
+      ...(v.citations ? resolveCitation(v.citations, parameters) : resolved),
+      ...(v.messages ? { messages: { ...v.messages } } : {}),
+    }));
+  }
   if (override?.enabled !== undefined) stored.enabled = override.enabled;
   if (override?.severity) stored.severity = override.severity;
   if (override?.citation) {

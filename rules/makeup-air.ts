@@ -1,3 +1,4 @@
+import { DUCT_REQUIRED, VENTLESS } from '@/rules/exhaust';
 import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const imc = (section: string, confidence: CitationEntry['confidence'], years: number[]): CitationEntry => ({
@@ -65,7 +66,9 @@ export const makeupAirRules: RuleDefinition[] = [
     area: 'makeup-air',
     severity: 'fail',
     citations: MAKEUP_AIR_CITATIONS,
-    applicability: all('over-threshold', cond('exhaust-over-threshold', 'makeupAir.exhaustCfm', 'greaterThan', param('makeupAir.exhaustCfmThreshold'))),
+    // A ventless dryer exhausts nothing that needs making up.
+    applicability: all('over-threshold', DUCT_REQUIRED, cond('exhaust-over-threshold', 'makeupAir.exhaustCfm', 'greaterThan', param('makeupAir.exhaustCfmThreshold'))),
+    variants: [{ ...VENTLESS, messages: { notApplicable: 'A listed condensing or heat-pump dryer exhausts no air to the outdoors, so there is no exhaust to make up.' } }],
     conditions: all('makeup-provided', cond('makeup-matches-exhaust', 'makeupAir.providedCfm', 'greaterThanInclusive', { fact: 'makeupAir.exhaustCfm' })),
     requires: ['makeupAir.providedCfm', 'makeupAir.exhaustCfm'],
     measured: 'makeupAir.providedCfm',

@@ -137,4 +137,32 @@ export const plumbingRules: RuleDefinition[] = [
     },
     remedy: 'plumbing.leak-shutoff',
   },
+  {
+    key: 'plumbing.condensate-drain',
+    title: 'Ventless dryer condensate drain',
+    area: 'plumbing',
+    severity: 'fail',
+    // Where the maker of a condensing or heat-pump dryer calls for a drain, its instructions bind (IRC M1307.1, TRADE.md S).
+    citations: [manufacturer('S')],
+    applicability: all(
+      'ventless-with-drain',
+      cond('dryer-needs-no-duct', 'exhaust.ductRequired', 'equal', false),
+      cond('maker-calls-for-drain', 'plumbing.condensate', 'equal', 'drain'),
+    ),
+    conditions: all(
+      'drained',
+      cond('drains-to-receptor', 'plumbing.condensateDrainTo', 'notEqual', 'none'),
+      cond('receptor-within-reach', 'plumbing.condensateDrainReachable', 'equal', true),
+    ),
+    requires: ['plumbing.condensateDrainTo', 'plumbing.condensateDrainReachable'],
+    measured: 'plumbing.condensateDrainTo',
+    limit: null,
+    unit: 'text',
+    messages: {
+      pass: 'The dryer’s drain hose reaches a {measured} within the reach its maker allows.',
+      fail: `The dryer’s maker calls for a condensate drain: its hose needs a standpipe, floor drain or indirect-waste receptor within the reach and height the instructions allow (given: {measured}). ${WATER}`,
+      notApplicable: 'No condensate drain: the dryer is vented, or collects its condensate in a reservoir.',
+    },
+    remedy: 'plumbing.condensate-receptor',
+  },
 ];

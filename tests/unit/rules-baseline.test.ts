@@ -72,6 +72,22 @@ const cases: RuleCase[] = [
     pass: (p) => (p.exhaust.boosterFan = { kind: 'booster', listed: true }),
     fail: (p) => (p.exhaust.boosterFan = { kind: 'booster', listed: false }),
   },
+  // IRC M1502.3 (and M1501.1): the duct ends outdoors, never in an attic (TRADE.md S).
+  { key: 'exhaust.termination-location', pass: none, fail: (p) => (p.exhaust.termination.location = 'attic') },
+  // IRC 2018 M1502.3: terminal opening at least 12.5 sq in (TRADE.md S).
+  {
+    key: 'exhaust.terminal-opening',
+    pass: (p) => (p.exhaust.termination.openingArea = '12.5 sq in'),
+    fail: (p) => (p.exhaust.termination.openingArea = '12.4 sq in'),
+  },
+  // IRC 2018 M1502.4.2: supports at most 12 ft apart (TRADE.md S).
+  { key: 'exhaust.support-spacing', pass: (p) => (p.exhaust.supportSpacing = '12 ft'), fail: (p) => (p.exhaust.supportSpacing = `12' 1"`) },
+  // IRC M1502.5: shield plates where the duct is less than 1-1/4 in from the framing face (TRADE.md S).
+  {
+    key: 'exhaust.shield-plates',
+    pass: (p) => Object.assign(p.exhaust, { framingFaceClearance: '1-1/4', shieldPlates: false }),
+    fail: (p) => Object.assign(p.exhaust, { framingFaceClearance: '1-1/8', shieldPlates: false }),
+  },
   // IMC 2018 504.6: closet for a dryer, opening of at least 100 sq in.
   {
     key: 'makeup-air.closet-opening',
@@ -153,6 +169,12 @@ const cases: RuleCase[] = [
   },
   // common practice, no published source: 30 A for a 5000 W (NEC 220.54) dryer.
   { key: 'electrical.dryer-circuit-rating', pass: none, fail: (p) => (p.electrical.receptacles[1].amps = 20) },
+  // NEC 422.31 (from memory, TRADE.md M): a hard-wired dryer needs a disconnecting means.
+  {
+    key: 'electrical.dryer-disconnect',
+    pass: (p) => Object.assign(p.electrical.receptacles[1], { hardWired: true, disconnect: 'lockable-breaker' }),
+    fail: (p) => Object.assign(p.electrical.receptacles[1], { hardWired: true, disconnect: 'none' }),
+  },
   // IPC 802.4 / IRC P2706.2: 18 in to 42 in above the trap weir.
   { key: 'plumbing.standpipe-height', pass: (p) => (p.plumbing.standpipeHeight = '42 in'), fail: (p) => (p.plumbing.standpipeHeight = `3' 7"`) },
   // IRC Table P3201.7 (from memory): 2 in washer trap.
@@ -176,6 +198,12 @@ const cases: RuleCase[] = [
     fail: (p) => (p.plumbing.leakShutoff = false),
   },
   // Manufacturer's instructions (plan's figures): 24 + 24 + three 1-in gaps = 51 in.
+  // Manufacturer's instructions (binding under IRC M1307.1, TRADE.md S): a heat-pump dryer's drain hose to a receptor within its reach.
+  {
+    key: 'plumbing.condensate-drain',
+    pass: (p) => Object.assign(p.dryer, { type: 'heat-pump', condensate: 'drain', condensateDrainTo: 'standpipe', condensateDrainReachable: true }),
+    fail: (p) => Object.assign(p.dryer, { type: 'heat-pump', condensate: 'drain', condensateDrainTo: 'standpipe', condensateDrainReachable: false }),
+  },
   { key: 'clearances.width', pass: (p) => (p.enclosure.width = 52.5), fail: (p) => (p.enclosure.width = 52.4) },
   // Manufacturer's instructions: 24 + 2 + 1 + 4 = 31 in inside; outside adds back panel and door (3/4 in each).
   { key: 'clearances.depth', pass: (p) => (p.enclosure.depth = 32.5), fail: (p) => (p.enclosure.depth = 32.4) },

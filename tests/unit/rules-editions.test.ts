@@ -45,12 +45,14 @@ describe('edition differences', () => {
   });
 
   it('length label: every concealed duct under IRC 2015, only over 35 ft under IRC 2018', async () => {
-    // IRC 2015 M1502.4.6 vs IRC 2018 M1502.4.6 (TRADE.md S).
+    // IRC 2015 M1502.4.5 (numbered before the 2018 power-ventilator section, TRADE.md M) vs IRC 2018 M1502.4.6 (S).
     const plan = variant((p) => (p.exhaust.lengthLabel = false)); // concealed, 22 ft 3 in developed
     const irc2015 = await findingFor('exhaust.length-label', plan, withBuilding('IRC 2015'));
     const irc2018 = await findingFor('exhaust.length-label', plan, withBuilding('IRC 2018'));
     expect(irc2015.status).toBe('fail');
-    expect(irc2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.6' });
+    expect(irc2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.5' });
+    expect(irc2015.confidence).toBe('M');
+    expect(irc2015.citationNote).toBeNull();
     expect(irc2018.status).toBe('not-applicable');
     // IRC 2021 M1502.4.7
     const over = variant((p) => {
@@ -89,6 +91,62 @@ describe('edition differences', () => {
     const unknown = section(withBuilding('IRC 2024'));
     expect(unknown.confidence).toBe('M');
     expect(unknown.citationNote).toMatch(/confirm it in the adopted IRC 2024/);
+  });
+
+  it('IRC 2012/2015 exhaust sections are numbered before the 2018 power-ventilator section', () => {
+    // TRADE.md: 2012/2015 length M1502.4.4.1, maker's length M1502.4.4.2, label M1502.4.5 (2012 S, 2015 M).
+    const rule = (building: string, key: string) => buildRuleSet(withBuilding(building)).rules.find((r) => r.key === key)!;
+    const length2015 = rule('IRC 2015', 'exhaust.developed-length');
+    expect(length2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.4.1' });
+    expect(length2015.confidence).toBe('M');
+    expect(length2015.citationNote).toBeNull();
+    const length2012 = rule('IRC 2012', 'exhaust.developed-length');
+    expect(length2012.citation.section).toBe('M1502.4.4.1');
+    expect(length2012.confidence).toBe('S');
+    const maker2015 = length2015.variants!.find((v) => v.when.equals === 'manufacturer')!;
+    expect(maker2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.4.2' });
+    expect(maker2015.confidence).toBe('M');
+    expect(rule('IRC 2015', 'exhaust.length-label').citation.section).toBe('M1502.4.5');
+    expect(rule('IRC 2012', 'exhaust.length-label').citation.section).toBe('M1502.4.5');
+    // 2018 and 2021 keep their verified numbers: M1502.4.5.1 / M1502.4.6.1 (TRADE.md V), label M1502.4.6 / M1502.4.7 (S).
+    expect(rule('IRC 2018', 'exhaust.developed-length').citation.section).toBe('M1502.4.5.1');
+    expect(rule('IRC 2018', 'exhaust.length-label').citation.section).toBe('M1502.4.6');
+    expect(rule('IRC 2021', 'exhaust.length-label').citation.section).toBe('M1502.4.7');
+    // No power-ventilator section before 2018: the booster-fan rule borrows 2018's number, lowered to M, with a note.
+    const fan2015 = rule('IRC 2015', 'exhaust.booster-fan');
+    expect(fan2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.4' });
+    expect(fan2015.confidence).toBe('M');
+    expect(fan2015.citationNote).toMatch(/taken from IRC 2018; confirm it in the adopted IRC 2015/);
+  });
+
+  it('an edition the catalog does not know is cited from the nearest known one, lowered to M, with a note', () => {
+    const rule = (key: string) => buildRuleSet(withBuilding('IRC 2024')).rules.find((r) => r.key === key)!;
+    const length = rule('exhaust.developed-length');
+    expect(length.citation).toEqual({ code: 'IRC', edition: '2024', section: 'M1502.4.6.1' }); // nearest: IRC 2021
+    expect(length.confidence).toBe('M');
+    expect(length.citationNote).toMatch(/taken from IRC 2021; confirm it in the adopted IRC 2024/);
+    const maker = length.variants!.find((v) => v.when.equals === 'manufacturer')!;
+    expect(maker.citation.section).toBe('M1502.4.6.2');
+    expect(maker.confidence).toBe('M');
+    expect(maker.citationNote).toMatch(/confirm it in the adopted IRC 2024/);
+  });
+
+  it('support spacing from IRC 2015 (12 ft); terminal opening from IRC 2018 (12.5 sq in)', async () => {
+    // IRC M1502.4.2: 12 ft supports, 2015 and later; IRC 2018 M1502.3: 12.5 sq in opening (TRADE.md S).
+    const plan = variant((p) => {
+      p.exhaust.supportSpacing = '13 ft';
+      p.exhaust.termination.openingArea = '10 sq in';
+    });
+    expect((await findingFor('exhaust.support-spacing', plan, withBuilding('IRC 2012'))).status).toBe('not-applicable');
+    const spacing2015 = await findingFor('exhaust.support-spacing', plan, withBuilding('IRC 2015'));
+    expect(spacing2015.status).toBe('fail');
+    expect(spacing2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.2' });
+    expect(spacing2015.remedy).toBe(`Add supports so none are more than 12' 0" apart (the widest gap is 1' 0" too long).`);
+    expect((await findingFor('exhaust.terminal-opening', plan, withBuilding('IRC 2015'))).status).toBe('not-applicable');
+    const opening2021 = await findingFor('exhaust.terminal-opening', plan, EDITIONS_2021);
+    expect(opening2021.status).toBe('fail');
+    expect(opening2021.citation).toEqual({ code: 'IRC', edition: '2021', section: 'M1502.3' });
+    expect(opening2021.limit).toBe(12.5);
   });
 
   it('booster fans: a listed booster passes IRC 2018 but not IRC 2021', async () => {

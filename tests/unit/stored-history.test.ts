@@ -12,9 +12,9 @@ import { demoPlans, hallClosetPassPlan } from '@/tests/fixtures/plans';
 import { check, EDITIONS_2018, finding, variant, type LoosePlan } from './support/check';
 
 /*
- * No stored shape has changed yet, so the production chains hold only the step from version 0
- * ("written before versions were recorded") to 1. The made-up chains below play out the changes
- * to come, a renamed plan field and an added parameter, through the same machinery.
+ * The production chains hold the step from version 0 ("written before versions were recorded") to 1,
+ * and for parameters the exhaust limits added in version 2. The made-up chains below play out other
+ * changes, a renamed plan field and an added parameter, through the same machinery.
  */
 
 function canonical(input: unknown) {
@@ -143,6 +143,27 @@ describe('the production chains', () => {
     expect(readStoredReport({ attachmentIds: ['a'] }, 0)).toEqual({ attachmentIds: ['a'] });
   });
 
+  it('read parameters of version 1 with the exhaust limits version 2 added, at their editions’ model values', () => {
+    const asV1 = (editions: typeof EDITIONS_2018) => {
+      const params = defaultParameters(editions) as LoosePlan;
+      delete params.exhaust.maxSupportSpacingIn;
+      delete params.exhaust.minTerminalOpeningSqIn;
+      delete params.exhaust.shieldPlateMinClearanceIn;
+      return params;
+    };
+    for (const building of ['IRC 2012', 'IRC 2015', 'IRC 2018', 'IRC 2021']) {
+      const editions = { ...EDITIONS_2018, building };
+      const stored = asV1(editions);
+      expect(ruleSetParametersSchema.safeParse(stored).success).toBe(false);
+      expect(ruleSetParametersSchema.parse(upgradeParameters(stored, 1))).toEqual(defaultParameters(editions));
+    }
+    // IRC M1502.4.2: 12 ft from 2015, none before; IRC 2018 M1502.3: 12.5 sq in; IRC M1502.5: 1-1/4 in (TRADE.md S).
+    const irc2012 = upgradeParameters(asV1({ ...EDITIONS_2018, building: 'IRC 2012' }), 1) as LoosePlan;
+    expect(irc2012.exhaust).toMatchObject({ maxSupportSpacingIn: null, minTerminalOpeningSqIn: null, shieldPlateMinClearanceIn: 1.25 });
+    const irc2018 = upgradeParameters(asV1(EDITIONS_2018), 1) as LoosePlan;
+    expect(irc2018.exhaust).toMatchObject({ maxSupportSpacingIn: 144, minTerminalOpeningSqIn: 12.5 });
+  });
+
   it('refuse rows written by a newer build', () => {
     expect(() => upgradePlan(hallClosetPassPlan, PLAN_SCHEMA_VERSION + 1)).toThrow(/Plan was written with schema version/);
     expect(() => upgradeParameters({}, PARAMETERS_SCHEMA_VERSION + 1)).toThrow(/Rule set parameters was written with schema version/);
@@ -157,7 +178,7 @@ describe('a plan field since renamed (made-up chain)', () => {
     expect(before.ok).toBe(false);
     if (!before.ok) expect(before.errors).toContainEqual(expect.objectContaining({ path: 'exhaust.termination.damper' }));
     const upgraded = upgradePlan(stored, 1, renamedDamper) as LoosePlan;
-    expect(upgraded.exhaust.termination).toEqual({ clearanceToOpenings: '4 ft', backdraftDamper: true, screen: false });
+    expect(upgraded.exhaust.termination).toEqual({ ...hallClosetPassPlan.exhaust.termination, backdraftDamper: true });
     expect(canonical(upgraded)).toEqual(canonical(hallClosetPassPlan));
   });
 

@@ -163,6 +163,12 @@ const TEXT_DISPLAY: Record<string, string> = {
   'power-ventilators-only': 'only listed dryer exhaust duct power ventilators',
   'power-ventilator': 'a dryer exhaust duct power ventilator',
   booster: 'a booster fan',
+  'crawl-space': 'crawl space',
+  'other-indoor': 'another indoor space',
+  'floor-drain': 'floor drain',
+  'indirect-receptor': 'indirect-waste receptor',
+  'within-sight': 'a switch or breaker within sight',
+  'lockable-breaker': 'a breaker lockable in the open position',
 };
 
 function display(value: FactValue, unit: FactKind, units: UnitSystem, style: LengthStyle | undefined): string | null {
@@ -212,7 +218,7 @@ const CONFIDENCE_NOTES: Record<Confidence, string> = {
   CP: ' Common practice, not a code requirement.',
 };
 
-function noteFor(rule: StoredRule, jurisdiction: string): string {
+function noteFor(rule: Pick<StoredRule, 'citation' | 'confidence' | 'citationNote'>, jurisdiction: string): string {
   const base = `Checked against ${citationText(rule.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
   return `${base}${CONFIDENCE_NOTES[rule.confidence]}${rule.citationNote ? ` ${rule.citationNote}` : ''}`;
 }
@@ -262,6 +268,73 @@ function needsInfoFinding(base: FindingBase, missing: string[], summary: Evaluat
   return finish(base, 'needs-info', message, null, missing, null);
 }
 
+type Ternary = boolean | null;
+
+function compareLeaf(operator: string, left: FactValue, right: unknown): Ternary {
+  switch (operator) {
+    case 'equal':
+      return left === right;
+    case 'notEqual':
+      return left !== right;
+    case 'in':
+      return Array.isArray(right) ? right.includes(left) : null;
+    case 'notIn':
+      return Array.isArray(right) ? !right.includes(left) : null;
+    case 'lessThan':
+    case 'lessThanInclusive':
+    case 'greaterThan':
+    case 'greaterThanInclusive': {
+      if (typeof left !== 'number' || typeof right !== 'number') return null;
+      if (operator === 'lessThan') return left < right;
+      if (operator === 'lessThanInclusive') return left <= right;
+      if (operator === 'greaterThan') return left > right;
+      return left >= right;
+    }
+    default:
+      return null;
+  }
+}
+
+/**
+ * Three-valued reading of a condition over the known facts: false when the facts at hand already
+ * decide it false, null when it hangs on a missing one. A rule ruled out by what is known (the
+ * exhaust rules for a ventless dryer) is not-applicable, never needs-info for what it would have read.
+ */
+function decide(condition: StoredCondition, facts: Facts, params: RuleSetParameters): Ternary {
+  if ('all' in condition) {
+    let result: Ternary = true;
+    for (const child of condition.all) {
+      const r = decide(child, facts, params);
+      if (r === false) return false;
+      if (r === null) result = null;
+    }
+    return result;
+  }
+  if ('any' in condition) {
+    let result: Ternary = false;
+    for (const child of condition.any) {
+      const r = decide(child, facts, params);
+      if (r === true) return true;
+      if (r === null) result = null;
+    }
+    return result;
+  }
+  if ('not' in condition) {
+    const r = decide(condition.not, facts, params);
+    return r === null ? null : !r;
+  }
+  if (!('fact' in condition)) return null;
+  const left = condition.fact === 'params' ? ((readParam(params, condition.path ?? '') ?? null) as FactValue) : (facts[condition.fact] ?? null);
+  if (condition.fact !== 'params' && left === null) return null;
+  const value = condition.value;
+  let right: unknown = value;
+  if (value !== null && typeof value === 'object' && !Array.isArray(value)) {
+    right = resolveRef(value as ValueRef, facts, params);
+    if (right === null && value.fact !== 'params') return null;
+  }
+  return compareLeaf(condition.operator, left, right);
+}
+
 function missingPaths(facts: string[], values: Facts, missing: Record<string, string[]>): string[] | null {
   const nullFacts = facts.filter((fact) => values[fact] === null || values[fact] === undefined);
   if (nullFacts.length === 0) return null;
@@ -286,13 +359,15 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
   for (const [name, value] of Object.entries(facts)) if (value !== null) engine.addFact(name, value);
 
   const early = new Map<string, string[]>();
+  const ruledOut = new Set<string>();
   const missingRequired = new Map<string, string[]>();
   const pendingMain = new Set<string>();
   for (const entry of compiled.rules) {
     const key = entry.rule.key;
     const missingForApplicability = missingPaths(entry.applicabilityFacts, facts, computed.missing);
     if (missingForApplicability) {
-      early.set(key, missingForApplicability);
+      if (decide(entry.rule.applicability as StoredCondition, facts, parameters) === false) ruledOut.add(key);
+      else early.set(key, missingForApplicability);
       continue;
     }
     if (entry.applicability) engine.addRule(entry.applicability);
@@ -305,13 +380,16 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
   }
 
   const results = new Map<string, RuleResult>();
-  if (pendingMain.size > 0 || compiled.rules.some((r) => r.applicability && !early.has(r.rule.key))) {
+  if (pendingMain.size > 0 || compiled.rules.some((r) => r.applicability && !early.has(r.rule.key) && !ruledOut.has(r.rule.key))) {
     const run = await engine.run();
     for (const result of [...run.results, ...run.failureResults]) results.set(result.name, result);
   }
 
   const summary: EvaluationSummary = { pass: 0, fail: 0, caution: 0, needsInfo: 0, notApplicable: 0 };
   const findings = compiled.rules.map(({ rule }): Finding => {
+    const variant = rule.variants?.find((v) => facts[v.when.fact] === v.when.equals);
+    const cited = variant ?? rule;
+    const messages = variant?.messages ? { ...rule.messages, ...variant.messages } : rule.messages;
     const measured = rule.measured ? (facts[rule.measured] ?? null) : null;
     const limit = resolveLimit(rule.limit, facts, parameters);
     const shown = {
@@ -326,16 +404,16 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       limit,
       unit: rule.unit,
       display: shown,
-      citation: rule.citation,
-      confidence: rule.confidence,
-      citationNote: rule.citationNote,
-      note: noteFor(rule, ruleSet.jurisdiction),
+      citation: cited.citation,
+      confidence: cited.confidence,
+      citationNote: cited.citationNote,
+      note: noteFor(cited, ruleSet.jurisdiction),
     };
     const earlyMissing = early.get(rule.key);
     if (earlyMissing) return needsInfoFinding(base, earlyMissing, summary);
-    if (rule.applicability && results.get(rule.key + APPLIES)?.result !== true) {
+    if (ruledOut.has(rule.key) || (rule.applicability && results.get(rule.key + APPLIES)?.result !== true)) {
       summary.notApplicable += 1;
-      return finish(base, 'not-applicable', rule.messages.notApplicable, null, [], null);
+      return finish(base, 'not-applicable', messages.notApplicable, null, [], null);
     }
     const missing = missingRequired.get(rule.key);
     if (missing) return needsInfoFinding(base, missing, summary);
@@ -343,13 +421,13 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
     const result = results.get(rule.key);
     if (result?.result === true) {
       summary.pass += 1;
-      return finish(base, 'pass', fill(rule.messages.pass, shown.measured, shown.limit), null, [], null);
+      return finish(base, 'pass', fill(messages.pass, shown.measured, shown.limit), null, [], null);
     }
     const failedCondition = result ? failedClause(result.conditions as ConditionResult) : null;
     if (rule.severity === 'fail') summary.fail += 1;
     else summary.caution += 1;
     const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });
-    return finish(base, rule.severity, fill(rule.messages.fail, shown.measured, shown.limit), failedCondition, [], remedy);
+    return finish(base, rule.severity, fill(messages.fail, shown.measured, shown.limit), failedCondition, [], remedy);
   });
 
   return { ruleSet: { jurisdiction: ruleSet.jurisdiction, version: ruleSet.version }, summary, findings, facts };

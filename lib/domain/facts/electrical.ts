@@ -7,7 +7,10 @@ export const electricalFactDefinitions: FactDefinition[] = [
   define('electrical.laundryCircuitDedicated', 'boolean', 'The laundry circuit serves only the laundry area.', ['electrical.laundryCircuit.dedicated']),
   define('electrical.washerReceptacleDistanceIn', 'length', 'Distance from the washer’s receptacle to the washer.', ['electrical.receptacles']),
   define('electrical.dryerReceptacleDistanceIn', 'length', 'Distance from the dryer’s receptacle to the dryer.', ['electrical.receptacles']),
-  define('electrical.receptaclesReachable', 'boolean', 'Every laundry receptacle can be reached with the appliances in place.', ['electrical.receptacles']),
+  define('electrical.receptaclesReachable', 'boolean', 'Every cord-and-plug connection can be reached with the appliances in place.', ['electrical.receptacles']),
+  define('electrical.hasPlugConnections', 'boolean', 'At least one appliance is connected by cord and plug (not hard-wired).', ['electrical.receptacles']),
+  define('electrical.dryerHardWired', 'boolean', 'The dryer is permanently connected, with no cord and plug.', ['electrical.receptacles']),
+  define('electrical.dryerDisconnect', 'text', 'The disconnecting means of a hard-wired dryer.', ['electrical.receptacles'], ['within-sight', 'lockable-breaker', 'none']),
   define('electrical.washerGfciRequired', 'boolean', 'The adopted NEC edition requires GFCI protection of the washer receptacle.', ['electrical.receptacles']),
   define('electrical.washerGfci', 'boolean', 'The washer receptacle has GFCI protection.', ['electrical.receptacles']),
   define('electrical.dryerGfciRequired', 'boolean', 'The adopted NEC edition requires GFCI protection of the dryer receptacle.', ['electrical.receptacles', 'dryer.fuel']),
@@ -26,7 +29,9 @@ function findReceptacle(receptacles: Receptacle[] | undefined, appliance: 'washe
   return { receptacle: index >= 0 ? receptacles?.[index] : undefined, index };
 }
 
-function gfciRequiredFor(volts: number, params: RuleSetParameters): boolean {
+function gfciRequiredFor(volts: number, params: RuleSetParameters, hardWired = false): boolean {
+  // Before NEC 2023 the laundry GFCI rule, 210.8(A), covers receptacles only; 210.8(D) adds hard-wired dryer outlets.
+  if (hardWired && params.electrical.gfciScope !== 'laundry-and-dryer-outlets') return false;
   switch (params.electrical.gfciScope) {
     case 'none':
       return false;
@@ -53,16 +58,22 @@ export function computeElectricalFacts(ctx: FactContext): void {
 
   ctx.fact('electrical.washerReceptacleDistanceIn', field('washer', 'distanceToAppliance'));
   ctx.fact('electrical.dryerReceptacleDistanceIn', field('dryer', 'distanceToAppliance'));
+  // NEC 422.33 is about a plug used as the disconnect: a hard-wired appliance has none to reach.
   ctx.fact('electrical.receptaclesReachable', (need) =>
     need('electrical.receptacles', receptacles && receptacles.length > 0 ? receptacles : undefined).every(
-      (r, index) => need(`electrical.receptacles.${index}.reachableInstalled`, r.reachableInstalled) === true,
+      (r, index) => r.hardWired === true || need(`electrical.receptacles.${index}.reachableInstalled`, r.reachableInstalled) === true,
     ),
   );
+  ctx.fact('electrical.hasPlugConnections', (need) =>
+    need('electrical.receptacles', receptacles && receptacles.length > 0 ? receptacles : undefined).some((r) => r.hardWired !== true),
+  );
+  ctx.fact('electrical.dryerHardWired', (need) => need('electrical.receptacles', findReceptacle(receptacles, 'dryer').receptacle).hardWired === true);
+  ctx.fact('electrical.dryerDisconnect', field('dryer', 'disconnect'));
   ctx.fact('electrical.washerGfciRequired', (need) => gfciRequiredFor(field('washer', 'volts')(need) as number, params));
   ctx.fact('electrical.washerGfci', field('washer', 'gfci'));
   ctx.fact('electrical.dryerGfciRequired', (need) => {
     const volts = field('dryer', 'volts')(need) as number;
-    return gfciRequiredFor(volts, params);
+    return gfciRequiredFor(volts, params, findReceptacle(receptacles, 'dryer').receptacle?.hardWired === true);
   });
   ctx.fact('electrical.dryerGfci', field('dryer', 'gfci'));
 

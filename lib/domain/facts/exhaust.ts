@@ -3,6 +3,7 @@ import type { FittingEquivalentKey, RuleSetParameters } from '@/lib/domain/param
 import { define, nominalSizeIn, type FactContext, type FactDefinition } from '@/lib/domain/facts/context';
 
 export const exhaustFactDefinitions: FactDefinition[] = [
+  define('exhaust.ductRequired', 'boolean', 'The dryer needs an exhaust duct: it is vented (the default), not a listed condensing or heat-pump dryer.', ['dryer.type']),
   define('exhaust.developedLengthIn', 'length', 'Developed length of the exhaust duct: straight runs plus each elbow at its table equivalent; the transition duct not counted.', ['exhaust.run']),
   define('exhaust.allowedLengthIn', 'length', 'Longest developed length allowed: the code maximum, or the maker’s or power ventilator’s maximum where allowed.', ['dryer.maxDuctLength', 'exhaust.boosterFan.maxDuctLength']),
   define('exhaust.allowedLengthSource', 'text', 'Where the allowed length comes from.', ['dryer.maxDuctLength'], ['code', 'manufacturer', 'power-ventilator']),
@@ -21,6 +22,11 @@ export const exhaustFactDefinitions: FactDefinition[] = [
   define('exhaust.terminationClearanceIn', 'length', 'Distance from the terminal to the nearest opening into the building.', ['exhaust.termination.clearanceToOpenings']),
   define('exhaust.backdraftDamper', 'boolean', 'The terminal has a backdraft damper.', ['exhaust.termination.backdraftDamper']),
   define('exhaust.screen', 'boolean', 'The terminal has a screen.', ['exhaust.termination.screen']),
+  define('exhaust.terminationLocation', 'text', 'Where the exhaust duct ends.', ['exhaust.termination.location'], ['outdoors', 'attic', 'crawl-space', 'soffit', 'garage', 'other-indoor']),
+  define('exhaust.terminalOpeningSqIn', 'area', 'Free area of the terminal’s opening.', ['exhaust.termination.openingArea']),
+  define('exhaust.supportSpacingIn', 'length', 'Greatest distance between duct supports.', ['exhaust.supportSpacing']),
+  define('exhaust.framingFaceClearanceIn', 'length', 'Least distance from the concealed duct to the framing face.', ['exhaust.framingFaceClearance']),
+  define('exhaust.shieldPlates', 'boolean', 'Shield plates protect the duct (asked only where it is closer to the framing face than the minimum).', ['exhaust.framingFaceClearance', 'exhaust.shieldPlates']),
   define('exhaust.boosterFanPresent', 'boolean', 'A fan is added to the exhaust duct.', ['exhaust.boosterFan']),
   define('exhaust.boosterFanListed', 'boolean', 'The added fan is listed for dryer exhaust.', ['exhaust.boosterFan.listed']),
   define('exhaust.boosterFanKind', 'text', 'Kind of added fan.', ['exhaust.boosterFan.kind'], ['power-ventilator', 'booster']),
@@ -40,6 +46,9 @@ export function fittingEquivalentIn(item: RunItem, params: RuleSetParameters): n
 export function computeExhaustFacts(ctx: FactContext): void {
   const { plan, params } = ctx;
   const exhaust = plan.exhaust;
+
+  // A dryer whose type is not given is taken as vented, the usual kind.
+  ctx.fact('exhaust.ductRequired', () => (plan.dryer?.type ?? 'vented') === 'vented');
 
   ctx.fact('exhaust.developedLengthIn', (need) => {
     const run = need('exhaust.run', exhaust?.run && exhaust.run.length > 0 ? exhaust.run : undefined);
@@ -95,6 +104,16 @@ export function computeExhaustFacts(ctx: FactContext): void {
   ctx.fact('exhaust.terminationClearanceIn', (need) => need('exhaust.termination.clearanceToOpenings', termination?.clearanceToOpenings));
   ctx.fact('exhaust.backdraftDamper', (need) => need('exhaust.termination.backdraftDamper', termination?.backdraftDamper));
   ctx.fact('exhaust.screen', (need) => need('exhaust.termination.screen', termination?.screen));
+  ctx.fact('exhaust.terminationLocation', (need) => need('exhaust.termination.location', termination?.location));
+  ctx.fact('exhaust.terminalOpeningSqIn', (need) => need('exhaust.termination.openingArea', termination?.openingArea));
+  ctx.fact('exhaust.supportSpacingIn', (need) => need('exhaust.supportSpacing', exhaust?.supportSpacing));
+  ctx.fact('exhaust.framingFaceClearanceIn', (need) => need('exhaust.framingFaceClearance', exhaust?.framingFaceClearance));
+  // Plates are only asked about where the duct is closer to the framing face than the minimum.
+  ctx.fact('exhaust.shieldPlates', (need) => {
+    const clearance = need('exhaust.framingFaceClearance', exhaust?.framingFaceClearance);
+    if (clearance >= params.exhaust.shieldPlateMinClearanceIn) return exhaust?.shieldPlates ?? false;
+    return need('exhaust.shieldPlates', exhaust?.shieldPlates);
+  });
 
   // null means "no fan"; a missing field means the installer has not said.
   ctx.fact('exhaust.boosterFanPresent', (need) => need('exhaust.boosterFan', exhaust?.boosterFan === null ? false : exhaust?.boosterFan) !== false);

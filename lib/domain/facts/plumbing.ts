@@ -11,6 +11,9 @@ export const plumbingFactDefinitions: FactDefinition[] = [
   define('plumbing.hammerArrestors', 'boolean', 'Water-hammer arrestors are installed.', ['plumbing.hammerArrestors']),
   define('plumbing.leakShutoffRequired', 'boolean', 'The jurisdiction requires an automatic leak shut-off here.', ['space.overFinishedSpace']),
   define('plumbing.leakShutoff', 'boolean', 'An automatic leak shut-off is installed.', ['plumbing.leakShutoff']),
+  define('plumbing.condensate', 'text', 'How a ventless dryer disposes of its condensate.', ['dryer.condensate'], ['drain', 'reservoir']),
+  define('plumbing.condensateDrainTo', 'text', 'Where a ventless dryer’s drain hose discharges.', ['dryer.condensateDrainTo'], ['standpipe', 'floor-drain', 'indirect-receptor', 'none']),
+  define('plumbing.condensateDrainReachable', 'boolean', 'The receptor is within the drain hose’s reach per the maker’s instructions.', ['dryer.condensateDrainReachable']),
 ];
 
 type Policy = RuleSetParameters['plumbing']['drainPanPolicy'];
@@ -41,4 +44,11 @@ export function computePlumbingFacts(ctx: FactContext): void {
   ctx.fact('plumbing.hammerArrestors', (need) => need('plumbing.hammerArrestors', plumbing?.hammerArrestors));
   ctx.fact('plumbing.leakShutoffRequired', required(params.plumbing.leakShutoffPolicy));
   ctx.fact('plumbing.leakShutoff', (need) => need('plumbing.leakShutoff', plumbing?.leakShutoff));
+  const dryer = plan.dryer;
+  ctx.fact('plumbing.condensate', (need) => need('dryer.condensate', dryer?.condensate));
+  ctx.fact('plumbing.condensateDrainTo', (need) => need('dryer.condensateDrainTo', dryer?.condensateDrainTo));
+  // A hose led nowhere fails on that alone; its reach is asked only where it goes to a receptor.
+  ctx.fact('plumbing.condensateDrainReachable', (need) =>
+    dryer?.condensateDrainTo === 'none' ? false : need('dryer.condensateDrainReachable', dryer?.condensateDrainReachable),
+  );
 }

@@ -39,6 +39,10 @@ export function defaultParameters(editions: Editions): RuleSetParameters {
       minDuctThicknessIn: exhaustCode.code === 'IRC' && exhaustYear >= 2018 ? 0.0157 : 0.016, // IRC M1502.4.1
       terminationClearanceIn: 3 * FT, // IRC M1502.3; some states delete the clause by amendment
       fastenerMaxProtrusionIn: exhaustYear >= 2015 ? 0.125 : 0, // IRC M1502.4.2 (2015+); earlier: none
+      // IRC M1502.4.2: supports every 12 ft from 2015; the IMC asks for every 4 ft.
+      maxSupportSpacingIn: exhaustCode.code === 'IRC' ? (exhaustYear >= 2015 ? 12 * FT : null) : 4 * FT,
+      minTerminalOpeningSqIn: exhaustCode.code === 'IRC' && exhaustYear >= 2018 ? 12.5 : null, // IRC 2018 M1502.3
+      shieldPlateMinClearanceIn: 1.25, // IRC M1502.5
       boosterFanPolicy: exhaustYear >= 2021 ? 'power-ventilators-only' : 'listed-fans', // IRC 2021 M1502.4.5
     },
     makeupAir: {

@@ -46,6 +46,9 @@ export const ruleSetParametersSchema = z
         minDuctThicknessIn: inches('Minimum wall thickness of a rigid metal exhaust duct'),
         terminationClearanceIn: inches('Minimum distance from the terminal to openings into the building; null where deleted by amendment').nullable(),
         fastenerMaxProtrusionIn: inches('How far a fastener may stand into the duct; 0 means no fastener may penetrate'),
+        maxSupportSpacingIn: inches('Greatest distance between exhaust duct supports; null where the adopted code sets none').nullable(),
+        minTerminalOpeningSqIn: sqIn("Least free area of the terminal's opening; null where the adopted code sets none").nullable(),
+        shieldPlateMinClearanceIn: inches('Distance from the framing face below which a concealed duct needs steel shield plates'),
         boosterFanPolicy: z
           .enum(['listed-fans', 'power-ventilators-only'])
           .describe('Which fans may be added to the exhaust: any listed fan, or only listed dryer exhaust duct power ventilators.'),

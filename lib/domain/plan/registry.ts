@@ -140,6 +140,11 @@ export const fittingKinds = ['mitered', 'smooth-6in', 'smooth-8in', 'smooth-10in
 export const ductMaterials = ['rigid-metal', 'semi-rigid-metal', 'flexible-foil', 'flexible-vinyl', 'other'] as const;
 export const drainDestinations = ['indirect-waste', 'floor-drain', 'standpipe', 'none'] as const;
 export const doorKinds = ['hinged', 'bifold', 'sliding'] as const;
+export const dryerTypes = ['vented', 'condensing', 'heat-pump'] as const;
+export const condensateHandling = ['drain', 'reservoir'] as const;
+export const condensateReceptors = ['standpipe', 'floor-drain', 'indirect-receptor', 'none'] as const;
+export const terminationLocations = ['outdoors', 'attic', 'crawl-space', 'soffit', 'garage', 'other-indoor'] as const;
+export const disconnectMeans = ['within-sight', 'lockable-breaker', 'none'] as const;
 const arrangements = ['side-by-side', 'stacked'] as const;
 
 const clearances = {
@@ -253,6 +258,32 @@ export const planRegistry = {
       help: 'The clothes dryer.',
       fields: {
         fuel: { kind: 'choice', label: 'Fuel', help: 'Fuel of the dryer.', choices: ['electric', 'gas'] },
+        type: {
+          kind: 'choice',
+          label: 'Dryer type',
+          help: 'Vented (exhausts outdoors, the default when not given), or a listed condensing or heat-pump dryer that needs no exhaust duct.',
+          choices: dryerTypes,
+          choiceLabels: { vented: 'vented (exhaust duct)', condensing: 'condensing (ventless)', 'heat-pump': 'heat pump (ventless)' },
+        },
+        condensate: {
+          kind: 'choice',
+          label: 'Condensate',
+          help: 'How a ventless dryer gets rid of the water it condenses: a drain hose, or a reservoir emptied by hand, as its maker provides.',
+          choices: condensateHandling,
+          choiceLabels: { drain: 'drain hose', reservoir: 'reservoir emptied by hand' },
+        },
+        condensateDrainTo: {
+          kind: 'choice',
+          label: 'Condensate drains to',
+          help: "Where the ventless dryer's drain hose discharges.",
+          choices: condensateReceptors,
+          choiceLabels: words(condensateReceptors),
+        },
+        condensateDrainReachable: {
+          kind: 'boolean',
+          label: 'Receptor within the drain hose’s reach',
+          help: "The standpipe or receptor is within the reach and height the dryer maker's instructions allow for the drain hose.",
+        },
         ...applianceFields,
         exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.' },
         maxDuctLength: {
@@ -327,13 +358,37 @@ export const planRegistry = {
           help: 'Depth of the wall or ceiling cavity the duct runs in (e.g. 5-1/2 in for 2x6 studs).',
           hint: '2×4 wall 3-1/2 in, 2×6 5-1/2 in.',
         },
+        supportSpacing: {
+          kind: 'length',
+          label: 'Support spacing',
+          help: 'Greatest distance between supports of the exhaust duct.',
+        },
+        framingFaceClearance: {
+          kind: 'length',
+          label: 'Duct to framing face',
+          help: 'Least distance from the concealed duct to the face of the framing members it passes through (where drywall nails or screws go in).',
+          hint: 'Under 1-1/4 in needs steel shield plates.',
+        },
+        shieldPlates: {
+          kind: 'boolean',
+          label: 'Shield plates installed',
+          help: 'Steel shield plates protect the duct where it is close to the framing face.',
+        },
         lengthLabel: { kind: 'boolean', label: 'Length label installed', help: 'A permanent label giving the concealed duct length is within 6 ft of the connection.' },
         fastenersIntoAirstream: { kind: 'boolean', label: 'Fasteners into the airstream', help: 'Screws or other fasteners pass through the duct wall into the airstream.' },
         fastenerProtrusion: { kind: 'length', label: 'Fastener protrusion', help: 'How far the longest fastener stands into the duct.' },
         termination: {
           kind: 'group',
-          help: 'The exhaust terminal outdoors.',
+          help: 'The end of the exhaust duct: its terminal.',
           fields: {
+            location: {
+              kind: 'choice',
+              label: 'Duct ends',
+              help: 'Where the exhaust duct ends: outdoors, or inside the building (attic, crawl space, soffit, garage or another indoor space).',
+              choices: terminationLocations,
+              choiceLabels: words(terminationLocations),
+            },
+            openingArea: { kind: 'area', label: 'Terminal opening area', help: 'Free area of the terminal’s opening.' },
             clearanceToOpenings: { kind: 'length', label: 'Terminal to nearest opening', help: 'Distance from the terminal to the nearest door, window or other opening.' },
             backdraftDamper: { kind: 'boolean', label: 'Backdraft damper', help: 'The terminal has a backdraft damper.' },
             screen: { kind: 'boolean', label: 'Screen on the terminal', help: 'The terminal has a screen over its opening.' },
@@ -415,6 +470,18 @@ export const planRegistry = {
               afci: { kind: 'boolean', label: 'AFCI protected', help: 'Arc-fault circuit-interrupter protection is provided.' },
               distanceToAppliance: { kind: 'length', label: 'Distance to appliance', help: "Distance from the receptacle to the appliance's intended location." },
               reachableInstalled: { kind: 'boolean', label: 'Plug reachable with appliance in place', help: 'The plug can be reached without moving the appliance.' },
+              hardWired: {
+                kind: 'boolean',
+                label: 'Hard-wired (no plug)',
+                help: 'The appliance is permanently connected to this outlet, with no cord and plug.',
+              },
+              disconnect: {
+                kind: 'choice',
+                label: 'Disconnecting means',
+                help: 'For a hard-wired appliance: a switch or breaker within sight, a breaker that locks open, or none.',
+                choices: disconnectMeans,
+                choiceLabels: { 'within-sight': 'switch or breaker within sight', 'lockable-breaker': 'breaker lockable in the open position', none: 'none' },
+              },
               existingCircuit: { kind: 'boolean', label: 'Existing circuit', help: 'The receptacle is on an existing circuit, not new work.' },
             },
           },

@@ -150,6 +150,16 @@ export const remedies: Record<string, Remedy> = {
   'exhaust.move-termination': byLength((d) => `Move the terminal ${d} further from the opening, or check the dryer maker's instructions for their clearance.`, 'increase'),
   'exhaust.add-damper': fixed('Fit a terminal with a backdraft damper.'),
   'exhaust.remove-screen': fixed('Remove the screen, or use a terminal without one.'),
+  'exhaust.terminate-outdoors': fixed('Extend the duct to a terminal outdoors, with a backdraft damper and no screen; never end it in an attic, soffit, crawl space, garage or other indoor space.'),
+  'exhaust.larger-terminal': (ctx) => {
+    const short = shortfall(ctx);
+    const limit = num(ctx.limit);
+    return short !== null && short > 0 && limit !== null
+      ? `Use a terminal whose opening is at least ${area(ctx, limit)} (this one is ${area(ctx, short)} short).`
+      : null;
+  },
+  'exhaust.add-supports': byLength((d, ctx) => `Add supports so none are more than ${length(ctx, num(ctx.limit) ?? 0)} apart (the widest gap is ${d} too long).`, 'decrease'),
+  'exhaust.add-shield-plates': fixed('Fit steel shield plates at least 0.062 in thick over the duct where it is closer than 1-1/4 in to the framing face, extending 2 in above sole plates and below top plates; or move the duct back from the face.'),
   'exhaust.listed-power-ventilator': fixed('Replace the fan with a dryer exhaust duct power ventilator listed for the purpose, installed per its listing; or shorten the route so no fan is needed.'),
   'makeup-air.add-opening': (ctx) => {
     const s = shortfall(ctx);
@@ -172,10 +182,12 @@ export const remedies: Record<string, Remedy> = {
   'electrical.receptacle-access': fixed('Place the receptacle where the plug can be reached with the appliance in place, e.g. beside the units rather than behind them.'),
   'electrical.add-gfci': fixed('Add GFCI protection (a GFCI breaker or device ahead of the receptacle).'),
   'electrical.add-afci': fixed('Add AFCI protection to the 120-V laundry circuit.'),
+  'electrical.add-disconnect': fixed('Provide a disconnecting means for the hard-wired dryer: a switch or breaker within sight of it, or a breaker that can be locked in the open position.'),
   'electrical.four-wire': fixed('Run a 4-wire circuit (two hots, neutral and equipment ground) to a 4-wire dryer receptacle.'),
   'electrical.dryer-circuit': (ctx) => `Size the dryer circuit to the nameplate; ${num(ctx.limit) ?? 30} A is usual for an electric dryer.`,
   'plumbing.standpipe-height': standpipe,
   'plumbing.trap-size': (ctx) => `Use a trap of at least ${smallLength(ctx, num(ctx.limit) ?? 2)} for the washer.`,
+  'plumbing.condensate-receptor': fixed('Lead the dryer’s drain hose to a standpipe, floor drain or indirect-waste receptor within the reach and height its maker allows (the washer standpipe often serves), or use the dryer’s reservoir where its maker provides one.'),
   'plumbing.drain-pan': fixed('Set the washer in a drain pan piped to an indirect-waste receptor or floor drain, as the local amendment describes.'),
   'plumbing.valve-access': fixed('Put the supply valves where they can be reached with the appliances in place, e.g. in a recessed washer box above the units.'),
   'plumbing.hammer-arrestors': fixed('Fit water-hammer arrestors at the washer supply valves.'),

@@ -40,6 +40,25 @@ export interface Messages {
   notApplicable: string;
 }
 
+/**
+ * A citation and wording that replace the rule's own for a plan where a text fact has the given value
+ * (the developed length checked against the dryer maker's maximum cites the maker's-length clause).
+ */
+export interface CitationVariant {
+  when: { fact: string; equals: string | boolean };
+  /** Omitted: the rule's own citation stands and only the wording changes. */
+  citations?: CitationEntry[];
+  messages?: Partial<Messages>;
+}
+
+export interface StoredCitationVariant {
+  when: { fact: string; equals: string | boolean };
+  citation: Citation;
+  confidence: Confidence;
+  citationNote: string | null;
+  messages?: Partial<Messages>;
+}
+
 /** A baseline rule: its conditions plus the citation for each edition it knows. */
 export interface RuleDefinition {
   key: string;
@@ -59,15 +78,18 @@ export interface RuleDefinition {
   lengthStyle?: LengthStyle;
   messages: Messages;
   remedy: string | null;
+  variants?: CitationVariant[];
 }
 
 /** The rule as a published rule set version stores it, citation resolved to the adopted edition. */
-export interface StoredRule extends Omit<RuleDefinition, 'citations'> {
+export interface StoredRule extends Omit<RuleDefinition, 'citations' | 'variants'> {
   enabled: boolean;
   citation: Citation;
   confidence: Confidence;
   /** Set when the section number could not be matched to the adopted edition exactly. */
   citationNote: string | null;
+  /** Citations resolved per plan: the first whose fact has the value replaces the rule's own. */
+  variants?: StoredCitationVariant[];
 }
 
 export const param = (path: string) => ({ fact: 'params', path: `$.${path}` });

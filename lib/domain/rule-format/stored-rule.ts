@@ -76,6 +76,21 @@ export const storedRuleSchema = z
       .strict()
       .describe('Message templates; {measured} and {limit} are replaced with display values.'),
     remedy: z.string().nullable().describe('Remedy key.'),
+    variants: z
+      .array(
+        z
+          .object({
+            when: z.object({ fact: z.string().min(1), equals: z.union([z.string().min(1), z.boolean()]) }).strict(),
+            citation: z.object({ code: z.string().min(1), edition: z.string().nullable(), section: z.string().nullable() }).strict(),
+            confidence: z.enum(['V', 'S', 'M', 'CP']),
+            citationNote: z.string().nullable(),
+            messages: z.object({ pass: z.string(), fail: z.string(), notApplicable: z.string() }).partial().strict().optional(),
+          })
+          .strict(),
+      )
+      .max(8)
+      .optional()
+      .describe('Citations and wording used instead of the rule’s own where a text fact has the given value.'),
   })
   .strict();
 
@@ -172,6 +187,9 @@ export function validateRuleAgainstCatalog(rule: unknown): FieldError[] {
       errors.push({ path: 'requires', message: `The conditions read '${fact}'; list it in requires so a missing value gives needs-info.` });
     }
   }
+  stored.variants?.forEach((variant, i) => {
+    if (!factsByName.has(variant.when.fact)) errors.push({ path: `variants.${i}.when.fact`, message: `Unknown fact '${variant.when.fact}'.` });
+  });
   if (stored.measured !== null && !factsByName.has(stored.measured)) {
     errors.push({ path: 'measured', message: `Unknown fact '${stored.measured}'.` });
   }
