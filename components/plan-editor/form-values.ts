@@ -1,5 +1,5 @@
 // Converts between a saved plan (as the installer entered it) and the editor's string-valued form.
-import { editorSections, followingGroups, type EditorField, type PlanInput } from '@/lib/domain/plan';
+import { conditionsAt, editorSections, fieldApplies, followingGroups, type EditorField, type PlanInput } from '@/lib/domain/plan';
 
 // The form holds one string per field, and arrays of those for lists, under the plan's own paths.
 export type FormValues = Record<string, any>;
@@ -108,8 +108,43 @@ function prune(obj: any): any {
   return obj;
 }
 
-/** The plan the editor's values describe; blank fields are left out (they become needs-info findings). */
+/** Whether the editor shows a field (or list) at `concretePath` for this plan: it applies, or has no conditions. */
+export function isShown(spec: { appliesPath?: string }, plan: unknown, concretePath: string): boolean {
+  return !spec.appliesPath || fieldApplies(plan, concretePath);
+}
+
+/** Removes, depth first, every value whose field does not apply to the plan (the editor hides those fields). */
+function dropInapplicable(plan: any): boolean {
+  let changed = false;
+  const visit = (node: any, path: string) => {
+    if (!node || typeof node !== 'object') return;
+    for (const key of Object.keys(node)) {
+      const childPath = path ? `${path}.${key}` : key;
+      if (conditionsAt(childPath).length > 0 && !fieldApplies(plan, childPath)) {
+        if (Array.isArray(node)) continue;
+        delete node[key];
+        changed = true;
+      } else {
+        visit(node[key], childPath);
+      }
+    }
+  };
+  visit(plan, '');
+  return changed;
+}
+
+/**
+ * The plan the editor's values describe; blank fields are left out (they become needs-info findings), and so
+ * are fields hidden because they do not apply (an earlier answer changed): the editor never saves what it hides.
+ */
 export function formToPlan(values: FormValues): PlanInput {
+  const plan = formToPlanAsShown(values);
+  // A field hidden by another hidden field's value: repeat until nothing changes (conditions are shallow).
+  for (let i = 0; i < 5 && dropInapplicable(plan); i++);
+  return plan;
+}
+
+function formToPlanAsShown(values: FormValues): PlanInput {
   const plan: any = {};
   for (const section of editorSections) {
     for (const f of section.fields) {

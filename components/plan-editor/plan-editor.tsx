@@ -7,7 +7,7 @@ import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import type { RuleSetParameters } from '@/lib/domain/params';
 import { editorSections, entryAt, parsePlan, type EditorList, type PlanInput } from '@/lib/domain/plan';
 import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
-import { formToPlan, planToForm, type FormValues } from '@/components/plan-editor/form-values';
+import { formToPlan, isShown, planToForm, type FormValues } from '@/components/plan-editor/form-values';
 import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import type { FieldError } from '@/lib/domain/errors';
@@ -40,7 +40,7 @@ const planResolver: Resolver<FormValues> = async (values) => {
   return { values: {}, errors: toFormErrors(parsed.errors) };
 };
 
-function ListEditor({ list }: { list: EditorList }) {
+function ListEditor({ list, plan }: { list: EditorList; plan: PlanInput }) {
   const { control } = useFormContext();
   const { fields, append, remove } = useFieldArray({ control, name: list.path });
   const full = fields.length >= list.max;
@@ -57,9 +57,10 @@ function ListEditor({ list }: { list: EditorList }) {
               <button type="button" className="btn-danger px-2 py-1 text-xs" onClick={() => remove(i)}>Remove {list.itemLabel.toLowerCase()} {i + 1}</button>
             </div>
             <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
-              {list.fields.map((spec) => (
-                <PlanField key={spec.path} spec={spec} name={`${list.path}.${i}.${spec.path}`} />
-              ))}
+              {list.fields.map((spec) => {
+                const name = `${list.path}.${i}.${spec.path}`;
+                return isShown(spec, plan, name) ? <PlanField key={spec.path} spec={spec} name={name} /> : null;
+              })}
             </div>
           </li>
         ))}
@@ -76,24 +77,29 @@ function getPath(values: FormValues, path: string): unknown {
 
 function Sections({ params }: { params: RuleSetParameters }) {
   const values = useWatch() as FormValues;
+  // Fields that do not apply to the plan as it stands (gas details for an electric dryer) are not shown.
+  const plan = formToPlan(values);
   return (
     <>
       {editorSections.map((section) => {
         if (section.shownWhen && getPath(values, section.shownWhen.path) !== section.shownWhen.equals) return null;
+        const fields = section.fields.filter((spec) => isShown(spec, plan, spec.appliesPath ?? spec.path));
+        const lists = section.lists.filter((list) => isShown(list, plan, list.path));
+        if (fields.length === 0 && lists.length === 0) return null;
         return (
           <section key={section.id} id={`section-${section.id}`} aria-labelledby={`h-${section.id}`} className="card p-5">
             <h2 id={`h-${section.id}`} className="text-lg font-bold">{section.title}</h2>
             {section.intro && <p className="mt-1 text-sm text-ink-soft">{section.intro}</p>}
-            {section.fields.length > 0 && (
+            {fields.length > 0 && (
               <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-                {section.fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
+                {fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
               </div>
             )}
-            {section.lists.map((list) =>
+            {lists.map((list) =>
               list.bespoke === 'exhaust-route-builder' ? (
                 <div key={list.path} className="mt-5"><ExhaustRouteBuilder list={list} params={params} /></div>
               ) : (
-                <ListEditor key={list.path} list={list} />
+                <ListEditor key={list.path} list={list} plan={plan} />
               ),
             )}
           </section>

@@ -1,5 +1,6 @@
 // The plan editor's sections and fields, read off the registry: one renderer and one converter serve them all.
 import {
+  conditionsAt,
   planSections,
   registryEntries,
   type GroupEntry,
@@ -26,6 +27,11 @@ export interface EditorField {
   noneWord?: string;
   /** For a choice that also answers "none" for its group: that group's path (relative, like `path`). */
   noneOfGroup?: string;
+  /**
+   * Shown only when the plan field at this pattern applies (`fieldApplies`, list items as `*`); set only for
+   * fields with conditions of their own or on a group holding them.
+   */
+  appliesPath?: string;
 }
 
 export interface EditorList {
@@ -39,6 +45,8 @@ export interface EditorList {
   noun: string;
   /** Shown by its own component rather than the generic list editor. */
   bespoke?: ListEntry['bespoke'];
+  /** Shown only when the list applies (see `EditorField.appliesPath`). */
+  appliesPath?: string;
 }
 
 /** A group whose presence follows another field's answer (a gas supply follows a gas dryer). */
@@ -58,6 +66,9 @@ export interface EditorSection {
 }
 
 const join = (prefix: string, key: string) => (prefix ? `${prefix}.${key}` : key);
+
+/** `{ appliesPath }` when the field at this registry pattern has conditions, else nothing. */
+const appliesOf = (pattern: string) => (conditionsAt(pattern).length > 0 ? { appliesPath: pattern } : {});
 
 function leafField(entry: Exclude<PlanEntry, GroupEntry>, path: string): EditorField[] {
   const base = { path, label: entry.label ?? path, ...(entry.hint ? { hint: entry.hint } : {}) };
@@ -80,14 +91,17 @@ function leafField(entry: Exclude<PlanEntry, GroupEntry>, path: string): EditorF
 }
 
 /** The fields of a group, in registry order; a group's presence question comes before its own fields. */
-function groupFields(group: GroupEntry, prefix: string, out: EditorField[], lists: EditorList[] | null) {
+function groupFields(group: GroupEntry, prefix: string, out: EditorField[], lists: EditorList[] | null, base = '') {
   for (const [key, entry] of Object.entries(group.fields)) {
     const path = join(prefix, key);
+    const pattern = join(base, path);
     if (entry.kind === 'group') {
       const none = entry.none;
-      if (none?.ask) out.push({ path: `_has.${path.replace(/\./g, '_')}`, label: none.ask, kind: 'presence', group: path });
+      if (none?.ask) {
+        out.push({ path: `_has.${path.replace(/\./g, '_')}`, label: none.ask, kind: 'presence', group: path, ...appliesOf(pattern) });
+      }
       const start = out.length;
-      groupFields(entry, path, out, lists);
+      groupFields(entry, path, out, lists, base);
       if (none?.choiceOf) {
         const i = out.findIndex((f, index) => index >= start && f.path === join(path, none.choiceOf!));
         const field = out[i];
@@ -101,15 +115,15 @@ function groupFields(group: GroupEntry, prefix: string, out: EditorField[], list
     } else if (entry.kind === 'list' && lists) {
       lists.push(editorList(entry, path));
     } else {
-      out.push(...leafField(entry, path));
+      out.push(...leafField(entry, path).map((f) => ({ ...f, ...appliesOf(pattern) })));
     }
   }
 }
 
 function editorList(entry: ListEntry, path: string): EditorList {
   const fields: EditorField[] = [];
-  if (entry.item.kind === 'group') groupFields(entry.item, '', fields, null);
-  else fields.push(...leafField(entry.item, ''));
+  if (entry.item.kind === 'group') groupFields(entry.item, '', fields, null, `${path}.*`);
+  else fields.push(...leafField(entry.item, '').map((f) => ({ ...f, ...appliesOf(`${path}.*`) })));
   return {
     path,
     label: entry.label ?? path,
@@ -119,6 +133,7 @@ function editorList(entry: ListEntry, path: string): EditorList {
     max: entry.max,
     noun: entry.noun,
     ...(entry.bespoke ? { bespoke: entry.bespoke } : {}),
+    ...appliesOf(path),
   };
 }
 
@@ -136,7 +151,7 @@ function buildSections(): EditorSection[] {
       } else if (entry.kind === 'list') {
         lists.push(editorList(entry, path));
       } else {
-        fields.push(...leafField(entry, path));
+        fields.push(...leafField(entry, path).map((f) => ({ ...f, ...appliesOf(path) })));
       }
     }
     return {

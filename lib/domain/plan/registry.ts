@@ -60,7 +60,25 @@ export interface NoneAnswer {
   follows?: { path: string; present: string; absent: string };
 }
 
+/** A value a condition compares a plan field with. */
+export type AppliesValue = string | number | boolean;
+
+/**
+ * When a field (or a whole group or list) applies to a plan: a condition over other fields of the plan, as
+ * entered. `equals`/`in` hold only when the field has one of the values; `notIn` also holds while the field is
+ * blank (use it for a default: `{ path: 'dryer.type', notIn: ['condensing'] }` reads "vented unless told
+ * otherwise"). A `*` in a path stands for the same list item as the field's own (`electrical.receptacles.*.serves`).
+ */
+export type Applies =
+  | { path: string; equals: AppliesValue }
+  | { path: string; in: readonly AppliesValue[] }
+  | { path: string; notIn: readonly AppliesValue[] }
+  | { all: readonly Applies[] }
+  | { any: readonly Applies[] };
+
 interface Entry {
+  /** Shown in the editor only while this holds; its own and its ancestors' conditions must all hold. */
+  applies?: Applies;
   /** The editor's label (short: the section names the context). */
   label?: string;
   /** Help text: the JSON Schema description and the API documentation. */
@@ -146,6 +164,10 @@ export const condensateReceptors = ['standpipe', 'floor-drain', 'indirect-recept
 export const terminationLocations = ['outdoors', 'attic', 'crawl-space', 'soffit', 'garage', 'other-indoor'] as const;
 export const disconnectMeans = ['within-sight', 'lockable-breaker', 'none'] as const;
 const arrangements = ['side-by-side', 'stacked'] as const;
+export const buildingTypes = ['dwelling', 'other'] as const;
+
+/** Applies to a plan with a gas dryer. */
+const gasDryer = { path: 'dryer.fuel', equals: 'gas' } as const;
 
 const clearances = {
   kind: 'group',
@@ -208,6 +230,30 @@ export const planRegistry = {
         kind: { kind: 'choice', label: 'Kind of space', help: 'The kind of space the appliances stand in.', choices: spaceKinds, choiceLabels: words(spaceKinds) },
         opensInto: { kind: 'choice', label: 'Opens into', help: 'The room the space opens into.', choices: adjoiningRooms, choiceLabels: words(adjoiningRooms) },
         overFinishedSpace: { kind: 'boolean', label: 'Finished living space below', help: 'There is finished living space below the appliances.' },
+        buildingType: {
+          kind: 'choice',
+          label: 'Building',
+          help: 'The kind of building: a one- or two-family dwelling or townhouse (the default), or any other building. It decides which adopted code the findings cite.',
+          choices: buildingTypes,
+          choiceLabels: { dwelling: 'one- or two-family dwelling or townhouse', other: 'other building' },
+        },
+        dedicatedToLaundry: {
+          kind: 'boolean',
+          label: 'Space used only for the appliances',
+          help: 'The space holds the laundry appliances and is used for no other purpose (no clothes or other storage).',
+          hint: 'A walk-in clothes closet is used for storage, so it never counts.',
+          applies: gasDryer,
+        },
+        door: {
+          kind: 'group',
+          help: 'The door between the space and the room it opens into.',
+          applies: gasDryer,
+          fields: {
+            solid: { kind: 'boolean', label: 'Solid door', help: 'The door is solid (no louvres or grilles).' },
+            weatherStripped: { kind: 'boolean', label: 'Door weather-stripped', help: 'The door is weather-stripped all round.' },
+            selfClosing: { kind: 'boolean', label: 'Door self-closing', help: 'The door has an approved self-closing device.' },
+          },
+        },
       },
     },
     arrangement: {
@@ -518,6 +564,11 @@ export const planRegistry = {
         shutoffDistance: { kind: 'length', label: 'Shut-off valve to dryer', help: 'Distance from the gas shut-off valve to the dryer.' },
         shutoffSameRoom: { kind: 'boolean', label: 'Shut-off in the same room', help: 'The shut-off valve is in the same room as the dryer.' },
         connectorLength: { kind: 'length', label: 'Appliance connector length', help: 'Length of the appliance connector to the dryer.' },
+        combustionAirFromOutdoors: {
+          kind: 'boolean',
+          label: 'All combustion air from outdoors',
+          help: 'All combustion air for the dryer is taken from outdoors.',
+        },
       },
     },
     doors: {
@@ -632,3 +683,59 @@ export const PLAN_LIST_LIMITS: ReadonlyArray<{ path: PlanListPath; max: number; 
   const entry = e.entry as ListEntry;
   return { path: e.path as PlanListPath, max: entry.max, noun: entry.noun };
 });
+
+function valueAt(plan: unknown, path: string): unknown {
+  return path.split('.').reduce<unknown>((o, k) => (o == null || typeof o !== 'object' ? undefined : (o as Record<string, unknown>)[k]), plan);
+}
+
+/** Binds each `*` of a condition's path to the list index at the same place in the field's concrete path. */
+function bindPath(conditionPath: string, concretePath: string): string {
+  const indices = concretePath.split('.').filter((part) => /^\d+$/.test(part));
+  let i = 0;
+  return conditionPath
+    .split('.')
+    .map((part) => (part === '*' ? (indices[i++] ?? '*') : part))
+    .join('.');
+}
+
+/** Whether a condition holds for a plan (as entered or canonical), seen from the field at `concretePath`. */
+export function conditionHolds(applies: Applies, plan: unknown, concretePath = ''): boolean {
+  if ('all' in applies) return applies.all.every((c) => conditionHolds(c, plan, concretePath));
+  if ('any' in applies) return applies.any.some((c) => conditionHolds(c, plan, concretePath));
+  const value = valueAt(plan, bindPath(applies.path, concretePath));
+  if ('equals' in applies) return value === applies.equals;
+  if ('in' in applies) return applies.in.includes(value as AppliesValue);
+  return value === undefined || value === null || value === '' || !applies.notIn.includes(value as AppliesValue);
+}
+
+/** The conditions on a field: its own and its ancestors', outermost first. */
+export function conditionsAt(path: string): Applies[] {
+  const parts = patternOf(path).split('.');
+  const out: Applies[] = [];
+  for (let i = 1; i <= parts.length; i++) {
+    const applies = byPattern.get(parts.slice(0, i).join('.'))?.entry.applies;
+    if (applies) out.push(applies);
+  }
+  return out;
+}
+
+/**
+ * Whether the field at a concrete path (`doors.0.width`, `gas.combustionAirFromOutdoors`) applies to a plan:
+ * every condition on it and on the groups and lists holding it holds. A field without conditions always applies.
+ */
+export function fieldApplies(plan: unknown, path: string): boolean {
+  return conditionsAt(path).every((c) => conditionHolds(c, plan, path));
+}
+
+function conditionPaths(applies: Applies): string[] {
+  if ('all' in applies) return applies.all.flatMap(conditionPaths);
+  if ('any' in applies) return applies.any.flatMap(conditionPaths);
+  return [applies.path];
+}
+
+// A condition naming a field the plan does not have would silently hide its field for ever: refuse it at load.
+for (const { path, entry } of registryEntries) {
+  for (const target of entry.applies ? conditionPaths(entry.applies) : []) {
+    if (!byPattern.has(target)) throw new Error(`The plan field ${path} applies on ${target}, which the plan does not have.`);
+  }
+}
