@@ -168,6 +168,20 @@ export const buildingTypes = ['dwelling', 'other'] as const;
 
 /** Applies to a plan with a gas dryer. */
 const gasDryer = { path: 'dryer.fuel', equals: 'gas' } as const;
+/** Applies to a vented dryer: the default while the type is blank. */
+const ventedDryer = { path: 'dryer.type', notIn: ['condensing', 'heat-pump'] } as const;
+/** Applies to a listed condensing or heat-pump dryer. */
+const ventlessDryer = { path: 'dryer.type', in: ['condensing', 'heat-pump'] } as const;
+const condensateDrained = { all: [ventlessDryer, { path: 'dryer.condensate', equals: 'drain' }] } as const;
+const ductConcealed = { path: 'exhaust.concealed', equals: true } as const;
+const dryerOutlet = { path: 'electrical.receptacles.*.serves', equals: 'dryer' } as const;
+/** A cord-and-plug entry: only a dryer's entry may be hard-wired. */
+const notHardWired = {
+  any: [
+    { path: 'electrical.receptacles.*.serves', notIn: ['dryer'] },
+    { path: 'electrical.receptacles.*.hardWired', notIn: [true] },
+  ],
+} as const;
 
 const clearances = {
   kind: 'group',
@@ -315,6 +329,7 @@ export const planRegistry = {
           kind: 'choice',
           label: 'Condensate',
           help: 'How a ventless dryer gets rid of the water it condenses: a drain hose, or a reservoir emptied by hand, as its maker provides.',
+          applies: ventlessDryer,
           choices: condensateHandling,
           choiceLabels: { drain: 'drain hose', reservoir: 'reservoir emptied by hand' },
         },
@@ -322,6 +337,7 @@ export const planRegistry = {
           kind: 'choice',
           label: 'Condensate drains to',
           help: "Where the ventless dryer's drain hose discharges.",
+          applies: condensateDrained,
           choices: condensateReceptors,
           choiceLabels: words(condensateReceptors),
         },
@@ -329,11 +345,13 @@ export const planRegistry = {
           kind: 'boolean',
           label: 'Receptor within the drain hose’s reach',
           help: "The standpipe or receptor is within the reach and height the dryer maker's instructions allow for the drain hose.",
+          applies: { all: [condensateDrained, { path: 'dryer.condensateDrainTo', notIn: ['none'] }] },
         },
         ...applianceFields,
-        exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.' },
+        exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.', applies: ventedDryer },
         maxDuctLength: {
           kind: 'length',
+          applies: ventedDryer,
           label: 'Maker’s maximum duct length',
           help: "The maker's maximum exhaust duct length for this model, when its instructions give one.",
           hint: 'From the installation instructions; type “none” if they give no maximum.',
@@ -353,7 +371,8 @@ export const planRegistry = {
     exhaust: {
       kind: 'group',
       section: 'exhaust',
-      help: 'The dryer exhaust system.',
+      help: 'The dryer exhaust system (a listed condensing or heat-pump dryer needs none).',
+      applies: ventedDryer,
       fields: {
         material: { kind: 'choice', label: 'Duct material', help: 'Material of the exhaust duct (not the transition duct).', choices: ductMaterials, choiceLabels: words(ductMaterials) },
         diameter: { kind: 'length', label: 'Duct diameter', help: 'Nominal diameter of the exhaust duct.' },
@@ -400,6 +419,7 @@ export const planRegistry = {
         concealed: { kind: 'boolean', label: 'Duct concealed in a cavity', help: 'Part of the exhaust duct is concealed in a wall or ceiling cavity.' },
         cavityDepth: {
           kind: 'length',
+          applies: ductConcealed,
           label: 'Cavity depth',
           help: 'Depth of the wall or ceiling cavity the duct runs in (e.g. 5-1/2 in for 2x6 studs).',
           hint: '2×4 wall 3-1/2 in, 2×6 5-1/2 in.',
@@ -411,18 +431,25 @@ export const planRegistry = {
         },
         framingFaceClearance: {
           kind: 'length',
+          applies: ductConcealed,
           label: 'Duct to framing face',
           help: 'Least distance from the concealed duct to the face of the framing members it passes through (where drywall nails or screws go in).',
           hint: 'Under 1-1/4 in needs steel shield plates.',
         },
         shieldPlates: {
           kind: 'boolean',
+          applies: ductConcealed,
           label: 'Shield plates installed',
           help: 'Steel shield plates protect the duct where it is close to the framing face.',
         },
         lengthLabel: { kind: 'boolean', label: 'Length label installed', help: 'A permanent label giving the concealed duct length is within 6 ft of the connection.' },
         fastenersIntoAirstream: { kind: 'boolean', label: 'Fasteners into the airstream', help: 'Screws or other fasteners pass through the duct wall into the airstream.' },
-        fastenerProtrusion: { kind: 'length', label: 'Fastener protrusion', help: 'How far the longest fastener stands into the duct.' },
+        fastenerProtrusion: {
+          kind: 'length',
+          label: 'Fastener protrusion',
+          help: 'How far the longest fastener stands into the duct.',
+          applies: { path: 'exhaust.fastenersIntoAirstream', equals: true },
+        },
         termination: {
           kind: 'group',
           help: 'The end of the exhaust duct: its terminal.',
@@ -514,17 +541,29 @@ export const planRegistry = {
               wires: { kind: 'choice', label: 'Wires (dryer)', help: 'Conductors to a dryer receptacle, 3 or 4 wire.', choices: [3, 4] },
               gfci: { kind: 'boolean', label: 'GFCI protected', help: 'Ground-fault circuit-interrupter protection is provided.' },
               afci: { kind: 'boolean', label: 'AFCI protected', help: 'Arc-fault circuit-interrupter protection is provided.' },
-              distanceToAppliance: { kind: 'length', label: 'Distance to appliance', help: "Distance from the receptacle to the appliance's intended location." },
-              reachableInstalled: { kind: 'boolean', label: 'Plug reachable with appliance in place', help: 'The plug can be reached without moving the appliance.' },
+              distanceToAppliance: {
+                kind: 'length',
+                label: 'Distance to appliance',
+                help: "Distance from the receptacle to the appliance's intended location.",
+                applies: notHardWired,
+              },
+              reachableInstalled: {
+                kind: 'boolean',
+                label: 'Plug reachable with appliance in place',
+                help: 'The plug can be reached without moving the appliance.',
+                applies: notHardWired,
+              },
               hardWired: {
                 kind: 'boolean',
                 label: 'Hard-wired (no plug)',
                 help: 'The appliance is permanently connected to this outlet, with no cord and plug.',
+                applies: dryerOutlet,
               },
               disconnect: {
                 kind: 'choice',
                 label: 'Disconnecting means',
                 help: 'For a hard-wired appliance: a switch or breaker within sight, a breaker that locks open, or none.',
+                applies: { all: [dryerOutlet, { path: 'electrical.receptacles.*.hardWired', equals: true }] },
                 choices: disconnectMeans,
                 choiceLabels: { 'within-sight': 'switch or breaker within sight', 'lockable-breaker': 'breaker lockable in the open position', none: 'none' },
               },
