@@ -5,7 +5,7 @@ import { labelForPath, type Plan } from '@/lib/domain/plan';
 import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { computeRemedy } from '@/lib/domain/remedies';
 import { formatArea, formatLength, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
-import { conditionFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
+import { citationForFacts, conditionFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
 
 export type { FindingStatus };
 export type LimitValue = number | boolean | string | { min: number; max: number } | null;
@@ -163,6 +163,14 @@ const TEXT_DISPLAY: Record<string, string> = {
   'power-ventilators-only': 'only listed dryer exhaust duct power ventilators',
   'power-ventilator': 'a dryer exhaust duct power ventilator',
   booster: 'a booster fan',
+  'location-ok': 'the location is allowed',
+  'in-restricted-room': 'the space is itself a bedroom, bathroom, toilet room or storage closet',
+  'walk-in-clothes-closet': 'the space is a walk-in clothes closet, which is used for storage and so is never a space used for no other purpose',
+  'space-not-dedicated': 'the space is used for other purposes too',
+  'door-not-solid': 'its door is not solid',
+  'door-not-weather-stripped': 'its door is not weather-stripped',
+  'door-not-self-closing': 'its door has no self-closing device',
+  'combustion-air-not-outdoors': 'not all of its combustion air comes from outdoors',
 };
 
 function display(value: FactValue, unit: FactKind, units: UnitSystem, style: LengthStyle | undefined): string | null {
@@ -212,13 +220,17 @@ const CONFIDENCE_NOTES: Record<Confidence, string> = {
   CP: ' Common practice, not a code requirement.',
 };
 
-function noteFor(rule: StoredRule, jurisdiction: string): string {
-  const base = `Checked against ${citationText(rule.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
-  return `${base}${CONFIDENCE_NOTES[rule.confidence]}${rule.citationNote ? ` ${rule.citationNote}` : ''}`;
+function noteFor(cited: Pick<StoredRule, 'citation' | 'confidence' | 'citationNote'>, jurisdiction: string): string {
+  const base = `Checked against ${citationText(cited.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
+  return `${base}${CONFIDENCE_NOTES[cited.confidence]}${cited.citationNote ? ` ${cited.citationNote}` : ''}`;
 }
 
-function fill(template: string, measured: string | null, limit: string | null): string {
-  return template.replace(/\{measured\}/g, measured ?? 'not given').replace(/\{limit\}/g, limit ?? 'the limit');
+/** `{measured}`, `{limit}` and `{shortfall}` (how far apart the two are) in a message template. */
+function fill(template: string, measured: string | null, limit: string | null, shortfall: string | null = null): string {
+  return template
+    .replace(/\{measured\}/g, measured ?? 'not given')
+    .replace(/\{limit\}/g, limit ?? 'the limit')
+    .replace(/\{shortfall\}/g, shortfall ?? 'an unknown amount');
 }
 
 type FindingBase = Omit<Finding, 'status' | 'message' | 'failedCondition' | 'missing' | 'remedy'>;
@@ -318,6 +330,7 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       measured: display(measured, rule.unit, plan.units, rule.lengthStyle),
       limit: displayLimit(limit, rule.unit, plan.units, rule.lengthStyle),
     };
+    const cited = rule.citationVariants ? citationForFacts(rule, facts) : rule;
     const base: FindingBase = {
       ruleKey: rule.key,
       title: rule.title,
@@ -326,10 +339,10 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       limit,
       unit: rule.unit,
       display: shown,
-      citation: rule.citation,
-      confidence: rule.confidence,
-      citationNote: rule.citationNote,
-      note: noteFor(rule, ruleSet.jurisdiction),
+      citation: cited.citation,
+      confidence: cited.confidence,
+      citationNote: cited.citationNote,
+      note: noteFor(cited, ruleSet.jurisdiction),
     };
     const earlyMissing = early.get(rule.key);
     if (earlyMissing) return needsInfoFinding(base, earlyMissing, summary);
@@ -349,7 +362,9 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
     if (rule.severity === 'fail') summary.fail += 1;
     else summary.caution += 1;
     const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });
-    return finish(base, rule.severity, fill(rule.messages.fail, shown.measured, shown.limit), failedCondition, [], remedy);
+    const apart = typeof measured === 'number' && typeof limit === 'number' ? Math.abs(limit - measured) : null;
+    const shortfall = apart === null ? null : display(apart, rule.unit, plan.units, rule.lengthStyle);
+    return finish(base, rule.severity, fill(rule.messages.fail, shown.measured, shown.limit, shortfall), failedCondition, [], remedy);
   });
 
   return { ruleSet: { jurisdiction: ruleSet.jurisdiction, version: ruleSet.version }, summary, findings, facts };

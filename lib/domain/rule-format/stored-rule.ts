@@ -48,6 +48,9 @@ export const conditionSchema: z.ZodType<StoredCondition> = z.lazy(() =>
 
 const topLevelSchema = conditionSchema.refine((c) => !('fact' in c), 'The top level must be all, any, not or a condition reference.');
 
+const citationSchema = z.object({ code: z.string().min(1), edition: z.string().nullable(), section: z.string().nullable() }).strict();
+const confidenceSchema = z.enum(['V', 'S', 'M', 'CP']);
+
 const limitSchema = z.union([valueRefSchema, z.object({ min: valueRefSchema, max: valueRefSchema }).strict()]);
 
 /** The exact shape a published rule set version stores for each rule (JSON). */
@@ -58,12 +61,28 @@ export const storedRuleSchema = z
     area: z.enum(areas as unknown as [string, ...string[]]).describe('Check area.'),
     enabled: z.boolean().describe('Whether the rule runs in this rule set.'),
     severity: z.enum(['fail', 'caution']).describe('Outcome when the conditions are not met.'),
-    citation: z
-      .object({ code: z.string().min(1), edition: z.string().nullable(), section: z.string().nullable() })
-      .strict()
-      .describe('Code, edition and section, resolved to the jurisdiction’s adopted edition.'),
-    confidence: z.enum(['V', 'S', 'M', 'CP']).describe('Source confidence: verified, secondary, from memory, common practice.'),
+    citation: citationSchema.describe('Code, edition and section, resolved to the jurisdiction’s adopted edition.'),
+    confidence: confidenceSchema.describe('Source confidence: verified, secondary, from memory, common practice.'),
     citationNote: z.string().nullable().describe('Why the citation needs confirming, if it does.'),
+    citationVariants: z
+      .object({
+        base: citationSchema,
+        variants: z
+          .array(
+            z
+              .object({
+                when: z.record(z.string(), z.union([z.boolean(), z.string()])),
+                citation: citationSchema,
+                confidence: confidenceSchema,
+                citationNote: z.string().nullable(),
+              })
+              .strict(),
+          )
+          .max(8),
+      })
+      .strict()
+      .optional()
+      .describe('Citations for particular plans (a dwelling cites the IRC), used while the citation is still `base`.'),
     applicability: topLevelSchema.nullable().describe('When false the finding is not-applicable.'),
     conditions: topLevelSchema.describe('The passing state.'),
     requires: z.array(z.string().min(1)).describe('Facts the conditions need; a null one gives needs-info.'),
