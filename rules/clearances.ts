@@ -1,14 +1,43 @@
-import { all, commonPractice, cond, manufacturer, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import { all, commonPractice, cond, type CitationEntry, type CitationVariantDefinition, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
-const MAKER = "The maker's clearances are part of a safe installation: a dryer boxed in too tightly runs hot.";
+const MAKER =
+  "Appliances are installed as their listing and the maker's instructions require, so a clearance below the maker's figure is a code violation, not advice; a dryer boxed in too tightly runs hot.";
+
+/*
+ * Installing against the listing and the maker's instructions breaks the code itself: IRC M1307.1 for
+ * appliances and G2408.1 for gas appliances (TRADE.md S); for other buildings IMC 304.1 (from memory) and
+ * IFGC 305.1 (S).
+ */
+const LISTING: CitationEntry[] = [{ source: 'mechanical', code: 'IMC', section: '304.1', confidence: 'M' }];
+export const LISTING_VARIANTS: CitationVariantDefinition[] = [
+  {
+    when: { 'space.isDwelling': true, 'gas.isGasDryer': true },
+    adopted: { slot: 'building', code: 'IRC' },
+    citations: [{ source: 'building', code: 'IRC', section: 'M1307.1 and G2408.1', confidence: 'S' }],
+  },
+  {
+    when: { 'space.isDwelling': true },
+    adopted: { slot: 'building', code: 'IRC' },
+    citations: [{ source: 'building', code: 'IRC', section: 'M1307.1', confidence: 'S' }],
+  },
+  {
+    when: { 'gas.isGasDryer': true },
+    citations: [
+      { source: 'fuelGas', code: 'IFGC', section: '305.1', confidence: 'S' },
+      { source: 'fuelGas', code: 'IRC', section: 'G2408.1', confidence: 'S' },
+    ],
+    note: 'For the washer, the adopted mechanical code’s rule on installing per the listing applies (IMC 304.1).',
+  },
+];
 
 export const clearanceRules: RuleDefinition[] = [
   {
     key: 'clearances.width',
-    title: 'Enclosure inside width',
+    title: "Maker's side clearances",
     area: 'clearances',
-    severity: 'caution',
-    citations: [manufacturer('S')],
+    severity: 'fail',
+    citations: LISTING,
+    citationVariants: LISTING_VARIANTS,
     applicability: null,
     conditions: all('wide-enough', cond('inside-width-at-least-required', 'clearances.insideWidthIn', 'greaterThanInclusive', { fact: 'clearances.requiredWidthIn' })),
     requires: ['clearances.insideWidthIn', 'clearances.requiredWidthIn'],
@@ -17,17 +46,18 @@ export const clearanceRules: RuleDefinition[] = [
     unit: 'length',
     messages: {
       pass: 'Inside width {measured} takes the units and their side clearances ({limit}).',
-      fail: `Inside width {measured} is less than the {limit} the units and the maker's side clearances need. ${MAKER}`,
+      fail: `The maker's side clearances are {shortfall} short: inside width {measured}, where the units and their side clearances need {limit}. ${MAKER}`,
       notApplicable: 'No enclosure.',
     },
     remedy: 'clearances.widen',
   },
   {
     key: 'clearances.depth',
-    title: 'Enclosure inside depth',
+    title: "Maker's front and rear clearances",
     area: 'clearances',
-    severity: 'caution',
-    citations: [manufacturer('S')],
+    severity: 'fail',
+    citations: LISTING,
+    citationVariants: LISTING_VARIANTS,
     applicability: null,
     conditions: all('deep-enough', cond('inside-depth-at-least-required', 'clearances.insideDepthIn', 'greaterThanInclusive', { fact: 'clearances.requiredDepthIn' })),
     requires: ['clearances.insideDepthIn', 'clearances.requiredDepthIn'],
@@ -36,17 +66,18 @@ export const clearanceRules: RuleDefinition[] = [
     unit: 'length',
     messages: {
       pass: 'Inside depth {measured} takes the units, their knobs and doors, and front and rear clearances ({limit}).',
-      fail: `Inside depth {measured} is less than the {limit} the units, knobs, doors and the maker's front and rear clearances need. ${MAKER}`,
+      fail: `The maker's front and rear clearances are {shortfall} short: inside depth {measured}, where the units, knobs, doors and those clearances need {limit}. ${MAKER}`,
       notApplicable: 'No enclosure.',
     },
     remedy: 'clearances.deepen',
   },
   {
     key: 'clearances.height',
-    title: 'Enclosure inside height',
+    title: "Maker's top clearance",
     area: 'clearances',
-    severity: 'caution',
-    citations: [manufacturer('S')],
+    severity: 'fail',
+    citations: LISTING,
+    citationVariants: LISTING_VARIANTS,
     applicability: null,
     conditions: all('tall-enough', cond('inside-height-at-least-required', 'clearances.insideHeightIn', 'greaterThanInclusive', { fact: 'clearances.requiredHeightIn' })),
     requires: ['clearances.insideHeightIn', 'clearances.requiredHeightIn'],
@@ -55,7 +86,7 @@ export const clearanceRules: RuleDefinition[] = [
     unit: 'length',
     messages: {
       pass: 'Inside height {measured} takes the units and their top clearance ({limit}).',
-      fail: `Inside height {measured} is less than the {limit} the units and the maker's top clearance need. ${MAKER}`,
+      fail: `The maker's top clearance is {shortfall} short: inside height {measured}, where the units and their top clearance need {limit}. ${MAKER}`,
       notApplicable: 'No enclosure.',
     },
     remedy: 'clearances.raise',

@@ -8,6 +8,8 @@ const nec = (section: string, confidence: CitationEntry['confidence'], years?: n
   ...(years ? { years } : {}),
 });
 
+// NEC 2020 extends 210.8(A) to 125-250 V receptacles; NEC 2023 210.8(D) covers dryer outlets.
+const DRYER_GFCI_CITATIONS = [nec('210.8(A)(10)', 'V', [2014, 2017, 2020]), nec('210.8(D)', 'V', [2023])];
 const SHOCK = 'Electrical work is for a licensed electrician; faults here risk shock and fire.';
 const ELECTRIC_DRYER = all('electric-dryer', cond('dryer-is-electric', 'electrical.isElectricDryer', 'equal', true));
 
@@ -119,8 +121,7 @@ export const electricalRules: RuleDefinition[] = [
     title: 'GFCI protection of the dryer outlet',
     area: 'electrical',
     severity: 'fail',
-    // NEC 2020 extends 210.8(A) to 125-250 V receptacles; NEC 2023 210.8(D) covers dryer outlets.
-    citations: [nec('210.8(A)(10)', 'V', [2014, 2017, 2020]), nec('210.8(D)', 'V', [2023])],
+    citations: DRYER_GFCI_CITATIONS,
     applicability: all('gfci-required', cond('edition-requires-gfci', 'electrical.dryerGfciRequired', 'equal', true)),
     conditions: all('protected', cond('gfci-provided', 'electrical.dryerGfci', 'equal', true)),
     requires: ['electrical.dryerGfci'],
@@ -132,9 +133,10 @@ export const electricalRules: RuleDefinition[] = [
       fail: `The adopted NEC edition requires GFCI protection for the dryer outlet (NEC 2023: hard-wired or cord-and-plug); it has none. ${SHOCK}`,
       notApplicable: 'The adopted NEC edition does not require GFCI protection for this dryer receptacle.',
     },
-    variants: [
+    citationVariants: [
       {
-        when: { fact: 'electrical.dryerHardWired', equals: true },
+        when: { 'electrical.dryerHardWired': true },
+        citations: DRYER_GFCI_CITATIONS,
         messages: { notApplicable: 'Before NEC 2023 the laundry GFCI rule, 210.8(A), covers receptacles; a hard-wired dryer has none. NEC 2023 210.8(D) adds dryer outlets, hard-wired or not.' },
       },
     ],

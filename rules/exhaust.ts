@@ -1,4 +1,4 @@
-import { all, any, cond, param, paramCond, type CitationEntry, type CitationVariant, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import { all, any, cond, param, paramCond, type CitationEntry, type CitationVariantDefinition, type RuleDefinition } from '@/lib/domain/rule-format/define';
 import type { TopLevelCondition } from 'json-rules-engine';
 
 const irc = (section: string, confidence: CitationEntry['confidence'], years?: number[]): CitationEntry => ({
@@ -18,8 +18,8 @@ export const DUCT_REQUIRED = cond('dryer-needs-duct', 'exhaust.ductRequired', 'e
  * A listed condensing or heat-pump dryer needs no exhaust duct (IRC M1502.2 exception; TRADE.md S): its
  * exhaust findings are not-applicable and cite the exception, never ask for a route it does not have.
  */
-export const VENTLESS: CitationVariant = {
-  when: { fact: 'exhaust.ductRequired', equals: false },
+export const VENTLESS: CitationVariantDefinition = {
+  when: { 'exhaust.ductRequired': false },
   citations: [irc('M1502.2 exception', 'S')],
   messages: { notApplicable: 'A listed condensing or heat-pump dryer needs no exhaust duct; follow its maker’s instructions for condensate and closet clearances.' },
 };
@@ -31,7 +31,7 @@ export function forVentedDryer(rule: RuleDefinition): RuleDefinition {
   const applicability = current
     ? all(current.name, DUCT_REQUIRED, ...(current.all as unknown[]))
     : (all('dryer-vented', DUCT_REQUIRED) as TopLevelCondition);
-  return { ...rule, applicability, variants: [VENTLESS, ...(rule.variants ?? [])] };
+  return { ...rule, applicability, citationVariants: [VENTLESS, ...(rule.citationVariants ?? [])] };
 }
 
 const exhaustRuleDefinitions: RuleDefinition[] = [
@@ -48,10 +48,10 @@ const exhaustRuleDefinitions: RuleDefinition[] = [
       irc('M1502.4.4.1', 'S', [2012]),
       irc('M1502.4.4.1', 'M', [2009, 2015]),
     ],
-    variants: [
+    citationVariants: [
       {
         // The maker's maximum replaces the code's where make and model are known (TRADE.md S; 2012/2015 M).
-        when: { fact: 'exhaust.allowedLengthSource', equals: 'manufacturer' },
+        when: { 'exhaust.allowedLengthSource': 'manufacturer' },
         citations: [irc('M1502.4.5.2', 'S', [2018]), irc('M1502.4.6.2', 'S', [2021]), irc('M1502.4.4.2', 'M', [2012, 2015])],
         messages: {
           pass: 'Developed length {measured} is within the {limit} the dryer maker allows. The maker’s installation instructions must reach the inspector before the duct is concealed.',
@@ -60,7 +60,7 @@ const exhaustRuleDefinitions: RuleDefinition[] = [
       },
       {
         // With a listed power ventilator the length follows its instructions: IRC 2018 M1502.4.5.3 / 2021 M1502.4.6.3 (S).
-        when: { fact: 'exhaust.allowedLengthSource', equals: 'power-ventilator' },
+        when: { 'exhaust.allowedLengthSource': 'power-ventilator' },
         citations: [irc('M1502.4.5.3', 'S', [2018]), irc('M1502.4.6.3', 'S', [2021])],
         messages: {
           pass: 'Developed length {measured} is within the {limit} the power ventilator’s maker allows.',

@@ -1,8 +1,20 @@
-import { all, cond, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import { all, cond, param, type CitationEntry, type CitationVariantDefinition, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const gas = (irc: string, ifgc: string, confidence: CitationEntry['confidence'], ifgcConfidence = confidence): CitationEntry[] => [
   { source: 'fuelGas', code: 'IRC', section: irc, confidence },
   { source: 'fuelGas', code: 'IFGC', section: ifgc, confidence: ifgcConfidence },
+];
+
+/*
+ * The IRC governs one- and two-family dwellings and townhouses: where it is the adopted building code, a
+ * gas finding for a dwelling cites its fuel-gas chapter; other buildings cite the adopted fuel gas code.
+ */
+const inDwelling = (irc: string, confidence: CitationEntry['confidence']): CitationVariantDefinition[] => [
+  {
+    when: { 'space.isDwelling': true },
+    adopted: { slot: 'building', code: 'IRC' },
+    citations: [{ source: 'building', code: 'IRC', section: irc, confidence }],
+  },
 ];
 
 const GAS_DRYER = all('gas-dryer', cond('dryer-burns-gas', 'gas.isGasDryer', 'equal', true));
@@ -13,17 +25,18 @@ export const gasRules: RuleDefinition[] = [
     key: 'gas.location',
     title: 'Gas dryer location',
     area: 'gas',
-    severity: 'caution',
+    severity: 'fail',
     citations: gas('G2406.2', '303.3', 'S'),
+    citationVariants: inDwelling('G2406.2', 'S'),
     applicability: GAS_DRYER,
-    conditions: all('location-allowed', cond('not-restricted-space', 'gas.restrictedSpace', 'equal', false)),
-    requires: ['gas.restrictedSpace'],
-    measured: 'gas.restrictedSpace',
-    limit: false,
-    unit: 'boolean',
+    conditions: all('location-allowed', cond('no-location-problem', 'gas.locationShortfall', 'equal', 'location-ok')),
+    requires: ['gas.locationShortfall'],
+    measured: 'gas.locationShortfall',
+    limit: 'location-ok',
+    unit: 'text',
     messages: {
-      pass: 'The dryer space is not a bedroom, bathroom or storage closet and does not open into one.',
-      fail: `Fuel-gas appliances are restricted in bedrooms, bathrooms and storage closets and in spaces opening into them (a walk-in closet off a bedroom is likely prohibited). Exceptions exist for direct-vent appliances and for a dedicated room with a solid, weather-stripped, self-closing door and all combustion air from outdoors: ask the AHJ before building. ${CO}`,
+      pass: 'The dryer space is not a bedroom, bathroom, toilet room or storage closet, or it opens into one and meets the exception: used for nothing else, a solid, weather-stripped, self-closing door, and all combustion air from outdoors.',
+      fail: `A fuel-gas appliance may not stand in a bedroom, bathroom, toilet room or storage closet, or in a space that opens only into one, unless that space is used for nothing else, has a solid, weather-stripped door with a self-closing device and takes all combustion air from outdoors (direct-vent appliances aside). Here {measured}. Ask the AHJ before building. ${CO}`,
       notApplicable: 'The dryer is not a gas dryer.',
     },
     remedy: 'gas.relocate',
@@ -34,6 +47,7 @@ export const gasRules: RuleDefinition[] = [
     area: 'gas',
     severity: 'fail',
     citations: gas('G2420.5.1', '409.5.1', 'S'),
+    citationVariants: inDwelling('G2420.5.1', 'S'),
     applicability: GAS_DRYER,
     conditions: all(
       'shutoff-ok',
@@ -57,6 +71,7 @@ export const gasRules: RuleDefinition[] = [
     area: 'gas',
     severity: 'fail',
     citations: gas('G2422.1.2.1', '411.1.3', 'S', 'M'),
+    citationVariants: inDwelling('G2422.1.2.1', 'S'),
     applicability: GAS_DRYER,
     conditions: all('connector-ok', cond('connector-within-max', 'gas.connectorLengthIn', 'lessThanInclusive', param('gas.connectorMaxLengthIn'))),
     requires: ['gas.connectorLengthIn'],
@@ -77,6 +92,7 @@ export const gasRules: RuleDefinition[] = [
     severity: 'caution',
     // From memory (TRADE.md M): the fuel-gas chapter repeats the closet make-up air rule.
     citations: gas('G2439.5', '614.6', 'M'),
+    citationVariants: inDwelling('G2439.5', 'M'),
     applicability: all(
       'gas-dryer-in-closet',
       cond('dryer-burns-gas', 'gas.isGasDryer', 'equal', true),

@@ -1,10 +1,11 @@
 import { editionsSchema, type Editions } from '@/lib/domain/editions';
 import { defaultParameters, mergeParameters, ruleSetParametersSchema, type DeepPartial, type RuleSetParameters } from '@/lib/domain/params';
 import { clearanceRules } from '@/rules/clearances';
-import { resolveCitation, type RuleDefinition, type StoredRule } from '@/lib/domain/rule-format/define';
+import { resolveRuleCitations, type RuleDefinition, type StoredRule } from '@/lib/domain/rule-format/define';
 import { doorHardwareRules } from '@/rules/door-hardware';
 import { electricalRules } from '@/rules/electrical';
 import { exhaustRules } from '@/rules/exhaust';
+import { fitRules } from '@/rules/fit';
 import { gasRules } from '@/rules/gas';
 import { makeupAirRules } from '@/rules/makeup-air';
 import { plumbingRules } from '@/rules/plumbing';
@@ -18,6 +19,7 @@ export const baselineRules: readonly RuleDefinition[] = [
   ...gasRules,
   ...electricalRules,
   ...plumbingRules,
+  ...fitRules,
   ...clearanceRules,
   ...serviceRules,
   ...doorHardwareRules,
@@ -43,21 +45,15 @@ export interface BuiltRuleSet {
 }
 
 function toStored(definition: RuleDefinition, parameters: RuleSetParameters, override?: RuleOverride): StoredRule {
-  const { citations, variants, ...rest } = definition;
-  const resolved = resolveCitation(citations, parameters);
+  const { citations, citationVariants, citationNoteText, ...rest } = definition;
+  const resolved = resolveRuleCitations({ citations, citationVariants, citationNoteText }, parameters);
   const stored: StoredRule = structuredClone({ ...rest, enabled: true, ...resolved });
-  if (variants) {
-    stored.variants = variants.map((v) => ({
-      when: { ...v.when },
-      ...(v.citations ? resolveCitation(v.citations, parameters) : resolved),
-      ...(v.messages ? { messages: { ...v.messages } } : {}),
-    }));
-  }
   if (override?.enabled !== undefined) stored.enabled = override.enabled;
   if (override?.severity) stored.severity = override.severity;
   if (override?.citation) {
     stored.citation = override.citation;
     stored.citationNote = null;
+    delete stored.citationVariants;
   }
   if (override?.messages) stored.messages = { ...stored.messages, ...override.messages };
   return stored;

@@ -20,6 +20,16 @@ export const makeupAirRules: RuleDefinition[] = [
     area: 'makeup-air',
     severity: 'fail',
     citations: MAKEUP_AIR_CITATIONS,
+    // Checked for every dryer, gas or electric; the note says which adopted code the 100 sq in comes from.
+    citationNoteText: 'The 100 sq in closet opening comes from the adopted mechanical code ({citation}).',
+    citationVariants: [
+      {
+        when: { 'space.isDwelling': true },
+        adopted: { slot: 'building', code: 'IRC' },
+        citations: MAKEUP_AIR_CITATIONS,
+        note: 'The 100 sq in closet opening comes from the adopted mechanical code ({citation}); the IRC governs one- and two-family dwellings, so confirm with the AHJ that they apply it here (for a gas dryer the IRC fuel-gas chapter has its own make-up air rule, G2439.5).',
+      },
+    ],
     applicability: CLOSET,
     conditions: all('opening-large-enough', cond('opening-at-least-minimum', 'makeupAir.openingAreaSqIn', 'greaterThanInclusive', param('makeupAir.closetOpeningMinSqIn'))),
     requires: ['makeupAir.openingAreaSqIn'],
@@ -68,7 +78,7 @@ export const makeupAirRules: RuleDefinition[] = [
     citations: MAKEUP_AIR_CITATIONS,
     // A ventless dryer exhausts nothing that needs making up.
     applicability: all('over-threshold', DUCT_REQUIRED, cond('exhaust-over-threshold', 'makeupAir.exhaustCfm', 'greaterThan', param('makeupAir.exhaustCfmThreshold'))),
-    variants: [{ ...VENTLESS, messages: { notApplicable: 'A listed condensing or heat-pump dryer exhausts no air to the outdoors, so there is no exhaust to make up.' } }],
+    citationVariants: [{ ...VENTLESS, messages: { notApplicable: 'A listed condensing or heat-pump dryer exhausts no air to the outdoors, so there is no exhaust to make up.' } }],
     conditions: all('makeup-provided', cond('makeup-matches-exhaust', 'makeupAir.providedCfm', 'greaterThanInclusive', { fact: 'makeupAir.exhaustCfm' })),
     requires: ['makeupAir.providedCfm', 'makeupAir.exhaustCfm'],
     measured: 'makeupAir.providedCfm',

@@ -42,8 +42,10 @@ describe('evaluate', () => {
     expect(long.summary.fail).toBeGreaterThan(5);
     const gas = await check(gasWalkInBedroomPlan);
     const location = finding(gas, 'gas.location');
-    expect(location.status).toBe('caution');
-    expect(location.message).toMatch(/ask the AHJ/);
+    // IRC G2406.2: a walk-in clothes closet opening into a bedroom never meets the exception.
+    expect(location.status).toBe('fail');
+    expect(location.message).toMatch(/walk-in clothes closet/);
+    expect(location.message).toMatch(/Ask the AHJ/);
     expect(location.message).toMatch(/carbon monoxide/);
     expect(finding(gas, 'electrical.dryer-4-wire').status).toBe('not-applicable');
   });
@@ -89,7 +91,8 @@ describe('evaluate', () => {
     const evaluation = await check(longExhaustFailPlan);
     for (const f of evaluation.findings) expect(f.note).toMatch(/locally adopted code, its amendments and the AHJ govern/);
     expect(finding(evaluation, 'electrical.receptacle-reachable').note).toMatch(/from memory/);
-    expect(finding(evaluation, 'service.toe-kick').note).toMatch(/Common practice/);
+    expect(finding(evaluation, 'service.removal-width').note).toMatch(/Common practice/);
+    expect(finding(evaluation, 'service.toe-kick').note).toMatch(/secondary sources/);
   });
 
   it('builds a fresh Engine per evaluation and caches compiled JSON by rule set id', async () => {

@@ -106,13 +106,15 @@ const cases: RuleCase[] = [
     pass: (p) => Object.assign(p.dryer, { exhaustCfm: 240 }, (p.makeupAir.providedCfm = 240) && {}),
     fail: (p) => Object.assign(p.dryer, { exhaustCfm: 240 }, (p.makeupAir.providedCfm = 100) && {}),
   },
-  // IFGC 2018 303.3: not in storage closets or spaces opening into bedrooms.
+  // IRC G2406.2 / IFGC 303.3: not in a space opening only into a bedroom unless it meets the exception, which a
+  // walk-in clothes closet never does (it is used for storage).
   {
     key: 'gas.location',
     pass: gasDryer,
     fail: (p) => {
       gasDryer(p);
-      p.space.opensInto = 'bedroom';
+      Object.assign(p.space, { kind: 'walk-in-closet', opensInto: 'bedroom', dedicatedToLaundry: true, door: { solid: true, weatherStripped: true, selfClosing: true } });
+      p.gas.combustionAirFromOutdoors = true;
     },
   },
   // IFGC 2018 409.5.1: same room, within 6 ft.
@@ -197,23 +199,36 @@ const cases: RuleCase[] = [
     pass: none,
     fail: (p) => (p.plumbing.leakShutoff = false),
   },
-  // Manufacturer's instructions (plan's figures): 24 + 24 + three 1-in gaps = 51 in.
   // Manufacturer's instructions (binding under IRC M1307.1, TRADE.md S): a heat-pump dryer's drain hose to a receptor within its reach.
   {
     key: 'plumbing.condensate-drain',
     pass: (p) => Object.assign(p.dryer, { type: 'heat-pump', condensate: 'drain', condensateDrainTo: 'standpipe', condensateDrainReachable: true }),
     fail: (p) => Object.assign(p.dryer, { type: 'heat-pump', condensate: 'drain', condensateDrainTo: 'standpipe', condensateDrainReachable: false }),
   },
+  // Physical fit, the plan's own sizes: 24 + 24 in units side by side = 48 in; 56 in outside less two 3/4 in
+  // panels = 54-1/2 in inside. Fails at 44-1/2 in inside (46 in outside).
+  { key: 'fit.width', pass: (p) => (p.enclosure.width = 49.5), fail: (p) => (p.enclosure.width = 46) },
+  // Physical fit: 24 in cabinet + 2 in knobs and door = 26 in; outside depth less a 3/4 in back and a 3/4 in door.
+  { key: 'fit.depth', pass: (p) => (p.enclosure.depth = 27.5), fail: (p) => (p.enclosure.depth = 27.4) },
+  // Physical fit: a stacked pair of 34 in units = 68 in; outside height less a 3/4 in top. Fails at 60 in.
+  {
+    key: 'fit.height',
+    pass: (p) => Object.assign(p, { arrangement: 'stacked' }, (p.enclosure.height = 68.75) && {}),
+    fail: (p) => Object.assign(p, { arrangement: 'stacked' }, (p.enclosure.height = 60) && {}),
+  },
+  // IRC M1305.1: the units come out without removing permanent construction; widest unit 24 in.
+  { key: 'service.opening-width', pass: (p) => (p.enclosure.openingWidth = 24), fail: (p) => (p.enclosure.openingWidth = 23.9) },
+  // IRC M1307.1, maker's instructions (plan's figures): 24 + 24 + three 1-in gaps = 51 in.
   { key: 'clearances.width', pass: (p) => (p.enclosure.width = 52.5), fail: (p) => (p.enclosure.width = 52.4) },
-  // Manufacturer's instructions: 24 + 2 + 1 + 4 = 31 in inside; outside adds back panel and door (3/4 in each).
+  // IRC M1307.1, maker's instructions: 24 + 2 + 1 + 4 = 31 in inside; outside adds back panel and door (3/4 in each).
   { key: 'clearances.depth', pass: (p) => (p.enclosure.depth = 32.5), fail: (p) => (p.enclosure.depth = 32.4) },
-  // Manufacturer's instructions: 34 + 1 = 35 in inside, plus a 3/4 in top panel outside.
+  // IRC M1307.1, maker's instructions: 34 + 1 = 35 in inside, plus a 3/4 in top panel outside.
   { key: 'clearances.height', pass: (p) => (p.enclosure.height = 35.75), fail: (p) => (p.enclosure.height = 35.7) },
   // common practice, no published source: about 6 in behind the units.
   { key: 'clearances.rear-zone', pass: (p) => (p.enclosure.depth = 34.5), fail: (p) => (p.enclosure.depth = 34.4) },
   // common practice, no published source: opening at least unit width + 1 in.
   { key: 'service.removal-width', pass: (p) => (p.enclosure.openingWidth = 25), fail: (p) => (p.enclosure.openingWidth = 24.9) },
-  // common practice, no published source: removable toe kick.
+  // IRC M1305.1: a fixed toe kick keeps the units in.
   { key: 'service.toe-kick', pass: none, fail: (p) => (p.enclosure.toeKick.removable = false) },
   // common practice, no published source: 2 in for hinge arms (front gap = inside depth - 24 - 2 - 4).
   { key: 'door-hardware.hinge-arm-room', pass: (p) => (p.enclosure.depth = 33.5), fail: (p) => (p.enclosure.depth = 33.4) },

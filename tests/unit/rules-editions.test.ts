@@ -103,7 +103,7 @@ describe('edition differences', () => {
     const length2012 = rule('IRC 2012', 'exhaust.developed-length');
     expect(length2012.citation.section).toBe('M1502.4.4.1');
     expect(length2012.confidence).toBe('S');
-    const maker2015 = length2015.variants!.find((v) => v.when.equals === 'manufacturer')!;
+    const maker2015 = length2015.citationVariants!.variants.find((v) => v.when['exhaust.allowedLengthSource'] === 'manufacturer')!;
     expect(maker2015.citation).toEqual({ code: 'IRC', edition: '2015', section: 'M1502.4.4.2' });
     expect(maker2015.confidence).toBe('M');
     expect(rule('IRC 2015', 'exhaust.length-label').citation.section).toBe('M1502.4.5');
@@ -125,7 +125,7 @@ describe('edition differences', () => {
     expect(length.citation).toEqual({ code: 'IRC', edition: '2024', section: 'M1502.4.6.1' }); // nearest: IRC 2021
     expect(length.confidence).toBe('M');
     expect(length.citationNote).toMatch(/taken from IRC 2021; confirm it in the adopted IRC 2024/);
-    const maker = length.variants!.find((v) => v.when.equals === 'manufacturer')!;
+    const maker = length.citationVariants!.variants.find((v) => v.when['exhaust.allowedLengthSource'] === 'manufacturer')!;
     expect(maker.citation.section).toBe('M1502.4.6.2');
     expect(maker.confidence).toBe('M');
     expect(maker.citationNote).toMatch(/confirm it in the adopted IRC 2024/);

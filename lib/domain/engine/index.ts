@@ -5,7 +5,7 @@ import { labelForPath, type Plan } from '@/lib/domain/plan';
 import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { computeRemedy } from '@/lib/domain/remedies';
 import { formatArea, formatLength, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
-import { conditionFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
+import { conditionFacts, variantForFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
 
 export type { FindingStatus };
 export type LimitValue = number | boolean | string | { min: number; max: number } | null;
@@ -169,6 +169,14 @@ const TEXT_DISPLAY: Record<string, string> = {
   'indirect-receptor': 'indirect-waste receptor',
   'within-sight': 'a switch or breaker within sight',
   'lockable-breaker': 'a breaker lockable in the open position',
+  'location-ok': 'the location is allowed',
+  'in-restricted-room': 'the space is itself a bedroom, bathroom, toilet room or storage closet',
+  'walk-in-clothes-closet': 'the space is a walk-in clothes closet, which is used for storage and so is never a space used for no other purpose',
+  'space-not-dedicated': 'the space is used for other purposes too',
+  'door-not-solid': 'its door is not solid',
+  'door-not-weather-stripped': 'its door is not weather-stripped',
+  'door-not-self-closing': 'its door has no self-closing device',
+  'combustion-air-not-outdoors': 'not all of its combustion air comes from outdoors',
 };
 
 function display(value: FactValue, unit: FactKind, units: UnitSystem, style: LengthStyle | undefined): string | null {
@@ -218,13 +226,17 @@ const CONFIDENCE_NOTES: Record<Confidence, string> = {
   CP: ' Common practice, not a code requirement.',
 };
 
-function noteFor(rule: Pick<StoredRule, 'citation' | 'confidence' | 'citationNote'>, jurisdiction: string): string {
-  const base = `Checked against ${citationText(rule.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
-  return `${base}${CONFIDENCE_NOTES[rule.confidence]}${rule.citationNote ? ` ${rule.citationNote}` : ''}`;
+function noteFor(cited: Pick<StoredRule, 'citation' | 'confidence' | 'citationNote'>, jurisdiction: string): string {
+  const base = `Checked against ${citationText(cited.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
+  return `${base}${CONFIDENCE_NOTES[cited.confidence]}${cited.citationNote ? ` ${cited.citationNote}` : ''}`;
 }
 
-function fill(template: string, measured: string | null, limit: string | null): string {
-  return template.replace(/\{measured\}/g, measured ?? 'not given').replace(/\{limit\}/g, limit ?? 'the limit');
+/** `{measured}`, `{limit}` and `{shortfall}` (how far apart the two are) in a message template. */
+function fill(template: string, measured: string | null, limit: string | null, shortfall: string | null = null): string {
+  return template
+    .replace(/\{measured\}/g, measured ?? 'not given')
+    .replace(/\{limit\}/g, limit ?? 'the limit')
+    .replace(/\{shortfall\}/g, shortfall ?? 'an unknown amount');
 }
 
 type FindingBase = Omit<Finding, 'status' | 'message' | 'failedCondition' | 'missing' | 'remedy'>;
@@ -387,8 +399,7 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
 
   const summary: EvaluationSummary = { pass: 0, fail: 0, caution: 0, needsInfo: 0, notApplicable: 0 };
   const findings = compiled.rules.map(({ rule }): Finding => {
-    const variant = rule.variants?.find((v) => facts[v.when.fact] === v.when.equals);
-    const cited = variant ?? rule;
+    const variant = rule.citationVariants ? variantForFacts(rule, facts) : null;
     const messages = variant?.messages ? { ...rule.messages, ...variant.messages } : rule.messages;
     const measured = rule.measured ? (facts[rule.measured] ?? null) : null;
     const limit = resolveLimit(rule.limit, facts, parameters);
@@ -396,6 +407,7 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       measured: display(measured, rule.unit, plan.units, rule.lengthStyle),
       limit: displayLimit(limit, rule.unit, plan.units, rule.lengthStyle),
     };
+    const cited = variant ?? rule;
     const base: FindingBase = {
       ruleKey: rule.key,
       title: rule.title,
@@ -427,7 +439,9 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
     if (rule.severity === 'fail') summary.fail += 1;
     else summary.caution += 1;
     const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });
-    return finish(base, rule.severity, fill(messages.fail, shown.measured, shown.limit), failedCondition, [], remedy);
+    const apart = typeof measured === 'number' && typeof limit === 'number' ? Math.abs(limit - measured) : null;
+    const shortfall = apart === null ? null : display(apart, rule.unit, plan.units, rule.lengthStyle);
+    return finish(base, rule.severity, fill(messages.fail, shown.measured, shown.limit, shortfall), failedCondition, [], remedy);
   });
 
   return { ruleSet: { jurisdiction: ruleSet.jurisdiction, version: ruleSet.version }, summary, findings, facts };

@@ -8,6 +8,9 @@ export const clearanceFactDefinitions: FactDefinition[] = [
   define('clearances.requiredWidthIn', 'length', 'Width the units need with the maker’s side clearances.', ['arrangement', 'washer.width', 'dryer.width', 'washer.clearances.side', 'dryer.clearances.side']),
   define('clearances.requiredDepthIn', 'length', 'Depth the units need: cabinet, knobs and door, and the maker’s front and rear clearances.', ['washer.depth', 'dryer.depth', 'washer.frontProjection', 'dryer.frontProjection', 'washer.clearances.front', 'washer.clearances.rear', 'dryer.clearances.front', 'dryer.clearances.rear']),
   define('clearances.requiredHeightIn', 'length', 'Height the units need with the maker’s top clearance.', ['arrangement', 'washer.height', 'dryer.height', 'washer.clearances.top', 'dryer.clearances.top']),
+  define('fit.unitsWidthIn', 'length', 'Width the units themselves take for the arrangement, without clearances.', ['arrangement', 'washer.width', 'dryer.width']),
+  define('fit.unitsDepthIn', 'length', 'Depth the deeper unit takes, cabinet plus knobs and door where given, without clearances.', ['washer.depth', 'dryer.depth', 'washer.frontProjection', 'dryer.frontProjection']),
+  define('fit.unitsHeightIn', 'length', 'Height the units themselves take for the arrangement, without clearances.', ['arrangement', 'washer.height', 'dryer.height']),
   define('clearances.rearZoneIn', 'length', 'Space left behind the deeper unit once its front clearance is kept.', ['enclosure.depth', 'washer.depth', 'dryer.depth', 'washer.frontProjection', 'dryer.frontProjection']),
   define('clearances.rearZoneRequiredIn', 'length', 'Rear zone wanted: the larger of the common-practice figure and the maker’s rear clearance.', ['washer.clearances.rear', 'dryer.clearances.rear']),
 ];
@@ -77,6 +80,21 @@ export function computeClearanceFacts(ctx: FactContext): void {
     }));
     if (arrangement === 'stacked') return w.height + d.height + d.top;
     return Math.max(w.height + w.top, d.height + d.top);
+  });
+  // The units alone, without the maker's clearances: an enclosure smaller than this cannot be built as
+  // drawn. A front projection is counted where given; a missing one is asked for by the clearance rules.
+  ctx.fact('fit.unitsWidthIn', (need) => {
+    const arrangement = need('arrangement', plan.arrangement);
+    const [w, d] = units(plan).map(([name, unit]) => need(`${name}.width`, unit?.width));
+    return arrangement === 'stacked' ? Math.max(w, d) : w + d;
+  });
+  ctx.fact('fit.unitsDepthIn', (need) =>
+    Math.max(...units(plan).map(([name, unit]) => need(`${name}.depth`, unit?.depth) + (unit?.frontProjection ?? 0))),
+  );
+  ctx.fact('fit.unitsHeightIn', (need) => {
+    const arrangement = need('arrangement', plan.arrangement);
+    const [w, d] = units(plan).map(([name, unit]) => need(`${name}.height`, unit?.height));
+    return arrangement === 'stacked' ? w + d : Math.max(w, d);
   });
   ctx.fact('clearances.rearZoneIn', (need) => {
     const inside = insideDimension(plan, need, 'depth');

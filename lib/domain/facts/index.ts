@@ -10,6 +10,7 @@ import { computeGasFacts, gasFactDefinitions } from '@/lib/domain/facts/gas';
 import { computeMakeupAirFacts, makeupAirFactDefinitions } from '@/lib/domain/facts/makeup-air';
 import { computePlumbingFacts, plumbingFactDefinitions } from '@/lib/domain/facts/plumbing';
 import { computeServiceFacts, serviceFactDefinitions } from '@/lib/domain/facts/service';
+import { computeSpaceFacts, spaceFactDefinitions } from '@/lib/domain/facts/space';
 
 export type { FactDefinition, FactKind, FactValue } from '@/lib/domain/facts/context';
 export { nominalSizeIn } from '@/lib/domain/facts/context';
@@ -26,6 +27,7 @@ export const factCatalog: readonly FactDefinition[] = [
   ...clearanceFactDefinitions,
   ...serviceFactDefinitions,
   ...doorHardwareFactDefinitions,
+  ...spaceFactDefinitions,
 ];
 
 export const factsByName: ReadonlyMap<string, FactDefinition> = new Map(factCatalog.map((f) => [f.name, f]));
@@ -49,6 +51,7 @@ export function computeFactsWithMissing(plan: Plan, params: RuleSetParameters): 
   computeClearanceFacts(ctx);
   computeServiceFacts(ctx);
   computeDoorHardwareFacts(ctx);
+  computeSpaceFacts(ctx);
   return { facts: ctx.values, missing: ctx.missing };
 }
 

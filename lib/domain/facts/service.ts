@@ -3,6 +3,7 @@ import { insideDimension } from '@/lib/domain/facts/clearances';
 
 export const serviceFactDefinitions: FactDefinition[] = [
   define('service.openingWidthIn', 'length', 'Clear width of the enclosure opening (the inside width unless a face frame narrows it).', ['enclosure.openingWidth', 'enclosure.width']),
+  define('service.widestUnitIn', 'length', 'Width of the wider unit: an opening narrower than this keeps it in.', ['washer.width', 'dryer.width']),
   define('service.removalWidthRequiredIn', 'length', 'Opening width needed to take the widest unit out: its width plus the service margin.', ['washer.width', 'dryer.width']),
   define('service.toeKickPresent', 'boolean', 'A toe kick or sill crosses the bottom of the opening.', ['enclosure.toeKick']),
   define('service.toeKickRemovable', 'boolean', 'The toe kick comes off for removal.', ['enclosure.toeKick.removable']),
@@ -12,6 +13,7 @@ export function computeServiceFacts(ctx: FactContext): void {
   const { plan, params } = ctx;
   const enclosure = plan.enclosure;
   ctx.fact('service.openingWidthIn', (need) => enclosure?.openingWidth ?? insideDimension(plan, need, 'width'));
+  ctx.fact('service.widestUnitIn', (need) => Math.max(need('washer.width', plan.washer?.width), need('dryer.width', plan.dryer?.width)));
   ctx.fact('service.removalWidthRequiredIn', (need) =>
     Math.max(need('washer.width', plan.washer?.width), need('dryer.width', plan.dryer?.width)) + params.service.removalMarginIn,
   );

@@ -170,7 +170,18 @@ export const remedies: Record<string, Remedy> = {
     const s = shortfall(ctx);
     return s === null || s <= 0 ? null : `Provide about ${Math.ceil(s)} cfm more make-up air.`;
   },
-  'gas.relocate': fixed('Move the gas dryer out of the restricted space, use an electric dryer, or ask the AHJ whether a code exception (such as a dedicated room with a solid, weather-stripped, self-closing door and outdoor combustion air) fits this case.'),
+  'gas.relocate': (ctx) => {
+    const fixes: Record<string, string> = {
+      'space-not-dedicated': 'use the space for the appliances only (no storage)',
+      'door-not-solid': 'fit a solid door',
+      'door-not-weather-stripped': 'weather-strip the door all round',
+      'door-not-self-closing': 'add an approved self-closing device to the door',
+      'combustion-air-not-outdoors': 'take all combustion air from outdoors',
+    };
+    const fix = typeof ctx.measured === 'string' ? fixes[ctx.measured] : undefined;
+    if (fix) return `To meet the exception, ${fix}; otherwise move the gas dryer out of the restricted space or use an electric dryer. Confirm with the AHJ.`;
+    return 'Move the gas dryer out of the restricted space or use an electric dryer; ask the AHJ whether a direct-vent appliance or another exception fits this case.';
+  },
   'gas.move-shutoff': (ctx) => {
     const over = excess(ctx);
     const move = over !== null && over > 0 ? ` ${length(ctx, over)} closer,` : '';

@@ -3,6 +3,7 @@ import { parseEdition, type EditionSlot } from '@/lib/domain/editions';
 import type { FactKind } from '@/lib/domain/facts';
 import { readParam, type RuleSetParameters } from '@/lib/domain/params';
 import type { LengthStyle } from '@/lib/domain/units';
+import { citationText } from '@/lib/domain/vocabulary';
 
 export { areas, type Area } from '@/lib/domain/vocabulary';
 import type { Area } from '@/lib/domain/vocabulary';
@@ -23,7 +24,7 @@ export interface Citation {
 
 /** One section number of a baseline rule, valid for the listed editions of one code. */
 export interface CitationEntry {
-  source: EditionSlot | 'manufacturer' | 'common-practice' | 'local';
+  source: EditionSlot | 'manufacturer' | 'common-practice' | 'physical' | 'local';
   /** Code the section belongs to (IRC, IMC, NEC, IPC, UPC, IFGC); for code sources only. */
   code?: string;
   /** Edition years this section number applies to; omitted = every edition. */
@@ -41,21 +42,31 @@ export interface Messages {
 }
 
 /**
- * A citation and wording that replace the rule's own for a plan where a text fact has the given value
- * (the developed length checked against the dryer maker's maximum cites the maker's-length clause).
+ * A citation a finding shows instead of the rule's own when the plan's facts match `when`: a dwelling in an
+ * IRC jurisdiction cites the IRC's section rather than the IFGC's or the IMC's.
  */
-export interface CitationVariant {
-  when: { fact: string; equals: string | boolean };
-  /** Omitted: the rule's own citation stands and only the wording changes. */
-  citations?: CitationEntry[];
+export interface CitationVariantDefinition {
+  /** Fact values (boolean or text) that must all hold for this citation to be the one shown. */
+  when: Readonly<Record<string, boolean | string>>;
+  /** Only where the jurisdiction adopted this code in this slot (the IRC as its building code). */
+  adopted?: { slot: EditionSlot; code: string };
+  citations: CitationEntry[];
+  /** Added to the citation note; `{citation}` reads as the resolved citation ("IMC 2018 504.6"). */
+  note?: string;
+  /** Wording used instead of the rule's own for these plans (the maker's length, a ventless dryer). */
   messages?: Partial<Messages>;
 }
 
-export interface StoredCitationVariant {
-  when: { fact: string; equals: string | boolean };
+/** A resolved citation as a finding shows it. */
+export interface ResolvedCitation {
   citation: Citation;
   confidence: Confidence;
   citationNote: string | null;
+}
+
+/** A resolved citation variant as a published rule stores it (see `CitationVariantDefinition`). */
+export interface StoredCitationVariant extends ResolvedCitation {
+  when: Record<string, boolean | string>;
   messages?: Partial<Messages>;
 }
 
@@ -66,6 +77,10 @@ export interface RuleDefinition {
   area: Area;
   severity: Severity;
   citations: CitationEntry[];
+  /** Added to the rule's own citation note; `{citation}` reads as the resolved citation. */
+  citationNoteText?: string;
+  /** Citations for particular plans (by building type, by fuel), first match wins; else `citations`. */
+  citationVariants?: CitationVariantDefinition[];
   /** When false the rule is not-applicable; decided after its facts are known. */
   applicability: TopLevelCondition | null;
   /** The passing state; when false the finding takes the rule's severity. */
@@ -78,18 +93,20 @@ export interface RuleDefinition {
   lengthStyle?: LengthStyle;
   messages: Messages;
   remedy: string | null;
-  variants?: CitationVariant[];
 }
 
 /** The rule as a published rule set version stores it, citation resolved to the adopted edition. */
-export interface StoredRule extends Omit<RuleDefinition, 'citations' | 'variants'> {
+export interface StoredRule extends Omit<RuleDefinition, 'citations' | 'citationVariants' | 'citationNoteText'> {
   enabled: boolean;
   citation: Citation;
   confidence: Confidence;
   /** Set when the section number could not be matched to the adopted edition exactly. */
   citationNote: string | null;
-  /** Citations resolved per plan: the first whose fact has the value replaces the rule's own. */
-  variants?: StoredCitationVariant[];
+  /**
+   * Citations for particular plans. They hold only while `citation` is still `base`: a rule re-cited by an
+   * admin (a local amendment) shows the admin's citation for every plan.
+   */
+  citationVariants?: { base: Citation; variants: StoredCitationVariant[] };
 }
 
 export const param = (path: string) => ({ fact: 'params', path: `$.${path}` });
@@ -108,9 +125,10 @@ export const any = (name: string, ...conditions: unknown[]) => ({ name, any: con
 export const manufacturer = (confidence: Confidence = 'S'): CitationEntry => ({ source: 'manufacturer', confidence });
 export const commonPractice = (): CitationEntry => ({ source: 'common-practice', confidence: 'CP' });
 
-const SOURCE_NAMES: Record<'manufacturer' | 'common-practice', string> = {
+const SOURCE_NAMES: Record<'manufacturer' | 'common-practice' | 'physical', string> = {
   manufacturer: "manufacturer's instructions",
   'common-practice': 'common practice',
+  physical: "physical fit (the plan's own sizes)",
 };
 
 /**
@@ -122,7 +140,7 @@ export function resolveCitation(
   params: RuleSetParameters,
 ): { citation: Citation; confidence: Confidence; citationNote: string | null } {
   const first = entries[0];
-  if (first.source === 'manufacturer' || first.source === 'common-practice') {
+  if (first.source === 'manufacturer' || first.source === 'common-practice' || first.source === 'physical') {
     return { citation: { code: SOURCE_NAMES[first.source], edition: null, section: null }, confidence: first.confidence, citationNote: null };
   }
   if (first.source === 'local') {
@@ -162,4 +180,43 @@ export function resolveCitation(
     confidence: 'M',
     citationNote: `The jurisdiction adopted ${adoptedText}; this cites ${fallback.code}${year ? ` ${year}` : ''}. Confirm the equivalent section.`,
   };
+}
+
+const withNote = (resolved: ResolvedCitation, note: string | undefined): ResolvedCitation => {
+  if (!note) return resolved;
+  const text = note.replace(/\{citation\}/g, citationText(resolved.citation));
+  return { ...resolved, citationNote: resolved.citationNote ? `${resolved.citationNote} ${text}` : text };
+};
+
+/** A rule's own citation and its variants for the plans they suit, resolved to the adopted editions. */
+export function resolveRuleCitations(
+  definition: Pick<RuleDefinition, 'citations' | 'citationNoteText' | 'citationVariants'>,
+  params: RuleSetParameters,
+): ResolvedCitation & { citationVariants?: StoredRule['citationVariants'] } {
+  const own = withNote(resolveCitation(definition.citations, params), definition.citationNoteText);
+  const variants = (definition.citationVariants ?? [])
+    .filter((v) => !v.adopted || parseEdition(params.editions[v.adopted.slot])?.code === v.adopted.code)
+    .map((v): StoredCitationVariant => ({
+      when: { ...v.when },
+      ...withNote(resolveCitation(v.citations, params), v.note),
+      ...(v.messages ? { messages: { ...v.messages } } : {}),
+    }));
+  return variants.length > 0 ? { ...own, citationVariants: { base: own.citation, variants } } : own;
+}
+
+const sameCitation = (a: Citation, b: Citation) => a.code === b.code && a.edition === b.edition && a.section === b.section;
+
+/** The variant that suits this plan: the first whose facts all match, while the rule keeps its baseline citation. */
+export function variantForFacts(rule: StoredRule, facts: Readonly<Record<string, unknown>>): StoredCitationVariant | null {
+  const variants = rule.citationVariants;
+  if (!variants || !sameCitation(variants.base, rule.citation)) return null;
+  return variants.variants.find((v) => Object.entries(v.when).every(([fact, value]) => facts[fact] === value)) ?? null;
+}
+
+/** The citation a finding for this plan shows: the first variant whose facts all match, else the rule's own. */
+export function citationForFacts(rule: StoredRule, facts: Readonly<Record<string, unknown>>): ResolvedCitation {
+  const match = variantForFacts(rule, facts);
+  return match
+    ? { citation: match.citation, confidence: match.confidence, citationNote: match.citationNote }
+    : { citation: rule.citation, confidence: rule.confidence, citationNote: rule.citationNote };
 }

@@ -48,6 +48,9 @@ export const conditionSchema: z.ZodType<StoredCondition> = z.lazy(() =>
 
 const topLevelSchema = conditionSchema.refine((c) => !('fact' in c), 'The top level must be all, any, not or a condition reference.');
 
+const citationSchema = z.object({ code: z.string().min(1), edition: z.string().nullable(), section: z.string().nullable() }).strict();
+const confidenceSchema = z.enum(['V', 'S', 'M', 'CP']);
+
 const limitSchema = z.union([valueRefSchema, z.object({ min: valueRefSchema, max: valueRefSchema }).strict()]);
 
 /** The exact shape a published rule set version stores for each rule (JSON). */
@@ -58,12 +61,29 @@ export const storedRuleSchema = z
     area: z.enum(areas as unknown as [string, ...string[]]).describe('Check area.'),
     enabled: z.boolean().describe('Whether the rule runs in this rule set.'),
     severity: z.enum(['fail', 'caution']).describe('Outcome when the conditions are not met.'),
-    citation: z
-      .object({ code: z.string().min(1), edition: z.string().nullable(), section: z.string().nullable() })
-      .strict()
-      .describe('Code, edition and section, resolved to the jurisdiction’s adopted edition.'),
-    confidence: z.enum(['V', 'S', 'M', 'CP']).describe('Source confidence: verified, secondary, from memory, common practice.'),
+    citation: citationSchema.describe('Code, edition and section, resolved to the jurisdiction’s adopted edition.'),
+    confidence: confidenceSchema.describe('Source confidence: verified, secondary, from memory, common practice.'),
     citationNote: z.string().nullable().describe('Why the citation needs confirming, if it does.'),
+    citationVariants: z
+      .object({
+        base: citationSchema,
+        variants: z
+          .array(
+            z
+              .object({
+                when: z.record(z.string(), z.union([z.boolean(), z.string()])),
+                citation: citationSchema,
+                confidence: confidenceSchema,
+                citationNote: z.string().nullable(),
+                messages: z.object({ pass: z.string(), fail: z.string(), notApplicable: z.string() }).partial().strict().optional(),
+              })
+              .strict(),
+          )
+          .max(8),
+      })
+      .strict()
+      .optional()
+      .describe('Citations for particular plans (a dwelling cites the IRC), used while the citation is still `base`.'),
     applicability: topLevelSchema.nullable().describe('When false the finding is not-applicable.'),
     conditions: topLevelSchema.describe('The passing state.'),
     requires: z.array(z.string().min(1)).describe('Facts the conditions need; a null one gives needs-info.'),
@@ -76,21 +96,6 @@ export const storedRuleSchema = z
       .strict()
       .describe('Message templates; {measured} and {limit} are replaced with display values.'),
     remedy: z.string().nullable().describe('Remedy key.'),
-    variants: z
-      .array(
-        z
-          .object({
-            when: z.object({ fact: z.string().min(1), equals: z.union([z.string().min(1), z.boolean()]) }).strict(),
-            citation: z.object({ code: z.string().min(1), edition: z.string().nullable(), section: z.string().nullable() }).strict(),
-            confidence: z.enum(['V', 'S', 'M', 'CP']),
-            citationNote: z.string().nullable(),
-            messages: z.object({ pass: z.string(), fail: z.string(), notApplicable: z.string() }).partial().strict().optional(),
-          })
-          .strict(),
-      )
-      .max(8)
-      .optional()
-      .describe('Citations and wording used instead of the rule’s own where a text fact has the given value.'),
   })
   .strict();
 
@@ -187,8 +192,10 @@ export function validateRuleAgainstCatalog(rule: unknown): FieldError[] {
       errors.push({ path: 'requires', message: `The conditions read '${fact}'; list it in requires so a missing value gives needs-info.` });
     }
   }
-  stored.variants?.forEach((variant, i) => {
-    if (!factsByName.has(variant.when.fact)) errors.push({ path: `variants.${i}.when.fact`, message: `Unknown fact '${variant.when.fact}'.` });
+  stored.citationVariants?.variants.forEach((variant, i) => {
+    for (const fact of Object.keys(variant.when)) {
+      if (!factsByName.has(fact)) errors.push({ path: `citationVariants.variants.${i}.when`, message: `Unknown fact '${fact}'.` });
+    }
   });
   if (stored.measured !== null && !factsByName.has(stored.measured)) {
     errors.push({ path: 'measured', message: `Unknown fact '${stored.measured}'.` });
