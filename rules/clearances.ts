@@ -8,7 +8,7 @@ const MAKER =
  * appliances and G2408.1 for gas appliances (TRADE.md S); for other buildings IMC 304.1 (from memory) and
  * IFGC 305.1 (S).
  */
-const LISTING: CitationEntry[] = [{ source: 'mechanical', code: 'IMC', section: '304.1', confidence: 'M' }];
+export const LISTING: CitationEntry[] = [{ source: 'mechanical', code: 'IMC', section: '304.1', confidence: 'M' }];
 export const LISTING_VARIANTS: CitationVariantDefinition[] = [
   {
     when: { 'space.isDwelling': true, 'gas.isGasDryer': true },

@@ -89,7 +89,7 @@ export const gasRules: RuleDefinition[] = [
     key: 'gas.makeup-air',
     title: 'Make-up air for a gas dryer in a closet',
     area: 'gas',
-    severity: 'caution',
+    severity: 'fail',
     // From memory (TRADE.md M): the fuel-gas chapter repeats the closet make-up air rule.
     citations: gas('G2439.5', '614.6', 'M'),
     citationVariants: inDwelling('G2439.5', 'M'),

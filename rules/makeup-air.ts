@@ -1,5 +1,27 @@
 import { DUCT_REQUIRED, VENTLESS } from '@/rules/exhaust';
-import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import { all, cond, param, type CitationEntry, type CitationVariantDefinition, type RuleDefinition } from '@/lib/domain/rule-format/define';
+import { LISTING } from '@/rules/clearances';
+
+// The dryer's own listing: IRC M1307.1, or G2408.1 for a gas dryer (TRADE.md S); IFGC 305.1 elsewhere.
+const DRYER_LISTING_VARIANTS: CitationVariantDefinition[] = [
+  {
+    when: { 'space.isDwelling': true, 'gas.isGasDryer': true },
+    adopted: { slot: 'building', code: 'IRC' },
+    citations: [{ source: 'building', code: 'IRC', section: 'G2408.1', confidence: 'S' }],
+  },
+  {
+    when: { 'space.isDwelling': true },
+    adopted: { slot: 'building', code: 'IRC' },
+    citations: [{ source: 'building', code: 'IRC', section: 'M1307.1', confidence: 'S' }],
+  },
+  {
+    when: { 'gas.isGasDryer': true },
+    citations: [
+      { source: 'fuelGas', code: 'IFGC', section: '305.1', confidence: 'S' },
+      { source: 'fuelGas', code: 'IRC', section: 'G2408.1', confidence: 'S' },
+    ],
+  },
+];
 
 const imc = (section: string, confidence: CitationEntry['confidence'], years: number[]): CitationEntry => ({
   source: 'mechanical',
@@ -47,8 +69,10 @@ export const makeupAirRules: RuleDefinition[] = [
     key: 'makeup-air.maker-closet-vent',
     title: "Closet vents the dryer maker asks for",
     area: 'makeup-air',
-    severity: 'caution',
-    citations: [manufacturer('S')],
+    // The maker's instructions bind through installation per the listing (IRC M1307.1, G2408.1).
+    severity: 'fail',
+    citations: LISTING,
+    citationVariants: DRYER_LISTING_VARIANTS,
     applicability: all(
       'maker-gives-figures',
       cond('space-is-closet', 'makeupAir.isCloset', 'equal', true),
@@ -65,7 +89,7 @@ export const makeupAirRules: RuleDefinition[] = [
     unit: 'area',
     messages: {
       pass: "Top and bottom openings meet the dryer maker's closet-vent figures (top {measured}, {limit} asked).",
-      fail: "The openings fall short of the dryer maker's closet-vent figures (top {measured}, {limit} asked; see the bottom figure too). Gaps around doors do not count.",
+      fail: "The openings fall short of the dryer maker's closet-vent figures (top {measured}, {limit} asked; see the bottom figure too). Gaps around doors do not count. The maker's instructions are part of the listing the code requires the dryer to be installed by; a starved dryer runs hot.",
       notApplicable: "The dryer maker gives no closet-vent figures, or the space is not a closet.",
     },
     remedy: 'makeup-air.maker-vents',

@@ -1,3 +1,4 @@
+import { LISTING, LISTING_VARIANTS } from '@/rules/clearances';
 import { all, cond, manufacturer, param, type CitationEntry, type RuleDefinition } from '@/lib/domain/rule-format/define';
 
 const code = (family: 'IRC' | 'IPC' | 'UPC', section: string, confidence: CitationEntry['confidence']): CitationEntry => ({
@@ -143,7 +144,8 @@ export const plumbingRules: RuleDefinition[] = [
     area: 'plumbing',
     severity: 'fail',
     // Where the maker of a condensing or heat-pump dryer calls for a drain, its instructions bind (IRC M1307.1, TRADE.md S).
-    citations: [manufacturer('S')],
+    citations: LISTING,
+    citationVariants: LISTING_VARIANTS,
     applicability: all(
       'ventless-with-drain',
       cond('dryer-needs-no-duct', 'exhaust.ductRequired', 'equal', false),

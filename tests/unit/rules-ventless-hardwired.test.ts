@@ -72,7 +72,8 @@ describe('ventless dryers', () => {
     );
     expect(nowhere.status).toBe('fail');
     expect(nowhere.failedCondition).toBe('drains-to-receptor');
-    expect(nowhere.citation).toEqual({ code: "manufacturer's instructions", edition: null, section: null });
+    // The maker's instructions bind through IRC M1307.1 in a dwelling (TRADE.md S).
+    expect(nowhere.citation).toEqual({ code: 'IRC', edition: '2018', section: 'M1307.1' });
   });
 });
 
