@@ -99,4 +99,21 @@ describe('exhaust schematic', () => {
     expect(drawing.segments[0].equivalentIn).toBe(2 * FT + 6); // IRC 2018 Table M1502.4.5.1: mitered 45° = 2 ft 6 in
     expect(drawing.notes.some((n) => n.includes('counted as 4-in radius mitered'))).toBe(true);
   });
+
+  it('a ventless dryer: no route drawn and none asked for', () => {
+    // IRC M1502.2 exception: a listed condensing dryer needs no exhaust duct (TRADE.md S).
+    const plan = planOf(
+      variant((p) => {
+        Object.assign(p.dryer, { type: 'condensing', condensate: 'reservoir' });
+        delete p.exhaust;
+      }),
+    );
+    const drawing = exhaustSchematic(plan, { params });
+    expect(drawing.missing).toEqual([]);
+    expect(drawing.segments).toEqual([]);
+    expect(drawing.shapes.some((s) => s.kind === 'text' && /needs none/.test(s.text))).toBe(true);
+    // The same plan as vented asks for its route.
+    const vented = planOf(variant((p) => delete p.exhaust));
+    expect(exhaustSchematic(vented, { params }).missing).toContain('exhaust.run');
+  });
 });

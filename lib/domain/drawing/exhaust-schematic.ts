@@ -50,6 +50,36 @@ function describe(item: RunItem): string {
   return `${item.elbow}° elbow, ${fitting}`;
 }
 
+/** A listed condensing or heat-pump dryer has no route to draw, and none is asked for. */
+function ventlessSchematic(allowed: number): ExhaustSchematic {
+  const text = 1;
+  const shapes: Shape[] = [
+    {
+      kind: 'text',
+      role: 'note',
+      at: [0, text * 1.5],
+      text: 'No exhaust duct: a listed condensing or heat-pump dryer needs none (IRC M1502.2 exception).',
+      size: text,
+      anchor: 'start',
+    },
+  ];
+  return {
+    kind: 'exhaust-schematic',
+    title: 'Exhaust route and developed length',
+    scale: 'schematic',
+    ...frame(shapes, text * 1.5),
+    missing: [],
+    notes: ["Follow the dryer maker's instructions for its condensate drain or reservoir and its closet clearances."],
+    caution: DRAWING_CAUTION,
+    segments: [],
+    transitionLengthIn: null,
+    developedLengthIn: null,
+    allowedLengthIn: allowed,
+    allowedLengthSource: 'code',
+    overByIn: null,
+  };
+}
+
 /**
  * The exhaust route as a ladder: one row per piece, in order from the transition connection,
  * each bar as long as what the piece counts, starting where the previous one ended. Along x the
@@ -60,6 +90,7 @@ export function exhaustSchematic(plan: Plan, options: DrawingOptions): ExhaustSc
   const marks = toMarks(options.marks);
   const { facts, missing: factMissing } = computeFactsWithMissing(plan, params);
   const fmt = (inches: number) => formatLength(inches, plan.units);
+  if (facts['exhaust.ductRequired'] === false) return ventlessSchematic(facts['exhaust.allowedLengthIn'] as number);
   const exhaust = plan.exhaust;
   const run = exhaust?.run ?? [];
   const missing: PlanFieldPath[] = [];
