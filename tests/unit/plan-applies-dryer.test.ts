@@ -24,6 +24,7 @@ describe('dryer type, condensate and exhaust fields in the editor', () => {
     expect(plan.exhaust).toBeUndefined();
     expect(plan.dryer.exhaustCfm).toBeUndefined();
     expect(plan.dryer.maxDuctLength).toBeUndefined();
+    expect(roundTrip(variant((p) => Object.assign(p.dryer, { type }, (p.makeupAir.providedCfm = 200) && {}))).makeupAir.providedCfm).toBeUndefined();
     expect(plan.dryer).toMatchObject({ type, condensate: 'drain', condensateDrainTo: 'standpipe', condensateDrainReachable: true });
     // The maker's closet figures still apply to a ventless dryer.
     expect(plan.dryer.clearances).toEqual(hallClosetPassPlan.dryer.clearances);

@@ -507,7 +507,14 @@ export const planRegistry = {
             },
           },
         },
-        providedCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', label: 'Make-up air by other means', help: 'Make-up air supplied by other means, cubic feet per minute.' },
+        providedCfm: {
+          kind: 'number',
+          unit: 'cfm',
+          min: 'nonnegative',
+          label: 'Make-up air by other means',
+          help: 'Make-up air supplied by other means, cubic feet per minute.',
+          applies: ventedDryer,
+        },
       },
     },
     electrical: {
