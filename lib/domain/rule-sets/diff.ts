@@ -30,7 +30,7 @@ export function diffValues(from: unknown, to: unknown, path = ''): ValueChange[]
 // Rule fields shown as one unit each: a condition tree is reviewed as a whole.
 const RULE_FIELDS: readonly (keyof StoredRule)[] = [
   'title', 'area', 'enabled', 'severity', 'citation', 'confidence', 'citationNote', 'applicability', 'conditions',
-  'requires', 'measured', 'limit', 'unit', 'lengthStyle', 'messages', 'remedy',
+  'requires', 'measured', 'limit', 'unit', 'lengthStyle', 'messages', 'remedy', 'citationVariants',
 ];
 
 function diffRule(from: StoredRule, to: StoredRule): ValueChange[] {
