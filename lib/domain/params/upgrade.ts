@@ -1,7 +1,7 @@
 import { unchanged, upgradeStored, type UpgradeChain } from '@/lib/domain/history/upgrade';
 
 /** The shape of a rule set's parameters that this build writes and reads; bump it with every change to that shape. */
-export const PARAMETERS_SCHEMA_VERSION = 1;
+export const PARAMETERS_SCHEMA_VERSION = 2;
 
 export const parameterUpgrades: UpgradeChain = {
   what: 'Rule set parameters',
@@ -9,6 +9,9 @@ export const parameterUpgrades: UpgradeChain = {
   steps: {
     // Version 0: saved before versions were recorded, by the schema that became version 1.
     0: unchanged,
+    // Version 2 records the local amendment's citation for each changed parameter. Older versions
+    // cited none: an empty list keeps their meaning (citations change no outcome).
+    1: (stored) => ({ ...(stored as Record<string, unknown>), amendments: [] }),
   },
 };
 
