@@ -5,6 +5,7 @@ import type { RuleSetStatus } from '@/db/types';
 import type { RuleSetParameters } from '@/lib/domain/params';
 import { PARAMETERS_SCHEMA_VERSION, upgradeParameters } from '@/lib/domain/params/upgrade';
 import type { StoredRule } from '@/lib/domain/rule-format';
+import { carryCitationMarks } from '@/db/citation-checks';
 
 export type RuleSetVersion = {
   id: string;
@@ -209,12 +210,15 @@ export async function insertDraft(trx: DB, input: DraftInput): Promise<RuleSetVe
     .returning('id')
     .executeTakeFirstOrThrow();
   if (input.rules.length) await trx.insertInto('rules').values(input.rules.map((r, i) => ruleToRow(r, row.id, i))).execute();
+  const carriedMarks = input.basedOnId
+    ? await carryCitationMarks(trx, { fromRuleSetId: input.basedOnId, toRuleSetId: row.id, jurisdictionId: input.jurisdictionId, rules: input.rules })
+    : 0;
   await writeAudit(trx, {
     actorUserId: input.actorUserId,
     action: 'rule-set.draft.create',
     entityType: 'rule_set',
     entityId: row.id,
-    details: { jurisdictionId: input.jurisdictionId, version, source: input.source, basedOnId: input.basedOnId },
+    details: { jurisdictionId: input.jurisdictionId, version, source: input.source, basedOnId: input.basedOnId, carriedCitationChecks: carriedMarks },
   });
   return toVersion(await versionQuery(trx).where('s.id', '=', row.id).executeTakeFirstOrThrow());
 }

@@ -34,6 +34,8 @@ export const jurisdictionCreateSchema = z
     startFrom: z.string().trim().min(1, 'Choose where the first draft comes from.'),
     // Set to publish the starting rules unchanged at once, with this changelog note.
     publishChangelog: z.string().trim().min(1, 'Write the changelog note for the first version.').max(4000).optional(),
+    // With publishChangelog: publishes although its from-memory citations are not yet checked.
+    confirm: z.boolean().optional(),
   })
   .strict();
 

@@ -20,7 +20,12 @@ export const draftSaveSchema = z
 export const ruleSaveSchema = z.object({ revision, rule: z.unknown() }).strict();
 
 export const publishSchema = z
-  .object({ revision, changelog: z.string().trim().min(1, 'Write a changelog note: what changed and why (e.g. the local amendment it records).').max(4000) })
+  .object({
+    revision,
+    changelog: z.string().trim().min(1, 'Write a changelog note: what changed and why (e.g. the local amendment it records).').max(4000),
+    // Publishes although from-memory citations are not yet checked against the adopted text.
+    confirm: z.boolean().optional(),
+  })
   .strict();
 
 export const retireSchema = z
