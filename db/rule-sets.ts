@@ -350,13 +350,14 @@ export async function discardDraft(db: DB, input: { id: string; revision: number
   );
 }
 
-type PublishInput = { id: string; revision: number; changelog: string; actorUserId: string | null; validate: (draft: RuleSetWithRules) => void };
+/** `validate` throws to refuse; what it returns is recorded with the publish audit entry (e.g. what the admin confirmed). */
+type PublishInput = { id: string; revision: number; changelog: string; actorUserId: string | null; validate: (draft: RuleSetWithRules) => void | Record<string, unknown> };
 
 /** The publish steps inside the caller's transaction (also used for a new jurisdiction published at once). */
 export async function publishWithin(trx: DB, input: PublishInput): Promise<{ retired: { id: string; version: number } | null }> {
   const claimed = await claimRevision(trx, input.id, input.revision);
   const draft = await findRuleSetById(trx, input.id);
-  input.validate(draft!);
+  const confirmed = input.validate(draft!) ?? {};
   const previous = await trx
     .selectFrom('rule_sets')
     .select(['id', 'version'])
@@ -385,7 +386,7 @@ export async function publishWithin(trx: DB, input: PublishInput): Promise<{ ret
     action: 'rule-set.publish',
     entityType: 'rule_set',
     entityId: input.id,
-    details: { jurisdictionId: claimed.jurisdictionId, version: claimed.version, changelog: input.changelog, retiredVersion: previous?.version ?? null },
+    details: { jurisdictionId: claimed.jurisdictionId, version: claimed.version, changelog: input.changelog, retiredVersion: previous?.version ?? null, ...confirmed },
   });
   return { retired: previous ?? null };
 }

@@ -6,7 +6,6 @@ import { jurisdictionCreateSchema } from '@/lib/domain/rule-sets/jurisdiction-sc
 import { publishErrors } from '@/lib/domain/rule-sets/publish-check';
 import { ValidationError } from '@/lib/domain/errors';
 import { assertUncheckedConfirmed } from '@/lib/services/rule-sets/citations';
-import { writeAudit } from '@/db/audit';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, parseBody, route } from '@/lib/platform/http';
 
@@ -30,16 +29,12 @@ export const POST = route(async (request) => {
   const user = await requireUser(request, ['admin']);
   const input = await parseBody(request, jurisdictionCreateSchema);
   const { confirm, ...fields } = input;
-  let unchecked: { ruleKey: string; citation: string }[] = [];
-  const db = getDb();
-  const created = await createJurisdictionWithDraft(db, fields, user.id, (draft) => {
+  const created = await createJurisdictionWithDraft(getDb(), fields, user.id, (draft) => {
     const errors = publishErrors(draft);
     if (errors.length) throw new ValidationError(errors, 'The starting rules cannot be published as they are.');
     // A new draft has no checked citations yet: publishing it at once confirms them unchecked.
-    unchecked = assertUncheckedConfirmed(draft, new Map(), confirm);
+    const unchecked = assertUncheckedConfirmed(draft, new Map(), confirm);
+    return unchecked.length ? { uncheckedConfirmed: unchecked } : {};
   });
-  if (input.publishChangelog && unchecked.length) {
-    await writeAudit(db, { actorUserId: user.id, action: 'rule-set.publish.unchecked-confirmed', entityType: 'rule_set', entityId: created.draft.id, details: { jurisdictionId: created.jurisdiction.id, version: created.draft.version, unchecked } });
-  }
   return json(created, 201);
 });

@@ -33,6 +33,7 @@ export const retireSchema = z
     successorId: z.uuid({ error: 'Pick the draft that replaces this version; a published version is only retired when a successor is published in its place.' }),
     revision,
     changelog: z.string().trim().min(1, 'Write the changelog note for the successor.').max(4000),
+    confirm: z.boolean().optional(),
   })
   .strict();
 

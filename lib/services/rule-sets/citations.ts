@@ -1,6 +1,5 @@
 import 'server-only';
 import type { DB } from '@/db';
-import { writeAudit } from '@/db/audit';
 import { latestCitationMarks, recordCitationMark } from '@/db/citation-checks';
 import { publishDraft, type RuleSetWithRules } from '@/db/rule-sets';
 import { ConfirmationRequiredError } from '@/lib/domain/errors';
@@ -44,11 +43,10 @@ export function assertUncheckedConfirmed(draft: Pick<RuleSetWithRules, 'rules'>,
 
 /**
  * Publishes a draft. From-memory citations nobody checked against the adopted text need the admin's
- * explicit confirmation (`confirm: true`); the confirmation is audited with the list it covered.
+ * explicit confirmation (`confirm: true`); the publish audit entry records the list it covered.
  */
 export async function publishRuleSet(db: DB, actor: AppUser, set: RuleSetWithRules, input: { revision: number; changelog: string; confirm?: boolean }) {
   const marks = await latestCitationMarks(db, set.id);
-  let unchecked: ReturnType<typeof uncheckedMemoryCitations> = [];
   const result = await publishDraft(db, {
     id: set.id,
     revision: input.revision,
@@ -56,17 +54,9 @@ export async function publishRuleSet(db: DB, actor: AppUser, set: RuleSetWithRul
     actorUserId: actor.id,
     validate: (draft) => {
       assertPublishable(draft, 'This draft cannot be published yet.');
-      unchecked = assertUncheckedConfirmed(draft, marks, input.confirm);
+      const unchecked = assertUncheckedConfirmed(draft, marks, input.confirm);
+      return unchecked.length ? { uncheckedConfirmed: unchecked } : {};
     },
   });
-  if (unchecked.length) {
-    await writeAudit(db, {
-      actorUserId: actor.id,
-      action: 'rule-set.publish.unchecked-confirmed',
-      entityType: 'rule_set',
-      entityId: set.id,
-      details: { jurisdictionId: set.jurisdictionId, version: set.version, unchecked },
-    });
-  }
   return result;
 }
