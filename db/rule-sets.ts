@@ -5,6 +5,7 @@ import type { RuleSetStatus } from '@/db/types';
 import type { RuleSetParameters } from '@/lib/domain/params';
 import { PARAMETERS_SCHEMA_VERSION, upgradeParameters } from '@/lib/domain/params/upgrade';
 import type { StoredRule } from '@/lib/domain/rule-format';
+import { carryCitationMarks } from '@/db/citation-checks';
 
 export type RuleSetVersion = {
   id: string;
@@ -209,12 +210,15 @@ export async function insertDraft(trx: DB, input: DraftInput): Promise<RuleSetVe
     .returning('id')
     .executeTakeFirstOrThrow();
   if (input.rules.length) await trx.insertInto('rules').values(input.rules.map((r, i) => ruleToRow(r, row.id, i))).execute();
+  const carriedMarks = input.basedOnId
+    ? await carryCitationMarks(trx, { fromRuleSetId: input.basedOnId, toRuleSetId: row.id, jurisdictionId: input.jurisdictionId, rules: input.rules })
+    : 0;
   await writeAudit(trx, {
     actorUserId: input.actorUserId,
     action: 'rule-set.draft.create',
     entityType: 'rule_set',
     entityId: row.id,
-    details: { jurisdictionId: input.jurisdictionId, version, source: input.source, basedOnId: input.basedOnId },
+    details: { jurisdictionId: input.jurisdictionId, version, source: input.source, basedOnId: input.basedOnId, carriedCitationChecks: carriedMarks },
   });
   return toVersion(await versionQuery(trx).where('s.id', '=', row.id).executeTakeFirstOrThrow());
 }
@@ -346,13 +350,14 @@ export async function discardDraft(db: DB, input: { id: string; revision: number
   );
 }
 
-type PublishInput = { id: string; revision: number; changelog: string; actorUserId: string | null; validate: (draft: RuleSetWithRules) => void };
+/** `validate` throws to refuse; what it returns is recorded with the publish audit entry (e.g. what the admin confirmed). */
+type PublishInput = { id: string; revision: number; changelog: string; actorUserId: string | null; validate: (draft: RuleSetWithRules) => void | Record<string, unknown> };
 
 /** The publish steps inside the caller's transaction (also used for a new jurisdiction published at once). */
 export async function publishWithin(trx: DB, input: PublishInput): Promise<{ retired: { id: string; version: number } | null }> {
   const claimed = await claimRevision(trx, input.id, input.revision);
   const draft = await findRuleSetById(trx, input.id);
-  input.validate(draft!);
+  const confirmed = input.validate(draft!) ?? {};
   const previous = await trx
     .selectFrom('rule_sets')
     .select(['id', 'version'])
@@ -381,7 +386,7 @@ export async function publishWithin(trx: DB, input: PublishInput): Promise<{ ret
     action: 'rule-set.publish',
     entityType: 'rule_set',
     entityId: input.id,
-    details: { jurisdictionId: claimed.jurisdictionId, version: claimed.version, changelog: input.changelog, retiredVersion: previous?.version ?? null },
+    details: { jurisdictionId: claimed.jurisdictionId, version: claimed.version, changelog: input.changelog, retiredVersion: previous?.version ?? null, ...confirmed },
   });
   return { retired: previous ?? null };
 }

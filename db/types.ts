@@ -145,6 +145,21 @@ export interface RuleSetsTable {
   retired_at: Timestamp | null;
 }
 
+/** Append-only marks that a rule's citation was checked against the adopted text (draft versions only). */
+export interface CitationChecksTable {
+  id: Generated<string>;
+  jurisdiction_id: string;
+  rule_set_id: string;
+  rule_key: string;
+  citation: string;
+  checked: boolean;
+  checked_against: string | null;
+  checked_by: string | null;
+  checked_by_name: string;
+  checked_at: CreatedAt;
+  carried_from_id: string | null;
+}
+
 export interface RulesTable {
   id: Generated<string>;
   rule_set_id: string;
@@ -284,6 +299,7 @@ export interface Database {
   audit_log: AuditLogTable;
   rule_sets: RuleSetsTable;
   rules: RulesTable;
+  citation_checks: CitationChecksTable;
   projects: ProjectsTable;
   plan_revisions: PlanRevisionsTable;
   checks: ChecksTable;

@@ -12,6 +12,7 @@ import type { StoredRule } from '@/lib/domain/rule-format';
 import { DryRunResults } from '@/components/admin/dry-run-results';
 import { ParametersForm } from '@/components/admin/parameters-form';
 import { FactReference, RuleTable } from '@/components/admin/rule-editor';
+import { CitationChecks, type CitationList } from '@/components/admin/citation-checks';
 
 type DraftSet = Omit<RuleSetWithRules, 'createdAt' | 'updatedAt' | 'publishedAt' | 'retiredAt'> & { updatedAt: string | Date };
 type DryRun = { published: { version: number } | null; draft: { version: number; revision: number }; subjects: SubjectComparison[]; totals: { subjects: number; changed: number; newlyFailing: number; newlyPassing: number } };
@@ -41,6 +42,8 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
   const [changelog, setChangelog] = useState(initial.changelog);
   const [publishError, setPublishError] = useState<string | null>(null);
   const [publishing, setPublishing] = useState(false);
+  const [confirmUnchecked, setConfirmUnchecked] = useState<string | null>(null);
+  const citations = useSWR<CitationList>(`${url}/citations`, swrFetcher, { revalidateOnFocus: false });
 
   /** Every write goes through here: on success the new revision is kept, on 409 the conflict is shown. */
   async function write(path: string, init: { method: string; json?: unknown }) {
@@ -49,6 +52,7 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
       setConflict(null);
       await mutate(next, { revalidate: false });
       if (dryRun) setDryRunState('stale');
+      void citations.mutate();
       return next;
     } catch (err) {
       if (err instanceof ApiError && err.status === 409) setConflict(err.message);
@@ -86,15 +90,18 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
     }
   }
 
-  async function publish() {
+  async function publish(confirm = false) {
     setPublishError(null);
     setPublishing(true);
     try {
-      await fetchJson(`${url}/publish`, { method: 'POST', json: { revision: set.revision, changelog } });
+      await fetchJson(`${url}/publish`, { method: 'POST', json: { revision: set.revision, changelog, ...(confirm ? { confirm: true } : {}) } });
       router.push(`/rules/${slug}/impact?published=${set.version}`);
       router.refresh();
     } catch (err) {
-      if (err instanceof ApiError && err.status === 409) setConflict(err.message);
+      if (err instanceof ApiError && err.status === 409 && err.errors[0]?.path === 'confirm') {
+        await citations.mutate();
+        setConfirmUnchecked(err.message);
+      } else if (err instanceof ApiError && err.status === 409) setConflict(err.message);
       else if (err instanceof ApiError && err.errors.length) setPublishError(err.errors.map((e) => `${e.path}: ${e.message}`).join(' '));
       else setPublishError((err as Error).message);
       setPublishing(false);
@@ -136,6 +143,19 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
         <div className="mt-3"><FactReference /></div>
       </section>
 
+      <section className="card p-5" aria-labelledby="cite-h">
+        <h2 id="cite-h" className="text-lg font-bold">Citations checked against the adopted text</h2>
+        <p className="mt-1 text-sm text-ink-soft">
+          Mark each code citation once you have read the section in the code as this jurisdiction adopted it. Reports tell the inspector which
+          citations the jurisdiction checked and when; marks are kept on record and carried into the next draft while the citation stays the same.
+        </p>
+        {citations.data ? (
+          <div className="mt-3"><CitationChecks list={citations.data} url={`${url}/citations`} readOnly={false} onChange={() => citations.mutate()} /></div>
+        ) : (
+          <p className="mt-3 text-sm text-ink-soft">{citations.error ? (citations.error as Error).message : 'Loading citations…'}</p>
+        )}
+      </section>
+
       <section className="card p-5" aria-labelledby="dry-h">
         <div className="flex flex-wrap items-center justify-between gap-3">
           <h2 id="dry-h" className="text-lg font-bold">Dry run</h2>
@@ -166,9 +186,26 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
         {publishError && <p id="publish-error" role="alert" className="field-error">{publishError}</p>}
         <div className="mt-3 flex flex-wrap gap-2">
           <button type="button" className="btn-secondary" onClick={() => write(url, { method: 'PATCH', json: { revision: set.revision, changelog } }).catch((err) => setPublishError((err as Error).message))}>Save note</button>
-          <button type="button" className="btn-primary" onClick={publish} disabled={publishing}>{publishing ? 'Publishing…' : `Publish version ${set.version}`}</button>
+          <button type="button" className="btn-primary" onClick={() => publish()} disabled={publishing}>{publishing ? 'Publishing…' : `Publish version ${set.version}`}</button>
           <button type="button" className="btn-danger" onClick={discard}>Discard draft</button>
         </div>
+        {confirmUnchecked && (
+          <div role="alertdialog" aria-labelledby="confirm-h" aria-describedby="confirm-d" className="card mt-4 border-status-caution p-4" data-testid="publish-confirm">
+            <h3 id="confirm-h" className="font-bold">Publish with citations not yet checked?</h3>
+            <p id="confirm-d" className="mt-1 text-sm">
+              These citations are from memory and nobody has checked them against the adopted text. Reports will tell the inspector they are not
+              yet checked by the jurisdiction.
+            </p>
+            <ul className="mt-2 list-disc pl-5 text-sm" data-testid="publish-confirm-list">
+              {(citations.data?.uncheckedMemory ?? []).map((u) => <li key={u.ruleKey}><span className="font-mono">{u.citation}</span> — {u.title}</li>)}
+            </ul>
+            {!citations.data && <p className="mt-2 text-sm">{confirmUnchecked}</p>}
+            <div className="mt-3 flex flex-wrap gap-2">
+              <button type="button" className="btn-primary" onClick={() => { setConfirmUnchecked(null); void publish(true); }} disabled={publishing}>Publish with them unchecked</button>
+              <button type="button" className="btn-secondary" onClick={() => setConfirmUnchecked(null)}>Go back and check them</button>
+            </div>
+          </div>
+        )}
       </section>
     </div>
   );

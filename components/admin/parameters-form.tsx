@@ -1,12 +1,47 @@
 'use client';
 
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { createContext, useContext, useMemo, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
 import { fieldsOf, readPath, type FormField } from '@/lib/domain/rule-sets/form-schema';
 import { ApiError } from '@/lib/platform/client/fetch-json';
 import { ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { formatLength } from '@/lib/domain/units';
+import { defaultParameters } from '@/lib/domain/params/defaults';
+import { parameterValueText } from '@/lib/domain/params/amendments';
+import { sameJson } from '@/lib/domain/rule-sets/stable-json';
+
+type Amending = { model: RuleSetParameters | null; citations: Record<string, string>; setCitation: (path: string, text: string) => void; readOnly: boolean };
+const AmendingContext = createContext<Amending>({ model: null, citations: {}, setCitation: () => {}, readOnly: true });
+
+function modelFor(parameters: RuleSetParameters): RuleSetParameters | null {
+  try {
+    return defaultParameters(parameters.editions);
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Shown under a parameter once it differs from the model code's value for the adopted editions: the
+ * local amendment that makes the change must be cited before the draft saves.
+ */
+function AmendmentCitation({ control, path }: { control: Control<Values>; path: string }) {
+  const { model, citations, setCitation, readOnly } = useContext(AmendingContext);
+  const value = useWatch({ control, name: path });
+  if (!model) return null;
+  const modelValue = readPath(model, path);
+  if (modelValue === undefined || sameJson(value, modelValue)) return null;
+  const id = `${idFor(path)}-amendment`;
+  return (
+    <div className="mt-1 rounded-md bg-paper-deep px-2 py-1" data-testid={`amendment-${path}`}>
+      <label htmlFor={id} className="block text-xs text-ink-soft">
+        Changed from the model value {parameterValueText(path, modelValue)}: local amendment (ordinance or amendment section)
+      </label>
+      <input id={id} className="field-input max-w-md" value={citations[path] ?? ''} disabled={readOnly} maxLength={200} onChange={(e) => setCitation(path, e.target.value)} placeholder="e.g. Ord. 12-34 §2" />
+    </div>
+  );
+}
 
 // Generated once from the zod schema: a parameter added there appears here with its description as label.
 const FIELDS = fieldsOf(ruleSetParametersSchema);
@@ -65,6 +100,7 @@ function Leaf({ field, path, register, errors, control, readOnly }: { field: Exc
       </label>
       {input}
       {message && <p id={`${id}-error`} role="alert" className="field-error">{message}</p>}
+      {!path.startsWith('editions.') && !/Section$/.test(path) && <AmendmentCitation control={control} path={path} />}
     </div>
   );
 }
@@ -97,6 +133,7 @@ function Rows({ field, control, register, errors, readOnly }: { field: Extract<F
       </table>
       {!readOnly && <button type="button" className="btn-secondary mt-2 px-2 py-1" onClick={() => append(Object.fromEntries(field.row.map((c) => [c.path, 0])) as never)}>Add row</button>}
       {message && <p role="alert" className="field-error">{message}</p>}
+      <AmendmentCitation control={control} path={field.path} />
     </fieldset>
   );
 }
@@ -119,6 +156,8 @@ function Group({ fields, columns = false, ...rest }: { fields: FormField[]; colu
             </fieldset>
           );
         }
+        // Entered beside each changed parameter instead (AmendmentCitation).
+        if (f.path === 'amendments') return null;
         if (f.kind === 'group') {
           return (
             <fieldset key={f.path} className="space-y-3 border-t border-rule pt-4 md:col-span-2">
@@ -140,6 +179,9 @@ function Group({ fields, columns = false, ...rest }: { fields: FormField[]; colu
  */
 export function ParametersForm({ parameters, readOnly = false, onSave }: { parameters: RuleSetParameters; readOnly?: boolean; onSave?: (parameters: RuleSetParameters) => Promise<void> }) {
   const [status, setStatus] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
+  const model = useMemo(() => modelFor(parameters), [parameters]);
+  const [citations, setCitations] = useState<Record<string, string>>(() => Object.fromEntries((parameters.amendments ?? []).map((a) => [a.parameter, a.citation])));
+  const amending = useMemo<Amending>(() => ({ model, citations, readOnly, setCitation: (path, text) => setCitations((c) => ({ ...c, [path]: text })) }), [model, citations, readOnly]);
   const { register, control, handleSubmit, setError, formState: { errors, isSubmitting, isDirty }, reset } = useForm<Values>({
     resolver: zodResolver(ruleSetParametersSchema as never),
     defaultValues: parameters as unknown as Values,
@@ -149,7 +191,11 @@ export function ParametersForm({ parameters, readOnly = false, onSave }: { param
     if (!onSave) return;
     setStatus(null);
     try {
-      await onSave(values as unknown as RuleSetParameters);
+      // Only the citations of values still changed are kept: a value set back to the model needs none.
+      const amendments = Object.entries(citations)
+        .filter(([path, text]) => text.trim() !== '' && model && !sameJson(readPath(values, path), readPath(model, path)))
+        .map(([parameter, citation]) => ({ parameter, citation: citation.trim() }));
+      await onSave({ ...(values as unknown as RuleSetParameters), amendments });
       reset(values);
       setStatus({ kind: 'ok', text: 'Parameters saved to the draft.' });
     } catch (err) {
@@ -162,7 +208,9 @@ export function ParametersForm({ parameters, readOnly = false, onSave }: { param
 
   return (
     <form onSubmit={handleSubmit(submit, () => setStatus({ kind: 'error', text: 'Some parameters need attention; nothing was saved.' }))} noValidate aria-label="Rule set parameters">
-      <Group fields={FIELDS} values={parameters} control={control} register={register} errors={errors} readOnly={readOnly} />
+      <AmendingContext.Provider value={amending}>
+        <Group fields={FIELDS} values={parameters} control={control} register={register} errors={errors} readOnly={readOnly} />
+      </AmendingContext.Provider>
       {!readOnly && (
         <div className="sticky bottom-0 mt-4 flex flex-wrap items-center gap-3 border-t border-rule bg-white py-3">
           <button type="submit" className="btn-primary" disabled={isSubmitting}>Save parameters</button>

@@ -4,12 +4,18 @@ import { useMemo, useState } from 'react';
 import type { Finding } from '@/lib/domain/engine';
 import { StatusBadge, type Status } from '@/components/ui/status-badge';
 import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/domain/vocabulary';
+import { amendmentCitationText, checkedOnFor, citationStatusText } from '@/lib/domain/rule-sets/citation-checks';
 
 type Filter = 'all' | 'problems' | 'fail';
 
 const filterLabel: Record<Filter, string> = { all: 'All findings', problems: 'Fails, cautions and missing info', fail: 'Only what fails' };
 
-export function FindingsList({ findings, changedKeys }: { findings: Finding[]; changedKeys?: string[] }) {
+/**
+ * `citationChecks` is given where the findings are shown as a report (to the inspector): each citation
+ * then says whether the jurisdiction checked it against its adopted code, instead of the source
+ * confidence admins and installers see.
+ */
+export function FindingsList({ findings, changedKeys, citationChecks }: { findings: Finding[]; changedKeys?: string[]; citationChecks?: Record<string, { citation: string; checkedOn: string }> }) {
   const [filter, setFilter] = useState<Filter>(findings.some((f) => f.status === 'fail') ? 'problems' : 'all');
   const changed = useMemo(() => new Set(changedKeys ?? []), [changedKeys]);
   const shown = findings.filter((f) =>
@@ -45,7 +51,10 @@ export function FindingsList({ findings, changedKeys }: { findings: Finding[]; c
                     </div>
                     <div className="text-right text-xs text-ink-soft">
                       <div className="font-mono font-semibold text-ink" data-testid="citation">{citationText(f.citation)}</div>
-                      <div>{confidenceLabel[f.confidence] ?? f.confidence}</div>
+                      {amendmentCitationText(f) && <div className="font-mono text-ink" data-testid="amendment-citation">Local amendment {amendmentCitationText(f)}</div>}
+                      {citationChecks
+                        ? <div data-testid="citation-status">{citationStatusText(f.citation, checkedOnFor(f, citationChecks))}</div>
+                        : <div>{confidenceLabel[f.confidence] ?? f.confidence}</div>}
                       {changed.has(f.ruleKey) && <div className="mt-1 inline-block rounded bg-brass-soft px-1.5 font-semibold text-ink">changed since last check</div>}
                     </div>
                   </div>

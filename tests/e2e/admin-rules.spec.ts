@@ -55,12 +55,18 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
   await expect(maxLength).toHaveValue('420'); // 35 ft, IRC 2021 M1502.4.6.1
   await maxLength.fill(LOCAL_MAX_IN);
   await expect(admin.getByTestId('hint-exhaust.maxDevelopedLengthIn')).toHaveText(`= 20' 0"`);
+  // A value changed from the model code needs the local amendment's citation: refused without it, naming the field.
+  await admin.getByRole('button', { name: 'Save parameters' }).click();
+  await expect(admin.locator('#p-exhaust-maxDevelopedLengthIn-error')).toContainText('Cite the local amendment');
+  await expect(admin.getByTestId('draft-revision')).toContainText('revision 1');
+  await admin.getByLabel(/Changed from the model value 35' 0"/).fill('DC-M1502 (demo)');
   await admin.getByRole('button', { name: 'Save parameters' }).click();
   await expect(admin.getByTestId('parameters-status')).toHaveText('Parameters saved to the draft.');
   await expect(admin.getByTestId('draft-revision')).toContainText('revision 2');
 
   // The other tab's save from revision 1 is refused with a clear message; what it typed stays.
   await second.locator('#p-exhaust-transitionMaxLengthIn').fill('90');
+  await second.locator('#p-exhaust-transitionMaxLengthIn-amendment').fill('DC-M1502.4.3 (demo)');
   await second.getByRole('button', { name: 'Save parameters' }).click();
   await expect(second.getByTestId('conflict')).toContainText('after you loaded revision 1');
   await expect(second.locator('#p-exhaust-transitionMaxLengthIn')).toHaveValue('90');
@@ -87,6 +93,9 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
   // Publish with a changelog note; the impact page lists the project.
   await admin.getByLabel('Changelog note (shown to installers)').fill(NOTE);
   await admin.getByRole('button', { name: `Publish version ${before + 1}` }).click();
+  // Demo City's from-memory citations are not checked against the adopted text: the admin confirms.
+  await expect(admin.getByTestId('publish-confirm')).toBeVisible();
+  await admin.getByRole('button', { name: 'Publish with them unchecked' }).click();
   await expect(admin.getByTestId('published-notice')).toContainText(`Version ${before + 1} is published`);
   await expect(admin.getByTestId('impact-changing').locator(`[data-project="${PROJECT}"]`)).toContainText('Exhaust duct developed length');
   await admin.screenshot({ path: `${shots}/admin-impact.png`, fullPage: true });
@@ -121,11 +130,11 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
   const draft = await start.json();
   const set = await (await admin.request.get(`/api/rule-sets/${draft.id}`)).json();
   const saved = await admin.request.patch(`/api/rule-sets/${draft.id}`, {
-    data: { revision: set.revision, parameters: { ...set.parameters, exhaust: { ...set.parameters.exhaust, maxDevelopedLengthIn: 420 } } },
+    data: { revision: set.revision, parameters: { ...set.parameters, exhaust: { ...set.parameters.exhaust, maxDevelopedLengthIn: 420 }, amendments: [] } },
   });
   expect(saved.status()).toBe(200);
   const restored = await admin.request.post(`/api/rule-sets/${draft.id}/publish`, {
-    data: { revision: (await saved.json()).revision, changelog: 'Demo: the 35 ft model-code maximum developed length again (end of the administration walkthrough).' },
+    data: { revision: (await saved.json()).revision, changelog: 'Demo: the 35 ft model-code maximum developed length again (end of the administration walkthrough).', confirm: true },
   });
   expect(restored.status()).toBe(200);
 

@@ -27,13 +27,19 @@ function slug(tag: string) {
   return `it-${tag}-${randomBytes(4).toString('hex')}`;
 }
 
-/** A throwaway jurisdiction, published at once so it never shows up without published rules. */
-async function newJurisdiction(tag: string, editions = countyEditions, startFrom = 'baseline') {
+// The citation of the test's invented local amendment, required beside a changed model value.
+const AMENDMENT = { parameter: 'exhaust.maxDevelopedLengthIn', citation: 'Ord. T-1 §2 (test)' };
+
+/**
+ * A throwaway jurisdiction, published at once so it never shows up without published rules (the
+ * baseline's from-memory citations confirmed unchecked); `publish: false` leaves its first draft open.
+ */
+async function newJurisdiction(tag: string, editions = countyEditions, startFrom = 'baseline', publish = true) {
   const s = slug(tag);
   const res = await api(
     '/api/jurisdictions',
     postJson(
-      { slug: s, name: `IT ${tag} (test)`, region: 'Test State (invented)', editions, inspectorEmail: '', amendmentNotes: 'Throwaway test jurisdiction.', startFrom, publishChangelog: 'Version 1 (test): model codes as published.' },
+      { slug: s, name: `IT ${tag} (test)`, region: 'Test State (invented)', editions, inspectorEmail: '', amendmentNotes: 'Throwaway test jurisdiction.', startFrom, ...(publish ? { publishChangelog: 'Version 1 (test): model codes as published.', confirm: true } : {}) },
       { cookie: admin },
     ),
   );
@@ -55,7 +61,7 @@ async function loadSet(id: string) {
 
 async function lowerMaxLength(draftId: string, revision: number, inches: number) {
   const set = await loadSet(draftId);
-  const parameters = { ...set.parameters, exhaust: { ...set.parameters.exhaust, maxDevelopedLengthIn: inches } };
+  const parameters = { ...set.parameters, exhaust: { ...set.parameters.exhaust, maxDevelopedLengthIn: inches }, amendments: [AMENDMENT] };
   return api(`/api/rule-sets/${draftId}`, postJson({ revision, parameters }, { cookie: admin, method: 'PATCH' }));
 }
 
@@ -166,14 +172,20 @@ describe('jurisdictions', () => {
     const source = await newJurisdiction('source', cityEditions);
     const draft = await startDraft(source.slug);
     expect((await lowerMaxLength(draft.id, draft.revision, LOCAL_MAX_IN)).status).toBe(200);
-    const pub = await api(`/api/rule-sets/${draft.id}/publish`, postJson({ revision: draft.revision + 1, changelog: 'Local amendment (test): 20 ft maximum developed length.' }, { cookie: admin }));
+    const pub = await api(`/api/rule-sets/${draft.id}/publish`, postJson({ revision: draft.revision + 1, changelog: 'Local amendment (test): 20 ft maximum developed length.', confirm: true }, { cookie: admin }));
     expect(pub.status, JSON.stringify(pub.body)).toBe(200);
-    const copy = await newJurisdiction('copy', countyEditions, source.slug);
+    const copy = await newJurisdiction('copy', countyEditions, source.slug, false);
     const set = await loadSet(copy.v1.id);
     expect(set.parameters.exhaust.maxDevelopedLengthIn).toBe(LOCAL_MAX_IN); // the amendment came along
+    expect(set.parameters.amendments).toEqual([AMENDMENT]); // with its citation
     expect(set.parameters.editions).toEqual(countyEditions);
     // The copied rules cite IRC 2021 sections; the new jurisdiction adopted IRC 2018, and the admin is told.
     expect(set.citationMismatches.some((m: { ruleKey: string; cited: string }) => m.ruleKey === 'exhaust.developed-length' && m.cited === 'IRC 2021')).toBe(true);
+    // The city's UPC 804.1 standpipe maximum (30 in) is not the IPC's 42 in (TRADE.md, plumbing): publishing the copy
+    // unchanged would carry it as an uncited amendment, so it is refused naming the parameter.
+    const publishCopy = await api(`/api/rule-sets/${copy.v1.id}/publish`, postJson({ revision: set.revision, changelog: 'Copy (test).', confirm: true }, { cookie: admin }));
+    expect(publishCopy.status).toBe(400);
+    expect(publishCopy.body.errors.map((e: { path: string }) => e.path)).toContain('parameters.plumbing.standpipeMaxIn');
   });
 });
 
@@ -321,7 +333,7 @@ describe('publishing, immutability, retiring, dry run, diff and impact', () => {
 
     // Retire version 1 with the draft as successor: publishes version 2 and retires version 1 together.
     const note = 'Local amendment T-2 (test): maximum developed length 20 ft.';
-    const retire = await api(`/api/rule-sets/${j.v1.id}/retire`, postJson({ successorId: draft.id, revision: 2, changelog: note }, { cookie: admin }));
+    const retire = await api(`/api/rule-sets/${j.v1.id}/retire`, postJson({ successorId: draft.id, revision: 2, changelog: note, confirm: true }, { cookie: admin }));
     expect(retire.status, JSON.stringify(retire.body)).toBe(200);
     expect(retire.body).toMatchObject({ published: { version: 2, status: 'published', changelog: note }, retired: { version: 1 } });
     expect((await loadSet(j.v1.id)).status).toBe('retired');
@@ -345,7 +357,10 @@ describe('publishing, immutability, retiring, dry run, diff and impact', () => {
     // Diff between the two versions.
     const diff = await api(`/api/rule-sets/${draft.id}/diff?against=${j.v1.id}`, { cookie: admin });
     expect(diff.status).toBe(200);
-    expect(diff.body.diff.parameters).toEqual([{ path: 'exhaust.maxDevelopedLengthIn', from: CODE_MAX_IN, to: LOCAL_MAX_IN }]);
+    expect(diff.body.diff.parameters).toEqual(
+      expect.arrayContaining([{ path: 'exhaust.maxDevelopedLengthIn', from: CODE_MAX_IN, to: LOCAL_MAX_IN }]),
+    );
+    expect(diff.body.diff.parameters.map((c: { path: string }) => c.path).filter((p: string) => !p.startsWith('amendments'))).toEqual(['exhaust.maxDevelopedLengthIn']);
     expect(diff.body.diff.rules).toMatchObject({ added: [], removed: [], changed: [] });
 
     // Impact: the project's latest check (version 1) would now fail.

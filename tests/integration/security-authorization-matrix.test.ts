@@ -141,6 +141,8 @@ const apiMatrix: Record<string, ApiRow> = {
   'PUT /api/rule-sets/[id]/rules/[key]':         { path: (i) => `/api/rule-sets/${i.draftId}/rules/${i.ruleKey}`, send: { json: async (i) => ({ revision: await draftRevision(i.draftId), rule: { ...draftRule, key: i.ruleKey, title: 'Matrix copy, edited' } }) }, expect: a(401, 403, 403, 403, 403, 200) },
   'DELETE /api/rule-sets/[id]/rules/[key]':      { path: (i) => `/api/rule-sets/${i.draftId}/rules/${i.ruleKey}?revision=${REVISION_PLACEHOLDER}`, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/rule-sets/[id]/diff':                { path: (i) => `/api/rule-sets/${i.draftId}/diff?against=${i.publishedId}`, expect: a(401, 403, 403, 403, 403, 200) },
+  'GET /api/rule-sets/[id]/citations':          { path: (i) => `/api/rule-sets/${i.draftId}/citations`, expect: a(401, 403, 403, 403, 403, 200) },
+  'POST /api/rule-sets/[id]/citations':         { path: (i) => `/api/rule-sets/${i.draftId}/citations`, send: { json: () => ({ ruleKey: 'exhaust.developed-length', checked: true, against: 'IRC 2018 as adopted (matrix test)' }) }, expect: a(401, 403, 403, 403, 403, 201) },
   'POST /api/rule-sets/[id]/dry-run':            { path: (i) => `/api/rule-sets/${i.draftId}/dry-run`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 200) },
   // The three rows below would end the draft, so the admin sends a stale revision on purpose:
   // past the role check, the revision check refuses (409) and the draft stays for the pages.
@@ -278,6 +280,7 @@ function jurisdictionBody(slug: string) {
     amendmentNotes: 'Throwaway jurisdiction of the authorization matrix.',
     startFrom: 'baseline',
     publishChangelog: 'Version 1 (test): model codes as published.',
+    confirm: true, // its from-memory citations published unchecked
   };
 }
 

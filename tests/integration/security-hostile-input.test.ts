@@ -47,6 +47,7 @@ beforeAll(async () => {
         amendmentNotes: '',
         startFrom: 'baseline',
         publishChangelog: 'Version 1 (test).',
+        confirm: true,
       },
       { cookie: admin },
     ),

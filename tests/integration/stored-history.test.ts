@@ -49,7 +49,7 @@ async function newJurisdiction(tag: string) {
   const res = await api(
     '/api/jurisdictions',
     postJson(
-      { slug, name: `IT ${tag} (test)`, region: 'Test State (invented)', editions: countyEditions, inspectorEmail: '', amendmentNotes: 'Throwaway test jurisdiction.', startFrom: 'baseline', publishChangelog: 'Version 1 (test): model codes as published.' },
+      { slug, name: `IT ${tag} (test)`, region: 'Test State (invented)', editions: countyEditions, inspectorEmail: '', amendmentNotes: 'Throwaway test jurisdiction.', startFrom: 'baseline', publishChangelog: 'Version 1 (test): model codes as published.', confirm: true },
       { cookie: admin },
     ),
   );

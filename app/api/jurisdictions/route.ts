@@ -5,6 +5,7 @@ import { publishedVersionsByJurisdiction } from '@/db/rule-sets';
 import { jurisdictionCreateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
 import { publishErrors } from '@/lib/domain/rule-sets/publish-check';
 import { ValidationError } from '@/lib/domain/errors';
+import { assertUncheckedConfirmed } from '@/lib/services/rule-sets/citations';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, parseBody, route } from '@/lib/platform/http';
 
@@ -27,9 +28,13 @@ export const GET = route(async (request) => {
 export const POST = route(async (request) => {
   const user = await requireUser(request, ['admin']);
   const input = await parseBody(request, jurisdictionCreateSchema);
-  const created = await createJurisdictionWithDraft(getDb(), input, user.id, (draft) => {
+  const { confirm, ...fields } = input;
+  const created = await createJurisdictionWithDraft(getDb(), fields, user.id, (draft) => {
     const errors = publishErrors(draft);
     if (errors.length) throw new ValidationError(errors, 'The starting rules cannot be published as they are.');
+    // A new draft has no checked citations yet: publishing it at once confirms them unchecked.
+    const unchecked = assertUncheckedConfirmed(draft, new Map(), confirm);
+    return unchecked.length ? { uncheckedConfirmed: unchecked } : {};
   });
   return json(created, 201);
 });

@@ -5,7 +5,7 @@ import { planUpgrades } from '@/lib/domain/plan/upgrade';
  * The shape of a check's stored JSON (inputs, facts, findings, summary) that this build writes and
  * reads. Version 1 records, in its inputs, the plan schema version of the plan it evaluated.
  */
-export const CHECK_SCHEMA_VERSION = 1;
+export const CHECK_SCHEMA_VERSION = 2;
 
 export type StoredCheckJson = {
   inputs: { plan: unknown; canonical: unknown; planSchemaVersion: number };
@@ -23,6 +23,15 @@ export const checkUpgrades: UpgradeChain = {
     0: (stored) => {
       const check = stored as { inputs?: Record<string, unknown> };
       return { ...check, inputs: { ...check.inputs, planSchemaVersion: 0 } };
+    },
+    // Version 2: each finding lists the local amendments behind the values it compared. Earlier checks
+    // recorded none; an empty list says so without re-evaluating anything.
+    1: (stored) => {
+      const check = stored as { findings?: unknown };
+      const findings = Array.isArray(check.findings)
+        ? check.findings.map((f) => (f && typeof f === 'object' && !('amendments' in f) ? { ...f, amendments: [] } : f))
+        : check.findings;
+      return { ...check, findings };
     },
   },
 };

@@ -4,6 +4,7 @@ import { computeFactsWithMissing, factsSchema, type FactKind, type Facts, type F
 import { labelForPath, type Plan } from '@/lib/domain/plan';
 import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { computeRemedy } from '@/lib/domain/remedies';
+import { amendmentsForFinding, amendmentsForRule, changedParameters, factsMovedByAmendments, parameterLabel, parameterValueText, type ParameterAmendment } from '@/lib/domain/params/amendments';
 import { formatArea, formatLength, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
 import { conditionFacts, variantForFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
 
@@ -32,6 +33,8 @@ export interface Finding {
   remedy: string | null;
   /** The locally adopted code and the AHJ govern; source confidence. */
   note: string;
+  /** Local amendments that changed a model value this rule reads; `citation` stays the model section. */
+  amendments?: ParameterAmendment[];
 }
 
 export interface EvaluationSummary {
@@ -60,6 +63,7 @@ export interface RuleSetForEvaluation {
 
 interface CompiledRule {
   rule: StoredRule;
+  amendments: ParameterAmendment[];
   applicability: RuleProperties | null;
   main: RuleProperties;
   applicabilityFacts: string[];
@@ -68,6 +72,8 @@ interface CompiledRule {
 
 interface CompiledRuleSet {
   parameters: RuleSetParameters;
+  /** Whether any changed model value carries a local amendment (then each run traces which facts it moved). */
+  hasCitedAmendments: boolean;
   rules: CompiledRule[];
 }
 
@@ -99,6 +105,7 @@ function compile(ruleSet: RuleSetForEvaluation): CompiledRuleSet {
       const { main, applicability } = toEngineRules(rule);
       return {
         rule,
+        amendments: amendmentsForRule(rule, parameters),
         main,
         applicability,
         applicabilityFacts: conditionFacts(rule.applicability as StoredCondition | null),
@@ -106,7 +113,8 @@ function compile(ruleSet: RuleSetForEvaluation): CompiledRuleSet {
       };
     });
   // Frozen so no run can alter JSON shared by later evaluations.
-  return deepFreeze({ parameters, rules });
+  const hasCitedAmendments = changedParameters(parameters).some((c) => c.citation !== null);
+  return deepFreeze({ parameters, rules, hasCitedAmendments });
 }
 
 const CACHE_LIMIT = 200;
@@ -142,6 +150,11 @@ function resolveRef(ref: ValueRef, facts: Facts, params: RuleSetParameters): Fac
   if (ref === null || typeof ref !== 'object') return ref;
   if (ref.fact === 'params') return (readParam(params, ref.path ?? '') ?? null) as FactValue;
   return facts[ref.fact] ?? null;
+}
+
+function limitFacts(limit: Limit | null): string[] {
+  const refs = limit !== null && typeof limit === 'object' && 'min' in limit ? [limit.min, limit.max] : [limit];
+  return refs.flatMap((r) => (r !== null && typeof r === 'object' && 'fact' in r && r.fact !== 'params' ? [r.fact] : []));
 }
 
 function resolveLimit(limit: Limit | null, facts: Facts, params: RuleSetParameters): LimitValue {
@@ -226,9 +239,12 @@ const CONFIDENCE_NOTES: Record<Confidence, string> = {
   CP: ' Common practice, not a code requirement.',
 };
 
-function noteFor(cited: Pick<StoredRule, 'citation' | 'confidence' | 'citationNote'>, jurisdiction: string): string {
-  const base = `Checked against ${citationText(cited.citation)} for ${jurisdiction}. The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
-  return `${base}${CONFIDENCE_NOTES[cited.confidence]}${cited.citationNote ? ` ${cited.citationNote}` : ''}`;
+function noteFor(rule: Pick<StoredRule, 'citation' | 'confidence' | 'citationNote'>, jurisdiction: string, amendments: ParameterAmendment[]): string {
+  const amended = amendments
+    .map((a) => ` ${parameterLabel(a.parameter)}: ${parameterValueText(a.parameter, a.value)} by local amendment ${a.citation} (model value ${parameterValueText(a.parameter, a.modelValue)}).`)
+    .join('');
+  const base = `Checked against ${citationText(rule.citation)}${amended ? ' as locally amended' : ''} for ${jurisdiction}.${amended} The locally adopted code, its amendments and the AHJ govern; this finding is an aid, not an approval.`;
+  return `${base}${CONFIDENCE_NOTES[rule.confidence]}${rule.citationNote ? ` ${rule.citationNote}` : ''}`;
 }
 
 /** `{measured}`, `{limit}` and `{shortfall}` (how far apart the two are) in a message template. */
@@ -268,6 +284,7 @@ function finish(
     missing,
     remedy,
     note: base.note,
+    amendments: base.amendments,
   };
 }
 
@@ -363,6 +380,9 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
   const { parameters } = compiled;
   const computed = computeFactsWithMissing(plan, parameters);
   const facts = factsSchema.parse(computed.facts) as Facts;
+  const moved = compiled.hasCitedAmendments
+    ? factsMovedByAmendments(parameters, facts, (at) => computeFactsWithMissing(plan, at).facts as Record<string, unknown>)
+    : new Map<string, ParameterAmendment[]>();
 
   // Our paths are plain `$.a.b` into the parameters: a direct walk instead of a general JSONPath query
   // keeps the engine's overhead over raw json-rules-engine small (see npm run bench).
@@ -398,7 +418,8 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
   }
 
   const summary: EvaluationSummary = { pass: 0, fail: 0, caution: 0, needsInfo: 0, notApplicable: 0 };
-  const findings = compiled.rules.map(({ rule }): Finding => {
+  const findings = compiled.rules.map(({ rule, amendments: direct, requiredFacts, applicabilityFacts }): Finding => {
+    const amendments = amendmentsForFinding(direct, [...requiredFacts, ...applicabilityFacts, ...(rule.measured ? [rule.measured] : []), ...limitFacts(rule.limit)], moved);
     const variant = rule.citationVariants ? variantForFacts(rule, facts) : null;
     const messages = variant?.messages ? { ...rule.messages, ...variant.messages } : rule.messages;
     const measured = rule.measured ? (facts[rule.measured] ?? null) : null;
@@ -419,7 +440,8 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       citation: cited.citation,
       confidence: cited.confidence,
       citationNote: cited.citationNote,
-      note: noteFor(cited, ruleSet.jurisdiction),
+      note: noteFor(cited, ruleSet.jurisdiction, amendments),
+      amendments,
     };
     const earlyMissing = early.get(rule.key);
     if (earlyMissing) return needsInfoFinding(base, earlyMissing, summary);

@@ -89,5 +89,6 @@ export function defaultParameters(editions: Editions): RuleSetParameters {
       // door face at 90°; 2 in (51 mm) leaves a little more for knobs and a hand.
       hingeArmDepthIn: 2,
     },
+    amendments: [], // model values: nothing amended
   };
 }

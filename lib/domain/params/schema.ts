@@ -121,6 +121,25 @@ export const ruleSetParametersSchema = z
       })
       .strict()
       .describe('Enclosure door hardware (hinge makers and common practice).'),
+    // Optional so API clients written before amendments were recorded still save; stored rows of
+    // earlier versions read with an empty list (lib/domain/params/upgrade.ts).
+    amendments: z
+      .array(
+        z
+          .object({
+            parameter: z.string().trim().min(1, 'Name the parameter the amendment changes.').max(120).describe('Parameter the amendment changes, e.g. exhaust.maxDevelopedLengthIn.'),
+            citation: z
+              .string()
+              .trim()
+              .min(1, 'Cite the local amendment: the ordinance or amendment section, e.g. "Ord. 12-34 §2".')
+              .max(200, 'Keep the citation under 200 characters.')
+              .describe('Ordinance or amendment section that changes it.'),
+          })
+          .strict(),
+      )
+      .max(64, 'At most 64 amendment citations.')
+      .optional()
+      .describe('Local amendments that change a model-code value, each with its citation.'),
   })
   .strict()
   .describe('Rule set parameters.');

@@ -1,7 +1,7 @@
 import { unchanged, upgradeStored, type UpgradeChain } from '@/lib/domain/history/upgrade';
 
 /** The shape of a rule set's parameters that this build writes and reads; bump it with every change to that shape. */
-export const PARAMETERS_SCHEMA_VERSION = 2;
+export const PARAMETERS_SCHEMA_VERSION = 3;
 
 const EDITION = /^([A-Z][A-Za-z0-9-]*)\s+(\d{4})$/;
 
@@ -37,6 +37,9 @@ export const parameterUpgrades: UpgradeChain = {
     // Version 0: saved before versions were recorded, by the schema that became version 1.
     0: unchanged,
     1: addExhaustSupportTerminalAndShieldLimits,
+    // Version 3 records the local amendment's citation for each changed parameter. Older versions
+    // cited none: an empty list keeps their meaning (citations change no outcome).
+    2: (stored) => ({ ...(stored as Record<string, unknown>), amendments: [] }),
   },
 };
 

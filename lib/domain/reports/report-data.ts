@@ -24,6 +24,8 @@ export type ReportData = {
   /** Why the drawings are left out: a stored plan over today's list limits is not drawn. */
   drawingsWithheld?: string[];
   parameters: RuleSetParameters;
+  /** Per rule key: when the jurisdiction checked the citation against its adopted text (that citation's text). */
+  citationChecks?: Record<string, { citation: string; checkedOn: string }>;
   photos: { caption: string; filename: string; image: Buffer; width: number; height: number }[];
   documents: { caption: string; filename: string; contentType: string }[];
   preparedBy: string;

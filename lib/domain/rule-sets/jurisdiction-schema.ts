@@ -1,15 +1,22 @@
 import { z } from 'zod';
 import { editionsSchema } from '@/lib/domain/editions';
+import { editionConsistencyErrors } from '@/lib/domain/edition-consistency';
 
 const optionalEmail = z.preprocess(
   (value) => (typeof value === 'string' && value.trim() === '' ? null : value),
   z.email('Enter an e-mail address, e.g. permits@example.gov, or leave it empty.').nullable(),
 );
 
+// Checked when a jurisdiction is saved, not in editionsSchema itself: stored rule sets keep the editions
+// they were written with and must still read.
+const consistentEditions = editionsSchema.superRefine((editions, ctx) => {
+  for (const e of editionConsistencyErrors(editions, '')) ctx.addIssue({ code: 'custom', path: [e.path], message: e.message });
+});
+
 const fields = {
   name: z.string().trim().min(1, 'Give the jurisdiction a name.').max(120),
   region: z.string().trim().min(1, 'Name the state or region.').max(120),
-  editions: editionsSchema,
+  editions: consistentEditions,
   inspectorEmail: optionalEmail,
   amendmentNotes: z.string().max(4000, 'Keep the notes under 4000 characters.'),
 };
@@ -27,6 +34,8 @@ export const jurisdictionCreateSchema = z
     startFrom: z.string().trim().min(1, 'Choose where the first draft comes from.'),
     // Set to publish the starting rules unchanged at once, with this changelog note.
     publishChangelog: z.string().trim().min(1, 'Write the changelog note for the first version.').max(4000).optional(),
+    // With publishChangelog: publishes although its from-memory citations are not yet checked.
+    confirm: z.boolean().optional(),
   })
   .strict();
 

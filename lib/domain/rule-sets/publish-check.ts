@@ -2,6 +2,7 @@ import type { FieldError } from '@/lib/domain/errors';
 import { ruleSetParametersSchema } from '@/lib/domain/params';
 import { validateRuleAgainstCatalog, type StoredRule } from '@/lib/domain/rule-format';
 import { ValidationError } from '@/lib/domain/errors';
+import { amendmentErrors } from '@/lib/domain/params/amendments';
 
 /**
  * Everything a version must satisfy before it becomes immutable: valid parameters, every rule
@@ -12,6 +13,7 @@ export function publishErrors(draft: { parameters: unknown; rules: StoredRule[] 
   const errors: FieldError[] = [];
   const params = ruleSetParametersSchema.safeParse(draft.parameters);
   if (!params.success) errors.push(...params.error.issues.map((i) => ({ path: ['parameters', ...i.path.map(String)].join('.'), message: i.message })));
+  else errors.push(...amendmentErrors(params.data));
   const seen = new Set<string>();
   draft.rules.forEach((rule, i) => {
     if (seen.has(rule.key)) errors.push({ path: `rules.${i}.key`, message: `Rule key '${rule.key}' appears twice.` });

@@ -20,7 +20,12 @@ export const draftSaveSchema = z
 export const ruleSaveSchema = z.object({ revision, rule: z.unknown() }).strict();
 
 export const publishSchema = z
-  .object({ revision, changelog: z.string().trim().min(1, 'Write a changelog note: what changed and why (e.g. the local amendment it records).').max(4000) })
+  .object({
+    revision,
+    changelog: z.string().trim().min(1, 'Write a changelog note: what changed and why (e.g. the local amendment it records).').max(4000),
+    // Publishes although from-memory citations are not yet checked against the adopted text.
+    confirm: z.boolean().optional(),
+  })
   .strict();
 
 export const retireSchema = z
@@ -28,6 +33,7 @@ export const retireSchema = z
     successorId: z.uuid({ error: 'Pick the draft that replaces this version; a published version is only retired when a successor is published in its place.' }),
     revision,
     changelog: z.string().trim().min(1, 'Write the changelog note for the successor.').max(4000),
+    confirm: z.boolean().optional(),
   })
   .strict();
 

@@ -5,6 +5,7 @@ import type { Finding } from '@/lib/domain/engine';
 import { PdfDrawing } from '@/lib/platform/pdf/pdf-drawing';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 import { areaTitles as areaTitle, citationText, findingStatusLabels } from '@/lib/domain/vocabulary';
+import { amendmentCitationText, checkedOnFor, citationStatusText } from '@/lib/domain/rule-sets/citation-checks';
 
 // Full (not subset) font files: the PDF font engine needs complete glyph tables.
 const fontDir = path.join(process.cwd(), 'public', 'fonts', 'pdf');
@@ -219,7 +220,7 @@ export function ReportDocument({ data }: { data: ReportData }) {
         <View style={s.caution}><Text>{SAFETY}</Text></View>
         <Text style={{ ...s.faint, marginTop: 6 }}>
           Status marks: filled circle = pass, square with a cross = fails, triangle = caution, open diamond = needs information, dash = not applicable.
-          Source confidence: V verified against the code text; S secondary sources; M from memory; CP common practice. Confirm S, M and CP items with the AHJ.
+          Beside each citation: whether the jurisdiction has checked it against its adopted code, and on which date. Confirm citations not yet checked with the AHJ; the locally adopted code and its amendments govern.
         </Text>
         <Footer code={data.code} />
       </Page>
@@ -250,7 +251,8 @@ export function ReportDocument({ data }: { data: ReportData }) {
                 </View>
                 <View style={{ width: '20%', paddingRight: 4 }}>
                   <Text style={s.mono}>{citation(f.citation)}</Text>
-                  <Text style={s.faint}>confidence {f.confidence}</Text>
+                  {amendmentCitationText(f) ? <Text style={s.faint}>Local amendment {amendmentCitationText(f)}</Text> : null}
+                  <Text style={s.faint}>{citationStatusText(f.citation, checkedOnFor(f, data.citationChecks))}</Text>
                 </View>
                 <Text style={{ width: '17%' }}>{f.display.measured ?? '—'}</Text>
                 <Text style={{ width: '17%' }}>{f.display.limit ?? '—'}</Text>

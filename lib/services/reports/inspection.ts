@@ -2,6 +2,7 @@ import 'server-only';
 import type { DB } from '@/db';
 import { listAttachments } from '@/db/attachments';
 import { findCheckById } from '@/db/checks';
+import { citationCheckedDates } from '@/db/citation-checks';
 import { findReportById, findReportHeading, listReviewsOfReport } from '@/db/reports';
 import type { AppUser } from '@/lib/domain/roles';
 import { NotFoundError } from '@/lib/domain/errors';
@@ -28,6 +29,8 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
     report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount, asIssued: !!snap },
     project,
     check: { findings: check.findings, summary: check.summary, createdAt: check.createdAt },
+    // The version is published and its marks append-only, so these dates cannot move after the report.
+    citationChecks: await citationCheckedDates(db, check.ruleSet.id),
     attachments,
     reviews,
   };

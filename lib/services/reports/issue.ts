@@ -6,6 +6,7 @@ import { findCheck, type StoredCheck } from '@/db/checks';
 import { getProject, type Project } from '@/db/projects';
 import { insertReport, type IssuedReport } from '@/db/reports';
 import { findRuleSetById } from '@/db/rule-sets';
+import { citationCheckedDates } from '@/db/citation-checks';
 import { findJurisdictionById } from '@/db/jurisdictions';
 import { findOrganizationById } from '@/db/organizations';
 import { findPlanRevisionSummaryById } from '@/db/plan-revisions';
@@ -28,12 +29,13 @@ export function reportFilename(project: Pick<Project, 'name'>, code: string): st
 }
 
 async function gather(db: DB, user: AppUser, check: StoredCheck, project: Project, code: string): Promise<{ data: ReportData; attachmentIds: string[] }> {
-  const [ruleSet, org, jur, revision, attachments] = await Promise.all([
+  const [ruleSet, org, jur, revision, attachments, citationChecks] = await Promise.all([
     findRuleSetById(db, check.ruleSet.id),
     findOrganizationById(db, project.organizationId),
     findJurisdictionById(db, project.jurisdiction.id),
     findPlanRevisionSummaryById(db, check.planRevision.id),
     listAttachments(db, project.id),
+    citationCheckedDates(db, check.ruleSet.id),
   ]);
   if (!ruleSet) throw new NotFoundError('The rule set of this check is missing.');
   if (!org || !jur || !revision) throw new NotFoundError('The project, jurisdiction or plan revision of this check is missing.');
@@ -64,6 +66,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     plan: parsed.plan,
     drawingsWithheld: parsed.oversize.map((o) => o.message),
     parameters: ruleSet.parameters,
+    citationChecks,
     photos,
     documents: attachments.filter((x) => x.kind === 'document').map((d) => ({ caption: d.caption, filename: d.filename, contentType: d.contentType })),
     preparedBy: user.name,

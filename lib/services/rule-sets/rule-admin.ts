@@ -41,7 +41,7 @@ export async function createJurisdictionWithDraft(
   db: DB,
   input: JurisdictionFields & { slug: string; startFrom: string; publishChangelog?: string },
   actorUserId: string,
-  validate: (draft: RuleSetWithRules) => void = () => {},
+  validate: (draft: RuleSetWithRules) => void | Record<string, unknown> = () => {},
 ): Promise<{ jurisdiction: Jurisdiction; draft: RuleSetVersion }> {
   let source: DraftSource = { from: 'baseline' };
   if (input.startFrom !== 'baseline') {

@@ -23,7 +23,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
     if (err instanceof NotFoundError) notFound();
     throw err;
   }
-  const { report, project, check, attachments, reviews } = data;
+  const { report, project, check, attachments, reviews, citationChecks } = data;
   return (
     <>
       <PageHeader kicker={`${project.jurisdictionName} · report ${report.code}`} title={project.name}>
@@ -42,7 +42,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
       <SummaryCounts summary={check.summary} />
       <div className="mt-4"><SafetyNotice compact /></div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
-        <section aria-label="Findings"><FindingsList findings={check.findings} /></section>
+        <section aria-label="Findings"><FindingsList findings={check.findings} citationChecks={citationChecks} /></section>
         <aside className="space-y-6">
           {user.role === 'inspector' && <ReviewForm reportId={report.id} findings={check.findings.map((f) => ({ ruleKey: f.ruleKey, title: f.title, status: f.status }))} />}
           {reviews.length > 0 && (

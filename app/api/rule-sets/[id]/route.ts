@@ -3,6 +3,7 @@ import { findJurisdictionById } from '@/db/jurisdictions';
 import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
 import { discardDraft, saveDraft } from '@/db/rule-sets';
 import { citationMismatches } from '@/lib/domain/rule-sets/citations';
+import { amendmentErrors } from '@/lib/domain/params/amendments';
 import { draftSaveSchema, revisionQuerySchema } from '@/lib/domain/rule-sets/requests';
 import { requireUser } from '@/lib/platform/auth/session';
 import { ValidationError } from '@/lib/domain/errors';
@@ -24,6 +25,8 @@ export const PATCH = route<Ctx>(async (request, { params }) => {
   const db = getDb();
   const set = await requireRuleSet(db, (await params).id);
   const body = await parseBody(request, draftSaveSchema);
+  const uncited = body.parameters ? amendmentErrors(body.parameters) : [];
+  if (uncited.length) throw new ValidationError(uncited, 'Each value changed from the model code needs its local amendment cited; nothing was saved.');
   return json(await saveDraft(db, { id: set.id, revision: body.revision, parameters: body.parameters, changelog: body.changelog, actorUserId: user.id }));
 });
 

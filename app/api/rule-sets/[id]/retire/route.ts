@@ -1,7 +1,6 @@
 import { getDb } from '@/db';
 import { requireRuleSet } from '@/lib/services/rule-sets/rule-admin';
-import { publishDraft } from '@/db/rule-sets';
-import { assertPublishable } from '@/lib/domain/rule-sets/publish-check';
+import { publishRuleSet } from '@/lib/services/rule-sets/citations';
 import { retireSchema } from '@/lib/domain/rule-sets/requests';
 import { requireUser } from '@/lib/platform/auth/session';
 import { ConflictError, ValidationError } from '@/lib/domain/errors';
@@ -22,12 +21,7 @@ export const POST = route<{ params: Promise<{ id: string }> }>(async (request, {
   if (!successor || successor.jurisdictionId !== set.jurisdictionId || successor.status !== 'draft') {
     throw new ValidationError([{ path: 'successorId', message: `The successor must be an open draft of ${set.jurisdictionSlug}.` }]);
   }
-  const result = await publishDraft(db, {
-    id: successor.id,
-    revision: body.revision,
-    changelog: body.changelog,
-    actorUserId: user.id,
-    validate: (draft) => assertPublishable(draft, 'The successor cannot be published yet.'),
-  });
+  // The successor is published like any draft, unchecked from-memory citations confirmed included.
+  const result = await publishRuleSet(db, user, successor, { revision: body.revision, changelog: body.changelog, confirm: body.confirm });
   return json(result);
 });

@@ -8,6 +8,8 @@ import { findPublishedVersion, findVersionByNumber } from '@/db/rule-sets';
 import { DraftWorkspace } from '@/components/admin/draft-workspace';
 import { ParametersForm } from '@/components/admin/parameters-form';
 import { RuleTable } from '@/components/admin/rule-editor';
+import { CitationChecks } from '@/components/admin/citation-checks';
+import { listCitationStatuses } from '@/lib/services/rule-sets/citations';
 import { VersionStatus } from '@/components/admin/version-status';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
@@ -63,6 +65,10 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
           <section className="card p-5" aria-labelledby="rules-h">
             <h2 id="rules-h" className="text-lg font-bold">Rules ({set.rules.filter((r) => r.enabled).length} of {set.rules.length} enabled)</h2>
             <div className="mt-3"><RuleTable rules={set.rules} readOnly /></div>
+          </section>
+          <section className="card p-5" aria-labelledby="cite-h">
+            <h2 id="cite-h" className="text-lg font-bold">Citations checked against the adopted text</h2>
+            <div className="mt-3"><CitationChecks list={await listCitationStatuses(db, set)} url={`/api/rule-sets/${set.id}/citations`} readOnly /></div>
           </section>
         </div>
       )}
