@@ -73,9 +73,10 @@ describe('front elevation', () => {
     const marked = frontElevation(planOf(input), { params, marks: evaluation.findings });
     const failing = rects(marked.shapes, 'clearance-fail');
     expect(failing.map((r) => r.ruleKey)).toEqual(['clearances.width', 'clearances.width', 'clearances.width', 'clearances.width']);
-    expect(failing.every((r) => r.status === 'caution')).toBe(true);
+    // Short of the maker's clearance: a fail (installation per the listing, IRC M1307.1).
+    expect(failing.every((r) => r.status === 'fail')).toBe(true);
     expect(rects(marked.shapes, 'clearance').map((r) => r.ruleKey)).toEqual(['clearances.height', 'clearances.height']);
-    expect(marked.notes.some((n) => n.startsWith('Caution — Enclosure inside width'))).toBe(true);
+    expect(marked.notes.some((n) => n.startsWith("Fails — Maker's side clearances"))).toBe(true);
 
     // A bare rule key marks the zones as failing.
     const byKey = frontElevation(planOf(input), { params, marks: ['clearances.height'] });
