@@ -96,10 +96,16 @@ describe('diff of two versions', () => {
     expect(diff.parameters).toContainEqual({ path: 'editions.building', from: 'IRC 2018', to: 'IRC 2021' });
     const length = diff.rules.changed.find((c) => c.key === 'exhaust.developed-length');
     // IRC 2018 M1502.4.5.1 became IRC 2021 M1502.4.6.1 (same 35 ft rule, renumbered).
-    expect(length?.fields).toEqual([
+    expect(length?.fields.map((f) => f.path)).toEqual(['citation.edition', 'citation.section', 'citationVariants']);
+    expect(length?.fields.slice(0, 2)).toEqual([
       { path: 'citation.edition', from: '2018', to: '2021' },
       { path: 'citation.section', from: 'M1502.4.5.1', to: 'M1502.4.6.1' },
     ]);
+    // The maker's-length clause moved with it: IRC 2018 M1502.4.5.2 became IRC 2021 M1502.4.6.2 (TRADE.md S).
+    type Variants = { variants: Array<{ when: Record<string, unknown>; citation: { section: string } }> };
+    const makers = (v: unknown) => (v as Variants).variants.find((x) => x.when['exhaust.allowedLengthSource'] === 'manufacturer')!.citation.section;
+    const variants = length!.fields[2];
+    expect([makers(variants.from), makers(variants.to)]).toEqual(['M1502.4.5.2', 'M1502.4.6.2']);
     expect(diff.rules.added).toEqual([]);
     expect(diff.rules.removed).toEqual([]);
   });
