@@ -8,6 +8,7 @@ import type { RuleSetParameters } from '@/lib/domain/params';
 import { editorSections, entryAt, parsePlan, type EditorList, type PlanInput } from '@/lib/domain/plan';
 import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
 import { formToPlan, planToForm, type FormValues } from '@/components/plan-editor/form-values';
+import { LibraryModelPicker } from '@/components/plan-editor/library-model-picker';
 import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import type { FieldError } from '@/lib/domain/errors';
@@ -84,6 +85,7 @@ function Sections({ params }: { params: RuleSetParameters }) {
           <section key={section.id} id={`section-${section.id}`} aria-labelledby={`h-${section.id}`} className="card p-5">
             <h2 id={`h-${section.id}`} className="text-lg font-bold">{section.title}</h2>
             {section.intro && <p className="mt-1 text-sm text-ink-soft">{section.intro}</p>}
+            {(section.id === 'washer' || section.id === 'dryer') && <LibraryModelPicker slot={section.id} />}
             {section.fields.length > 0 && (
               <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
                 {section.fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
