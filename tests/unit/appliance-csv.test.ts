@@ -18,7 +18,8 @@ describe('appliance CSV', () => {
   });
 
   it('reads sizes with units: 686 mm is 27.0079 in (NIST SP 811: 1 in = 25.4 mm exactly)', () => {
-    const [m] = rows('kind,label,width_in,depth_in,height_in\nwasher,W,686 mm,2\' 8",39\n');
+    // A cell holding a double quote is quoted, the quote doubled (RFC 4180 §2 rule 7).
+    const [m] = rows('kind,label,width_in,depth_in,height_in\nwasher,W,686 mm,"2\' 8""",39\n');
     expect(m.widthIn).toBeCloseTo(686 / 25.4, 9);
     expect(m.depthIn).toBe(32); // 2 ft 8 in = 32 in (1 ft = 12 in)
   });
