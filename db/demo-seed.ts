@@ -1,6 +1,8 @@
 import type { DB } from '@/db/index';
 import { demoAmendments, demoJurisdictions, demoOrganizations, demoPassword, demoProjects, demoUsers } from '@/db/demo';
 import { demoPlans } from '@/db/demo-plans';
+import { demoApplianceModels } from '@/db/demo-appliances';
+import { toColumns } from '@/db/appliances';
 import { toJurisdiction } from '@/db/jurisdictions';
 import { createPublishedVersion } from '@/db/rule-sets';
 import { parsePlan } from '@/lib/domain/plan';
@@ -92,6 +94,17 @@ export async function writeDemoScenario(db: DB, { hashAtCurrentCost, needsRehash
       changelog: amendment?.changelog ?? 'Version 1 (demo).',
       actorUserId: admin.id,
     });
+  }
+
+  // The demo company's appliance library: each model is created once; installers' edits and deletions stand.
+  const closetWorks = demoOrganizations.find((o) => o.key === 'closet-works')!;
+  const closetWorksRow = await db.selectFrom('organizations').select('id').where('name', '=', closetWorks.name).executeTakeFirstOrThrow();
+  const hasLibrary = await db.selectFrom('appliance_models').select('id').where('organization_id', '=', closetWorksRow.id).where('is_demo', '=', true).executeTakeFirst();
+  if (!hasLibrary) {
+    await db
+      .insertInto('appliance_models')
+      .values(demoApplianceModels.map((m) => ({ organization_id: closetWorksRow.id, ...toColumns(m), is_demo: true })))
+      .execute();
   }
 
   for (const p of demoProjects) {

@@ -287,6 +287,33 @@ export interface RateLimitsTable {
   expire: number | null;
 }
 
+export interface ApplianceModelsTable {
+  id: Generated<string>;
+  organization_id: string;
+  kind: 'washer' | 'dryer' | 'washer-dryer';
+  label: string;
+  width_in: number;
+  depth_in: number;
+  height_in: number;
+  front_projection_in: number | null;
+  clearance_side_in: number | null;
+  clearance_top_in: number | null;
+  clearance_rear_in: number | null;
+  clearance_front_in: number | null;
+  closet_vent_top_sq_in: number | null;
+  closet_vent_bottom_sq_in: number | null;
+  max_exhaust_length_in: number | null;
+  fuel: 'electric' | 'gas' | null;
+  dryer_type: 'vented' | 'condensing' | 'heat-pump' | null;
+  exhaust_cfm: number | null;
+  volts: number | null;
+  amps: number | null;
+  is_demo: Generated<boolean>;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -308,6 +335,7 @@ export interface Database {
   report_sends: ReportSendsTable;
   inspection_reviews: InspectionReviewsTable;
   rate_limits: RateLimitsTable;
+  appliance_models: ApplianceModelsTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

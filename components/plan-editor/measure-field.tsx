@@ -36,8 +36,13 @@ export function PlanField({ spec, name }: { spec: EditorField; name: string }) {
   const describedBy = [error ? `${id}-error` : null, spec.hint ? `${id}-hint` : null].filter(Boolean).join(' ') || undefined;
   const common = { id, 'aria-invalid': error ? true : undefined, 'aria-describedby': describedBy, ...register(name) };
 
+  // Text another control sets (the library model a unit was filled from) is carried, not typed.
+  if (spec.kind === 'text' && spec.display === 'hidden') return <input type="hidden" {...register(name)} />;
+
   let control: React.ReactNode;
-  if (spec.kind === 'presence') {
+  if (spec.kind === 'text' && spec.display === 'read-only') {
+    control = <input {...common} type="text" readOnly placeholder="—" className="field-input bg-paper" />;
+  } else if (spec.kind === 'presence') {
     control = (
       <select {...common} className="field-input">
         <option value="">— not known yet</option>

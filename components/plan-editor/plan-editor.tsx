@@ -8,6 +8,7 @@ import type { RuleSetParameters } from '@/lib/domain/params';
 import { editorSections, entryAt, parsePlan, type EditorList, type PlanInput } from '@/lib/domain/plan';
 import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
 import { formToPlan, isShown, planToForm, type FormValues } from '@/components/plan-editor/form-values';
+import { LibraryModelPicker } from '@/components/plan-editor/library-model-picker';
 import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import type { FieldError } from '@/lib/domain/errors';
@@ -90,6 +91,7 @@ function Sections({ params }: { params: RuleSetParameters }) {
           <section key={section.id} id={`section-${section.id}`} aria-labelledby={`h-${section.id}`} className="card p-5">
             <h2 id={`h-${section.id}`} className="text-lg font-bold">{section.title}</h2>
             {section.intro && <p className="mt-1 text-sm text-ink-soft">{section.intro}</p>}
+            {(section.id === 'washer' || section.id === 'dryer') && <LibraryModelPicker slot={section.id} />}
             {fields.length > 0 && (
               <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
                 {fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
@@ -115,13 +117,16 @@ export function PlanEditor({
   baseRevision,
   params,
   saveBeforeCheck = false,
+  submit,
 }: {
-  projectId: string;
+  projectId: string | null;
   initialPlan: PlanInput | null;
   baseRevision: number | null;
   params: RuleSetParameters;
   /** The form does not show the saved revision as it is (it was cut to the plan limits): save before a check. */
   saveBeforeCheck?: boolean;
+  /** Instead of saving a revision (a quick check without a project): what the submit button does with the plan. */
+  submit?: { label: string; run: (plan: PlanInput) => Promise<string> };
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
@@ -131,6 +136,7 @@ export function PlanEditor({
   const [summaryErrors, setSummaryErrors] = useState<FieldError[]>([]);
   const [running, setRunning] = useState(false);
   const dirty = formState.isDirty;
+  const failWord = submit ? 'Not checked' : 'Not saved';
 
   // Unsaved changes are not lost by closing the tab or following a link without a warning.
   useEffect(() => {
@@ -159,6 +165,10 @@ export function PlanEditor({
     setStatus(null);
     setSummaryErrors([]);
     try {
+      if (submit) {
+        setStatus({ kind: 'ok', text: await submit.run(formToPlan(values)) });
+        return null;
+      }
       const res = await fetchJson<{ revision: { number: number; changeSummary: string } }>(`/api/projects/${projectId}/plans`, {
         method: 'POST',
         json: { plan: formToPlan(values) },
@@ -172,9 +182,9 @@ export function PlanEditor({
         const errs = err.errors.map((e) => ({ path: e.path.replace(/^plan\./, ''), message: e.message }));
         for (const e of errs) setError(formPathFor(e.path), { type: 'server', message: e.message });
         setSummaryErrors(errs);
-        setStatus({ kind: 'error', text: 'Not saved: fix the fields listed below.' });
+        setStatus({ kind: 'error', text: `${failWord}: fix the fields listed below.` });
       } else {
-        setStatus({ kind: 'error', text: `Not saved: ${(err as Error).message} Your changes are still here.` });
+        setStatus({ kind: 'error', text: `${failWord}: ${(err as Error).message} Your changes are still here.` });
       }
       return null;
     }
@@ -201,21 +211,21 @@ export function PlanEditor({
     };
     walk(errors, '');
     setSummaryErrors(list);
-    setStatus({ kind: 'error', text: 'Not saved: fix the fields listed below.' });
+    setStatus({ kind: 'error', text: `${failWord}: fix the fields listed below.` });
   };
 
   return (
     <FormProvider {...form}>
       <form onSubmit={handleSubmit(save, onInvalid)} noValidate className="space-y-5" aria-label="Closet plan">
         <div className="no-print sticky top-0 z-10 -mx-4 flex flex-wrap items-center gap-3 border-b border-rule bg-paper/95 px-4 py-3 backdrop-blur">
-          <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Save plan</button>
-          <button type="button" className="btn-secondary" onClick={runCheck} disabled={running || dirty || saveBeforeCheck || baseRevision === null}
+          <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>{submit?.label ?? 'Save plan'}</button>
+          {!submit && <button type="button" className="btn-secondary" onClick={runCheck} disabled={running || dirty || saveBeforeCheck || baseRevision === null}
             title={dirty || saveBeforeCheck ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
             {running ? 'Running check…' : 'Run check'}
-          </button>
-          <span className="text-sm text-ink-soft" data-testid="editor-state">
+          </button>}
+          {!submit && <span className="text-sm text-ink-soft" data-testid="editor-state">
             {dirty ? 'Unsaved changes' : baseRevision ? `Revision ${baseRevision} saved` : 'Not saved yet'}
-          </span>
+          </span>}
           {status && (
             <span role={status.kind === 'error' ? 'alert' : 'status'} className={`text-sm font-semibold ${status.kind === 'error' ? 'text-status-fail' : 'text-status-pass'}`} data-testid="editor-status">
               {status.text}

@@ -20,7 +20,11 @@ export type NavItem = { href: string; label: string };
 /** The app shell's navigation for each role. */
 export function navigationFor(role: Role): NavItem[] {
   const byRole: Record<Role, NavItem[]> = {
-    installer: [{ href: '/projects', label: 'Projects' }],
+    installer: [
+      { href: '/projects', label: 'Projects' },
+      { href: '/quick-check', label: 'Quick check' },
+      { href: '/appliances', label: 'Appliance library' },
+    ],
     inspector: [{ href: '/inspections', label: 'Inspections' }],
     admin: [
       { href: '/rules', label: 'Rules' },
@@ -34,6 +38,8 @@ export function navigationFor(role: Role): NavItem[] {
 /** Which app pages each role may open; the page itself checks again server-side. */
 export const pageRoles: Record<string, readonly Role[]> = {
   '/projects': ['installer', 'admin'],
+  '/appliances': ['installer'],
+  '/quick-check': ['installer'],
   '/inspections': ['inspector', 'admin'],
   '/rules': ['admin'],
   '/jurisdictions': ['admin'],

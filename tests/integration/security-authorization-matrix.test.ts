@@ -44,6 +44,8 @@ type Ids = {
   publishedId: string;
   draftId: string;
   ruleKey: string;
+  applianceId: string;
+  applianceToDeleteId: string;
 };
 
 type Send =
@@ -82,6 +84,8 @@ let draftRule: Record<string, unknown>;
 
 const a = (...s: Statuses) => s;
 
+const matrixWasher = () => ({ kind: 'washer', label: `Matrix washer ${randomBytes(4).toString('hex')} (test)`, widthIn: 27, depthIn: 32, heightIn: 39 });
+
 //                                                              anon owner other insp oinsp admin
 const apiMatrix: Record<string, ApiRow> = {
   'GET /api/health':                             { path: () => '/api/health', expect: a(200, 200, 200, 200, 200, 200) },
@@ -113,6 +117,16 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/projects/[id]/attachments':          { path: (i) => `/api/projects/${i.projectId}/attachments`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/projects/[id]/attachments':         { path: (i) => `/api/projects/${i.projectId}/attachments`, send: { form: photoForm }, expect: a(401, 201, 404, 403, 403, 403) },
   // The county inspector sees the photo because the report that includes it was sent to the county.
+  // The appliance library is the company's installers' alone; another company's model answers 404.
+  'GET /api/appliances':                         { path: () => '/api/appliances', expect: a(401, 200, 200, 403, 403, 403) },
+  'POST /api/appliances':                        { path: () => '/api/appliances', send: { json: () => matrixWasher() }, expect: a(401, 201, 201, 403, 403, 403) },
+  'GET /api/appliances/[id]':                    { path: (i) => `/api/appliances/${i.applianceId}`, expect: a(401, 200, 404, 403, 403, 403) },
+  'PATCH /api/appliances/[id]':                  { path: (i) => `/api/appliances/${i.applianceId}`, send: { json: () => ({ frontProjectionIn: 2 }) }, expect: a(401, 200, 404, 403, 403, 403) },
+  'DELETE /api/appliances/[id]':                 { path: (i) => `/api/appliances/${i.applianceToDeleteId}`, expect: a(401, 204, 404, 403, 403, 403) },
+  'GET /api/appliances/csv':                     { path: () => '/api/appliances/csv', expect: a(401, 200, 200, 403, 403, 403) },
+  'POST /api/appliances/csv':                    { path: () => '/api/appliances/csv', send: { bytes: () => new TextEncoder().encode(`kind,label,width_in,depth_in,height_in\r\nwasher,${matrixWasher().label},27,32,39\r\n`) }, expect: a(401, 201, 201, 403, 403, 403) },
+  'POST /api/projects/[id]/duplicate':           { path: (i) => `/api/projects/${i.projectId}/duplicate`, send: { json: () => ({ name: 'Matrix copy (test)' }) }, expect: a(401, 201, 404, 403, 403, 403) },
+  'POST /api/quick-checks':                      { path: () => '/api/quick-checks', send: { json: () => ({ name: 'Matrix quick check (test)', siteAddress: '3 Matrix Lane', jurisdiction: 'demo-county', plan: hallClosetPassPlan }) }, expect: a(401, 201, 201, 403, 403, 403) },
   'GET /api/attachments/[id]':                   { path: (i) => `/api/attachments/${i.attachmentId}`, expect: a(401, 200, 404, 200, 404, 200) },
   'PATCH /api/attachments/[id]':                 { path: (i) => `/api/attachments/${i.attachmentId}`, send: { json: () => ({ caption: 'Matrix caption' }) }, expect: a(401, 200, 404, 403, 403, 403) },
   'DELETE /api/attachments/[id]':                { path: (i) => `/api/attachments/${i.attachmentToDeleteId}`, expect: a(401, 200, 404, 403, 403, 403) },
@@ -167,6 +181,8 @@ const pageMatrix: Record<string, PageRow> = {
   '/verify/[code]':                     { path: (i) => `/verify/${i.reportCode}`, expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
   '/home':                              { path: () => '/home', expect: p('sign-in', '→ /projects', '→ /projects', '→ /inspections', '→ /inspections', '→ /rules') },
   '/account':                           { path: () => '/account', expect: p('sign-in', 'ok', 'ok', 'ok', 'ok', 'ok') },
+  '/appliances':                        { path: () => '/appliances', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'forbidden') },
+  '/quick-check':                       { path: () => '/quick-check', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'forbidden') },
   '/projects':                          { path: () => '/projects', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'ok') },
   '/projects/new':                      { path: () => '/projects/new', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'forbidden') },
   '/projects/[id]':                     { path: (i) => `/projects/${i.projectId}`, expect: p('sign-in', 'ok', 'not-found', 'forbidden', 'forbidden', 'ok') },
@@ -342,6 +358,8 @@ beforeAll(async () => {
   ids.reportCode = sent.report.code;
   ids.reportId = (await db.selectFrom('reports').select('id').where('code', '=', ids.reportCode).executeTakeFirstOrThrow()).id;
   ids.attachmentToDeleteId = await uploadPhoto(owner, '#993366');
+  ids.applianceId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance')).id;
+  ids.applianceToDeleteId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance to delete')).id;
   ids.tokenId = (await must(await api('/api/tokens', postJson({ name: 'matrix: to be revoked' }, { cookie: owner })), 201, 'token')).id;
 
   ids.slug = `it-matrix-${randomBytes(4).toString('hex')}`;

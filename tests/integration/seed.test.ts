@@ -47,6 +47,17 @@ describe('demo seed', () => {
     expect(jur.every((j) => j.is_demo)).toBe(true);
   });
 
+  it('gives the demo company an invented appliance catalog marked demo, and the other company none', async () => {
+    const models = await scratch.db
+      .selectFrom('appliance_models as m')
+      .innerJoin('organizations as o', 'o.id', 'm.organization_id')
+      .select(['o.name', 'm.kind', 'm.label', 'm.is_demo'])
+      .execute();
+    expect(new Set(models.map((m) => m.name))).toEqual(new Set(['Demo Closet Works']));
+    expect(models.map((m) => m.kind).sort()).toEqual(['dryer', 'dryer', 'dryer', 'dryer', 'washer', 'washer', 'washer-dryer']);
+    expect(models.every((m) => m.is_demo && m.label.startsWith('Demo ') && m.label.endsWith('(demo)'))).toBe(true);
+  });
+
   it('leaves exactly the same rows when run twice', async () => {
     const before = await snapshot();
     await seedDemo(scratch.db);

@@ -1,14 +1,15 @@
 import { mmToInches } from '@/lib/domain/units';
 
-/** Cup of a concealed hinge: 35 mm across (hinge makers' literature; TRADE.md, V). */
-export const CUP_DIAMETER_MM = 35;
+import { CUP_DIAMETER_MM, DOOR_DETAIL_DEFAULTS } from '@/lib/domain/facts/door-details';
+
+export { CUP_BORING_RANGE_MM, CUP_DIAMETER_MM, DOOR_DETAIL_DEFAULTS } from '@/lib/domain/facts/door-details';
 
 /**
- * Boring distance, door edge to the rim of the cup hole. Makers allow 3–8 mm (TRADE.md, hinge
- * makers' literature); 5 mm is the usual middle setting for a full-overlay door. Common
- * practice, no published source for the choice.
+ * Boring distance, door edge to the rim of the cup hole, where a door does not give its own. Makers allow
+ * 3–8 mm (TRADE.md, hinge makers' literature); 5 mm is the usual middle setting for a full-overlay door.
+ * Common practice, no published source for the choice.
  */
-export const CUP_BORING_DISTANCE_MM = 5;
+export const CUP_BORING_DISTANCE_MM = DOOR_DETAIL_DEFAULTS.cupBoringDistanceMm.value;
 
 /**
  * Mounting-plate centre line, set back from the front edge of the side panel. Common practice,
@@ -35,7 +36,5 @@ export const SCALE_CHECK_MM = 100;
 export const TEMPLATE_SHEET_IN = { width: 7, height: 9.5 } as const;
 
 export const cupRadiusIn = mmToInches(CUP_DIAMETER_MM / 2);
-/** Door edge to the cup centre: boring distance plus the cup radius. */
-export const cupCentreFromEdgeIn = mmToInches(CUP_BORING_DISTANCE_MM + CUP_DIAMETER_MM / 2);
 export const plateSetbackIn = mmToInches(PLATE_SETBACK_MM);
 export const plateHoleSpacingIn = mmToInches(PLATE_HOLE_SPACING_MM);

@@ -1,10 +1,10 @@
 import { hingesRequired } from '@/lib/domain/facts';
 import { isPathWithin, type Plan, type PlanFieldPath, type PlanFieldPattern } from '@/lib/domain/plan';
 import { formatLength, inchesToMm, mmToInches, type UnitSystem } from '@/lib/domain/units';
+import { doorDetails, type Mounting } from '@/lib/domain/facts/door-details';
 import {
-  CUP_BORING_DISTANCE_MM,
+  CUP_BORING_RANGE_MM,
   CUP_DIAMETER_MM,
-  cupCentreFromEdgeIn,
   cupRadiusIn,
   PLATE_HOLE_SPACING_MM,
   PLATE_SETBACK_MAX_DOOR_MM,
@@ -44,6 +44,9 @@ export interface DoorHingeLayout {
   thicknessIn: number | null;
   /** Door edge to cup centre: boring distance plus half the 35 mm cup. */
   cupCentreFromDoorEdgeIn: number;
+  /** Door edge to the rim of the cup hole: the plan's, or the default (common practice, no published source). */
+  cupBoringDistanceIn: number;
+  mounting: Mounting;
   /** Side panel front edge to the plate centre line (PLATE_SETBACK_MM, common practice). */
   plateSetbackIn: number;
   positions: HingePosition[];
@@ -98,8 +101,9 @@ function doorLayout(
   if (door.hinges === undefined) missing.push(`doors.${index}.hinges`);
   if (layout.insideHeight === null) missing.push(...layout.missing.filter((p) => isPathWithin(p, INSIDE_HEIGHT_FIELDS)));
 
-  const bottom = box?.bottom ?? layout.toeKickHeight;
-  const hingeSide = box?.hingeSide ?? 'left';
+  const details = box?.details ?? doorDetails(door);
+  const bottom = box?.bottom ?? layout.toeKickHeight + details.gapBelowIn;
+  const hingeSide = details.hingeSide;
   const mountsOn = box?.mountsOn ?? 'none';
   const sideKnown = layout.hasEnclosure && layout.panel > 0;
 
@@ -118,13 +122,28 @@ function doorLayout(
     });
 
   const n = index + 1;
-  const hangNote = `Plate heights assume door ${n} hangs with its bottom edge ${bottom > 0 ? `at the top of the toe kick, ${formatLength(bottom, plan.units)} above the floor` : 'at the floor'}; re-measure if it hangs otherwise.`;
-  const setbackNote = `Plate centre line ${PLATE_SETBACK_MM} mm from the front edge and cup boring distance ${CUP_BORING_DISTANCE_MM} mm: common practice for full-overlay doors with a 0 mm plate, no published source. The hinge maker's chart governs.`;
+  const base0 = layout.toeKickHeight;
+  const gapText = details.gapBelowIn > 0 ? `${formatLength(details.gapBelowIn, plan.units)} above ${base0 > 0 ? 'the top of the toe kick' : 'the floor'} (the plan's gap under the door), ${formatLength(bottom, plan.units)} above the floor` : base0 > 0 ? `at the top of the toe kick, ${formatLength(bottom, plan.units)} above the floor` : 'at the floor';
+  const hangNote = `Plate heights assume door ${n} hangs with its bottom edge ${gapText}; re-measure if it hangs otherwise.`;
+  const boringMm = Number(inchesToMm(details.cupBoringDistanceIn).toFixed(1));
+  const boringText = details.cupBoringAssumed
+    ? `cup boring distance ${boringMm} mm (not in the plan: common practice, no published source)`
+    : `cup boring distance ${boringMm} mm (the plan's)`;
+  const setbackNote = `Plate centre line ${PLATE_SETBACK_MM} mm from the front edge (common practice for full-overlay doors with a 0 mm plate, no published source) and ${boringText}. The hinge maker's chart governs.`;
   notes.push('The plan gives hinge positions from the bottom of the door; here they are measured from the top (door height less the position from the bottom).');
   notes.push(hangNote, setbackNote);
   if (mountsOn === 'none') notes.push(`Door ${n} meets another door on its hinge side: mount its plates on a stile or partition and measure from that front edge.`);
   if (door.thickness !== undefined && inchesToMm(door.thickness) > PLATE_SETBACK_MAX_DOOR_MM) {
     notes.push(`Door ${n} is thicker than ${PLATE_SETBACK_MAX_DOOR_MM} mm: check the hinge maker's chart for the boring distance, cup and plate setback.`);
+  }
+  const insetNote = `Door ${n} is inset: it closes inside the opening, so its hinges need the maker's inset plates or arms and their own setback; the ${PLATE_SETBACK_MM} mm line is for overlay doors.`;
+  if (details.mounting === 'inset') {
+    notes.push(insetNote);
+  } else if (details.mountingAssumed) {
+    notes.push(`Door ${n} is drawn as an overlay door (the plan does not say overlay or inset).`);
+  }
+  if (details.boringOutsideRange) {
+    notes.push(`Door ${n}'s cup boring distance of ${boringMm} mm is outside the ${CUP_BORING_RANGE_MM.min}–${CUP_BORING_RANGE_MM.max} mm hinge makers allow: check the hinge maker's chart.`);
   }
   if (door.hinges !== undefined && door.hinges.length === 0) notes.push(`Door ${n} has no hinge positions in the plan.`);
   if (positions.some((p) => p.plateFromOpeningTopIn !== null && p.plateFromOpeningTopIn < 0)) {
@@ -155,7 +174,9 @@ function doorLayout(
     heightIn: height,
     widthIn: door.width ?? null,
     thicknessIn: door.thickness ?? null,
-    cupCentreFromDoorEdgeIn: cupCentreFromEdgeIn,
+    cupCentreFromDoorEdgeIn: details.cupCentreFromEdgeIn,
+    cupBoringDistanceIn: details.cupBoringDistanceIn,
+    mounting: details.mounting,
     plateSetbackIn,
     positions,
     missing,
@@ -164,7 +185,7 @@ function doorLayout(
   return {
     ...base,
     overview: overviewDrawing(plan, layout, base, bottom, flagged, edgeMark?.status),
-    template: templateDrawing(plan.units, base, [setbackNote, hangNote]),
+    template: templateDrawing(plan.units, base, [setbackNote, hangNote, ...(details.mounting === 'inset' ? [insetNote] : [])]),
   };
 }
 
@@ -275,8 +296,8 @@ function templateDrawing(units: UnitSystem, d: LayoutBase, assumptions: string[]
   detail.push({ kind: 'line', role: 'centre-line', from: [cupX, markY - r - 0.15], to: [cupX, markY + r + 0.15] });
   detail.push({ kind: 'text', role: 'label', at: [cupX - r - 0.08, markY + 0.3], text: `${CUP_DIAMETER_MM} mm cup`, size: 0.1, anchor: 'end' });
   detail.push({ kind: 'dimension', role: 'dimension', from: [cupX, markY], to: [doorEdge, markY], offset: -(r + 0.3), valueIn: d.cupCentreFromDoorEdgeIn, label: `${L(d.cupCentreFromDoorEdgeIn)} to cup centre`, size: 0.09 });
-  const bore = mmToInches(CUP_BORING_DISTANCE_MM);
-  detail.push({ kind: 'dimension', role: 'dimension', from: [doorEdge - bore, markY], to: [doorEdge, markY], offset: r + 0.25, valueIn: bore, label: `boring ${CUP_BORING_DISTANCE_MM} mm`, size: 0.09 });
+  const bore = d.cupBoringDistanceIn;
+  detail.push({ kind: 'dimension', role: 'dimension', from: [doorEdge - bore, markY], to: [doorEdge, markY], offset: r + 0.25, valueIn: bore, label: `boring ${Number(inchesToMm(bore).toFixed(1))} mm`, size: 0.09 });
 
   const plateX = panelFront + d.plateSetbackIn;
   const half = plateHoleSpacingIn / 2;

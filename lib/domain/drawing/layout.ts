@@ -1,4 +1,5 @@
 import { insideDimension } from '@/lib/domain/facts/clearances';
+import { doorDetails, type DoorDetails } from '@/lib/domain/facts/door-details';
 import type { Appliance, Door, Plan, PlanFieldPath } from '@/lib/domain/plan';
 import { measure, MissingList } from '@/lib/domain/drawing/shapes';
 
@@ -32,6 +33,8 @@ export interface DoorBox {
   /** The side panel the hinges screw to; 'none' for a door meeting another door. */
   mountsOn: 'left-panel' | 'right-panel' | 'none';
   hinges: number[];
+  /** Hinge side, fit, gap under the door and cup boring distance: the plan's, or the stated defaults. */
+  details: DoorDetails;
 }
 
 export interface ClosetLayout {
@@ -151,10 +154,12 @@ export function closetLayout(plan: Plan): ClosetLayout {
     bottom: toeKickHeight,
     panel,
   });
-  if (doors.some((d) => d.kind === 'hinged')) {
-    notes.push(
-      `Doors drawn with their bottom edge ${toeKickHeight > 0 ? 'at the top of the toe kick' : 'at the floor'}; hinge sides assumed (a pair hinges on the outer edges, a single door on the left).`,
-    );
+  const hinged = doors.filter((d) => d.kind === 'hinged');
+  if (hinged.some((d) => d.details.gapBelowAssumed)) {
+    notes.push(`Doors without a gap under them in the plan are drawn with their bottom edge ${toeKickHeight > 0 ? 'at the top of the toe kick' : 'at the floor'}.`);
+  }
+  if (hinged.some((d) => d.details.hingeSideAssumed)) {
+    notes.push('Hinge sides not in the plan are assumed: a pair hinges on its outer edges, a single door on the left.');
   }
 
   return {
@@ -196,19 +201,21 @@ function layoutDoors(
   return placed.map(({ door, index, width }, position) => {
     const kind = door.kind ?? 'hinged';
     const centre = x + width / 2;
-    const hingeSide: DoorBox['hingeSide'] = centre > at.centre + 1e-9 ? 'right' : 'left';
+    const details = doorDetails(door, centre > at.centre + 1e-9 ? 'right' : 'left');
+    const hingeSide = details.hingeSide;
     const outermost = hingeSide === 'left' ? position === 0 : position === placed.length - 1;
     const box: DoorBox = {
       index,
       kind,
       x,
       width,
-      bottom: at.bottom,
+      bottom: at.bottom + details.gapBelowIn,
       height: missing.take(`doors.${index}.height`, door.height) ?? null,
       thickness: door.thickness ?? at.panel,
       hingeSide,
       mountsOn: kind !== 'hinged' || !outermost ? 'none' : hingeSide === 'left' ? 'left-panel' : 'right-panel',
       hinges: door.hinges ?? [],
+      details,
     };
     if (door.thickness === undefined) missing.add([`doors.${index}.thickness`]);
     if (kind === 'hinged' && door.hinges === undefined) missing.add([`doors.${index}.hinges`]);

@@ -1,9 +1,10 @@
 import type { Appliance, Plan } from '@/lib/domain/plan';
 import { define, type FactContext, type FactDefinition, type Need } from '@/lib/domain/facts/context';
+import { insetDepthIn } from '@/lib/domain/facts/door-details';
 
 export const clearanceFactDefinitions: FactDefinition[] = [
   define('clearances.insideWidthIn', 'length', 'Inside width of the enclosure (outside width less two side panels when measured outside).', ['enclosure.width', 'enclosure.depthMeasured', 'enclosure.panelThickness']),
-  define('clearances.insideDepthIn', 'length', 'Inside depth of the enclosure, back panel to the closed doors.', ['enclosure.depth', 'enclosure.depthMeasured', 'enclosure.panelThickness']),
+  define('clearances.insideDepthIn', 'length', 'Inside depth of the enclosure, back panel to the closed doors (an inset door closes inside a depth measured inside).', ['enclosure.depth', 'enclosure.depthMeasured', 'enclosure.panelThickness', 'doors']),
   define('clearances.insideHeightIn', 'length', 'Inside height of the enclosure, floor to the top panel.', ['enclosure.height', 'enclosure.depthMeasured', 'enclosure.panelThickness']),
   define('clearances.requiredWidthIn', 'length', 'Width the units need with the maker’s side clearances.', ['arrangement', 'washer.width', 'dryer.width', 'washer.clearances.side', 'dryer.clearances.side']),
   define('clearances.requiredDepthIn', 'length', 'Depth the units need: cabinet, knobs and door, and the maker’s front and rear clearances.', ['washer.depth', 'dryer.depth', 'washer.frontProjection', 'dryer.frontProjection', 'washer.clearances.front', 'washer.clearances.rear', 'dryer.clearances.front', 'dryer.clearances.rear']),
@@ -27,7 +28,8 @@ export function insideDimension(plan: Plan, need: Need, dimension: 'width' | 'de
   const enclosure = plan.enclosure;
   const measured = need(`enclosure.${dimension}`, enclosure?.[dimension]);
   const how = need('enclosure.depthMeasured', enclosure?.depthMeasured);
-  if (how === 'inside') return measured;
+  // An inside depth runs to the panels' front edges; an inset door closes within it, by its own thickness.
+  if (how === 'inside') return dimension === 'depth' ? measured - insetDepthIn(plan.doors, (door, i) => need(`doors.${i}.thickness`, door.thickness)) : measured;
   const panel = need('enclosure.panelThickness', enclosure?.panelThickness);
   if (dimension === 'width') return measured - 2 * panel;
   if (dimension === 'depth') return measured - panel - doorAllowance(plan, panel);

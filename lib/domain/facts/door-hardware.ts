@@ -5,7 +5,7 @@ import { insideDimension, overallDepth, units } from '@/lib/domain/facts/clearan
 
 export const doorHardwareFactDefinitions: FactDefinition[] = [
   define('doors.hingedDoorCount', 'count', 'Number of hinged enclosure doors.', ['doors']),
-  define('doors.frontGapIn', 'length', 'Depth left between the closed doors and the furthest-forward appliance front, units set back at the maker’s rear clearance.', ['enclosure.depth', 'washer.depth', 'dryer.depth', 'washer.frontProjection', 'dryer.frontProjection', 'washer.clearances.rear', 'dryer.clearances.rear']),
+  define('doors.frontGapIn', 'length', "Depth left between the closed doors' back face (an inset door's inside the opening) and the furthest-forward appliance front, units set back at the maker’s rear clearance.", ['enclosure.depth', 'doors', 'washer.depth', 'dryer.depth', 'washer.frontProjection', 'dryer.frontProjection', 'washer.clearances.rear', 'dryer.clearances.rear']),
   define('doors.hingeCount', 'count', 'Hinges on the door with the largest shortfall against the chart.', ['doors']),
   define('doors.hingeCountRequired', 'count', 'Hinges the chart asks for on that door, by its height.', ['doors']),
   define('doors.hingeEdgeDistanceMinIn', 'length', 'Least distance from a door’s top or bottom edge to its nearest hinge.', ['doors']),

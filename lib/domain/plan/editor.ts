@@ -10,7 +10,7 @@ import {
   type PlanSectionId,
 } from '@/lib/domain/plan/registry';
 
-export type EditorFieldKind = 'length' | 'area' | 'number' | 'boolean' | 'choice' | 'length-list' | 'presence';
+export type EditorFieldKind = 'length' | 'area' | 'number' | 'boolean' | 'choice' | 'text' | 'length-list' | 'presence';
 
 export interface EditorField {
   /** Path inside the plan (or inside one list item for list fields). */
@@ -32,6 +32,8 @@ export interface EditorField {
    * fields with conditions of their own or on a group holding them.
    */
   appliesPath?: string;
+  /** For text set by another control: kept out of sight, or shown read-only. */
+  display?: 'hidden' | 'read-only';
 }
 
 export interface EditorList {
@@ -81,6 +83,8 @@ function leafField(entry: Exclude<PlanEntry, GroupEntry>, path: string): EditorF
       return [{ ...base, kind: 'number', unit: entry.unit }];
     case 'boolean':
       return [{ ...base, kind: 'boolean' }];
+    case 'text':
+      return [{ ...base, kind: 'text', ...(entry.editor ? { display: entry.editor } : {}) }];
     case 'choice':
       return [{ ...base, kind: 'choice', choices: entry.choices, ...(entry.choiceLabels ? { choiceLabels: entry.choiceLabels } : {}) }];
     case 'list':

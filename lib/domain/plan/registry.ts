@@ -97,6 +97,13 @@ export interface LengthField extends Entry { kind: 'length' }
 export interface AreaField extends Entry { kind: 'area' }
 export interface NumberField extends Entry { kind: 'number'; unit: string; min: 'nonnegative' | 'positive' }
 export interface BooleanField extends Entry { kind: 'boolean' }
+export interface TextField extends Entry {
+  kind: 'text';
+  maxLength: number;
+  format?: 'uuid';
+  /** How the editor shows it: kept out of sight, or shown without being typed into (another control sets it). */
+  editor?: 'hidden' | 'read-only';
+}
 export interface ChoiceField extends Entry {
   kind: 'choice';
   choices: readonly (string | number)[];
@@ -120,7 +127,7 @@ export interface ListEntry extends Entry {
   bespoke?: 'exhaust-route-builder';
 }
 
-export type PlanEntry = LengthField | AreaField | NumberField | BooleanField | ChoiceField | GroupEntry | ListEntry;
+export type PlanEntry = LengthField | AreaField | NumberField | BooleanField | TextField | ChoiceField | GroupEntry | ListEntry;
 export type PlanFieldKind = PlanEntry['kind'];
 
 const words = (values: readonly string[]) => Object.fromEntries(values.map((v) => [v, v.replace(/-/g, ' ')]));
@@ -163,6 +170,8 @@ export const condensateHandling = ['drain', 'reservoir'] as const;
 export const condensateReceptors = ['standpipe', 'floor-drain', 'indirect-receptor', 'none'] as const;
 export const terminationLocations = ['outdoors', 'attic', 'crawl-space', 'soffit', 'garage', 'other-indoor'] as const;
 export const disconnectMeans = ['within-sight', 'lockable-breaker', 'none'] as const;
+export const doorHingeSides = ['left', 'right'] as const;
+export const doorMountings = ['overlay', 'inset'] as const;
 const arrangements = ['side-by-side', 'stacked'] as const;
 export const buildingTypes = ['dwelling', 'other'] as const;
 
@@ -204,7 +213,22 @@ const clearances = {
   },
 } as const;
 
+/**
+ * The appliance-library model a unit's figures were taken from, as it was when picked: its id and its label
+ * at that time. The plan keeps its own figures, so a model edited or deleted later leaves the plan as saved.
+ */
+const libraryModel = {
+  kind: 'group',
+  help: "The company's appliance-library model this unit's figures were filled from, with its label at the time.",
+  none: { answer: 'null', meaning: 'Not filled from the appliance library.' },
+  fields: {
+    id: { kind: 'text', maxLength: 36, format: 'uuid', editor: 'hidden', label: 'Library model id', help: 'Id of the library model the figures came from.' },
+    label: { kind: 'text', maxLength: 120, editor: 'read-only', label: 'Filled from library model', help: "The library model's label when it was picked." },
+  },
+} as const;
+
 const applianceFields = {
+  model: libraryModel,
   width: { kind: 'length', label: 'Width', help: 'Cabinet width of the unit.' },
   depth: {
     kind: 'length',
@@ -634,6 +658,33 @@ export const planRegistry = {
           width: { kind: 'length', label: 'Width', help: 'Width of the door leaf.' },
           height: { kind: 'length', label: 'Height', help: 'Height of the door leaf.' },
           thickness: { kind: 'length', label: 'Thickness', help: 'Thickness of the door leaf.' },
+          hingeSide: {
+            kind: 'choice',
+            label: 'Hinge side',
+            help: 'The edge the hinges are on, seen from the room facing the closet.',
+            hint: 'Seen from the room. Blank: a pair hinges on its outer edges, a single door on the left.',
+            choices: doorHingeSides,
+          },
+          mounting: {
+            kind: 'choice',
+            label: 'Door fits',
+            help: 'Overlay: the closed door covers the front edges of the panels. Inset: it closes inside the opening, flush with them.',
+            hint: 'Blank: overlay.',
+            choices: doorMountings,
+            choiceLabels: { overlay: 'overlay (covers the panel edges)', inset: 'inset (inside the opening)' },
+          },
+          gapBelow: {
+            kind: 'length',
+            label: 'Gap under the door',
+            help: 'Gap between the bottom edge of the door and the floor, or the top of the toe kick where there is one.',
+            hint: 'Blank: none (the door comes down to the floor or the toe kick).',
+          },
+          cupBoringDistance: {
+            kind: 'length',
+            label: 'Hinge cup boring distance',
+            help: 'Distance from the door’s hinge edge to the rim of the 35 mm hinge cup hole, from the hinge maker’s chart.',
+            hint: 'Blank: 5 mm (common practice, no published source); hinge makers allow 3–8 mm.',
+          },
           hinges: {
             kind: 'list',
             label: 'Hinge positions from the bottom edge',

@@ -52,6 +52,8 @@ type Value<N, M extends Mode> = N extends { kind: 'length' | 'area' }
     ? number
     : N extends { kind: 'boolean' }
       ? boolean
+      : N extends { kind: 'text' }
+        ? string
       : N extends { kind: 'choice'; choices: readonly (infer V)[] }
         ? V | Nullable<N>
         : N extends { kind: 'group'; fields: infer F }
@@ -98,6 +100,10 @@ function buildEntry(entry: PlanEntry, path: string, length: FieldFactory, area: 
       return (entry.min === 'positive' ? z.number().positive() : z.number().nonnegative()).describe(entry.help);
     case 'boolean':
       return z.boolean().describe(entry.help);
+    case 'text': {
+      const text = entry.format === 'uuid' ? z.uuid() : z.string().trim().min(1);
+      return (bounded ? text.max(entry.maxLength) : text).describe(entry.help);
+    }
     case 'choice': {
       if (entry.choices.every((c) => typeof c === 'string')) {
         return z.enum(entry.choices as unknown as [string, ...string[]]).describe(entry.help);

@@ -5,6 +5,7 @@ import { listChecks } from '@/db/checks';
 import { listPlanRevisions } from '@/db/plan-revisions';
 import { RunCheckButton } from '@/components/checks/run-check-button';
 import { AttachmentsPanel } from '@/components/projects/attachments-panel';
+import { DuplicateProjectButton } from '@/components/projects/duplicate-project-button';
 import { listProjectSends, listReviewsForProject } from '@/db/reports';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
@@ -112,6 +113,9 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
             <p className="mt-1">{project.jurisdiction.name}</p>
             <p className="mt-1 text-ink-soft">{published ? `Rule set version ${published.version}, published ${published.publishedAt?.toLocaleDateString()}` : 'No published rule set'}</p>
             {user.role === 'installer' && <Link href={`/projects/${project.id}/edit`} className="mt-3 inline-block underline">Edit project details</Link>}
+            {user.role === 'installer' && (
+              <DuplicateProjectButton projectId={project.id} name={project.name} siteAddress={project.siteAddress} revisions={revisions.map((r) => r.number)} />
+            )}
           </section>
           <section className="card p-5 text-sm" aria-labelledby="revs-h">
             <div className="flex items-center justify-between">
