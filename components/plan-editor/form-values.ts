@@ -1,5 +1,6 @@
 // Converts between a saved plan (as the installer entered it) and the editor's string-valued form.
-import { editorSections, followingGroups, type EditorField, type PlanInput } from '@/lib/domain/plan';
+import { editorSections, followingGroups, type EditorField } from '@/lib/domain/plan/editor';
+import type { PlanInput } from '@/lib/domain/plan';
 
 // The form holds one string per field, and arrays of those for lists, under the plan's own paths.
 export type FormValues = Record<string, any>;
