@@ -124,3 +124,35 @@ test('on the check page the findings come before the report forms', async ({ pag
   const [fy, ay] = [(await findings.boundingBox())!.y, (await actions.boundingBox())!.y];
   expect(fy).toBeLessThan(ay);
 });
+
+test('a large photo is scaled in the browser to 2,560 px on its longest side and the upload shows its progress', async ({ page }) => {
+  test.setTimeout(90_000);
+  await signInAs(page, 'installer2@nookpass.demo');
+  const project = await page.request.post('/api/projects', { data: { name: `E2E photo ${Date.now()} (test)`, siteAddress: '4 Photo Street', jurisdiction: 'demo-county' } });
+  const { id } = (await project.json()) as { id: string };
+  await page.setViewportSize(phone);
+  await page.goto(`/projects/${id}`);
+
+  // A 4000 × 3000 photo, as a phone camera makes them.
+  const sharp = (await import('sharp')).default;
+  const big = await sharp({ create: { width: 4000, height: 3000, channels: 3, background: { r: 180, g: 150, b: 110 } } }).jpeg({ quality: 90 }).toBuffer();
+  await page.locator('#att-file').setInputFiles({ name: 'nameplate.jpg', mimeType: 'image/jpeg', buffer: big });
+  await page.getByLabel('Caption').fill('dryer nameplate (test)');
+
+  // A slow link, so the progress is there to see.
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 50, downloadThroughput: 500_000, uploadThroughput: 20_000 });
+  await page.getByRole('button', { name: 'Upload' }).click();
+  await expect(page.getByTestId('upload-progress')).toContainText(/Uploading: \d+ %/);
+  await expect(page.getByTestId('upload-note')).toHaveText('Uploaded nameplate.jpg, scaled from 4000 × 3000 to 2560 × 1920 px.', { timeout: 60_000 });
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+
+  const { attachments } = (await (await page.request.get(`/api/projects/${id}/attachments`)).json()) as { attachments: { id: string; caption: string }[] };
+  const stored = attachments.find((a) => a.caption === 'dryer nameplate (test)');
+  expect(stored).toBeTruthy();
+  const original = await page.request.get(`/api/attachments/${stored!.id}`);
+  expect(original.status()).toBe(200);
+  const meta = await sharp(await original.body()).metadata();
+  // 4000 × 3000 scaled by 2560 / 4000 = 0.64 is 2560 × 1920.
+  expect({ width: meta.width, height: meta.height, format: meta.format }).toEqual({ width: 2560, height: 1920, format: 'jpeg' });
+});
