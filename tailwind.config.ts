@@ -15,7 +15,7 @@ export default {
           fail: '#b23a2a',
           caution: '#b8860b',
           info: '#4a58b8',
-          na: '#7a7f86',
+          na: '#646970',
         },
       },
       fontFamily: {

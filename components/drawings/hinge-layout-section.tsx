@@ -12,7 +12,8 @@ function length(value: number | null, units: UnitSystem): string {
 function PositionTable({ layout, units }: { layout: DoorHingeLayout; units: UnitSystem }) {
   if (layout.positions.length === 0) return null;
   return (
-    <div className="mt-4 overflow-x-auto">
+    // Focusable so a keyboard can scroll the table on a narrow screen.
+    <div className="mt-4 overflow-x-auto" tabIndex={0} role="region" aria-label={`Door ${layout.doorIndex + 1} hinge positions`}>
       <table className="min-w-full text-sm">
         <caption className="sr-only">Door {layout.doorIndex + 1} hinge and plate positions</caption>
         <thead className="text-left text-xs uppercase tracking-wide text-ink-faint">
@@ -53,7 +54,7 @@ export function HingeLayoutSection({ layout, units }: { layout: DoorHingeLayout;
         <PositionTable layout={layout} units={units} />
         <DrawingNotes notes={layout.notes} />
       </DrawingFigure>
-      <div className="card overflow-x-auto p-4 print:overflow-visible print:border-0 print:p-0 print:shadow-none print:break-before-page">
+      <div tabIndex={0} role="region" aria-label={`Door ${n} drilling template`} className="card overflow-x-auto p-4 print:overflow-visible print:border-0 print:p-0 print:shadow-none print:break-before-page">
         <p className="no-print mb-3 text-sm text-ink-soft">
           Door {n} drilling template. It prints at full size on its own Letter or A4 sheet; set the print scale to 100 % (actual size) and check the 100 mm bar with a rule before drilling.
         </p>

@@ -1,9 +1,11 @@
 'use client';
 
 import { useFieldArray, useFormContext, useWatch } from 'react-hook-form';
+import { useKeepFocus } from '@/components/plan-editor/keep-focus';
 import { fittingEquivalentIn } from '@/lib/domain/facts/exhaust';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import type { EditorField, EditorList, PlanFieldPath, RunItem } from '@/lib/domain/plan';
+import type { PlanFieldPath, RunItem } from '@/lib/domain/plan';
+import type { EditorField, EditorList } from '@/lib/domain/plan/editor';
 import { formatLength, parseLength, type UnitSystem } from '@/lib/domain/units';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import { ListLimit } from '@/components/plan-editor/list-limit';
@@ -53,6 +55,17 @@ export function ExhaustRouteBuilder({ list, params }: { list: EditorList; params
   const over = developedIn > allowedIn;
   const full = fields.length >= list.max;
   const id = `f-${list.path.replace(/\./g, '-')}`;
+  const focusNext = useKeepFocus();
+  const addPiece = (piece: FormRunItem) => {
+    append({ straight: '', elbow: '', fitting: '', ...piece }, { shouldFocus: false });
+    focusNext(`${id}-${fields.length}-${piece.elbow ? 'elbow' : 'straight'}`);
+  };
+  const removePiece = (i: number) => {
+    remove(i);
+    // The keyboard stays in the route: on the piece that took this one's place, the one before, or the add key.
+    const left = fields.length - 1;
+    focusNext(left === 0 ? `${id}-add` : `${id}-remove-${Math.min(i, left - 1)}`);
+  };
 
   return (
     <fieldset id={id} className="rounded-lg border border-rule p-4" aria-describedby={`${id}-limit`}>
@@ -101,9 +114,9 @@ export function ExhaustRouteBuilder({ list, params }: { list: EditorList; params
                   {rows[i]?.equivalentIn == null ? '—' : `${rows[i].isElbow ? 'counts ' : ''}${formatLength(rows[i].equivalentIn!, units)}`}
                 </span>
                 <span className="flex gap-1">
-                  <button type="button" className="btn-secondary px-2 py-1" onClick={() => move(i, i - 1)} disabled={i === 0} aria-label={`Move piece ${i + 1} up`}>↑</button>
-                  <button type="button" className="btn-secondary px-2 py-1" onClick={() => move(i, i + 1)} disabled={i === fields.length - 1} aria-label={`Move piece ${i + 1} down`}>↓</button>
-                  <button type="button" className="btn-danger px-2 py-1" onClick={() => remove(i)} aria-label={`Remove piece ${i + 1}`}>✕</button>
+                  <button type="button" className="btn-secondary min-w-[44px] px-2 py-1" onClick={() => move(i, i - 1)} disabled={i === 0} aria-label={`Move piece ${i + 1} up`}>↑</button>
+                  <button type="button" className="btn-secondary min-w-[44px] px-2 py-1" onClick={() => move(i, i + 1)} disabled={i === fields.length - 1} aria-label={`Move piece ${i + 1} down`}>↓</button>
+                  <button type="button" id={`${id}-remove-${i}`} className="btn-danger min-w-[44px] px-2 py-1" onClick={() => removePiece(i)} aria-label={`Remove piece ${i + 1}`}>✕</button>
                 </span>
               </div>
             </div>
@@ -113,9 +126,9 @@ export function ExhaustRouteBuilder({ list, params }: { list: EditorList; params
       {fields.length === 0 && <p className="mt-3 text-sm text-ink-faint">No pieces yet. Start with the straight run leaving the transition connection.</p>}
 
       <div className="mt-4 flex flex-wrap gap-2">
-        <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '', fitting: '' })}>Add straight run</button>
-        <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '90', fitting: 'mitered' })}>Add 90° elbow</button>
-        <button type="button" className="btn-secondary" disabled={full} onClick={() => append({ straight: '', elbow: '45', fitting: 'mitered' })}>Add 45° elbow</button>
+        <button type="button" id={`${id}-add`} className="btn-secondary" disabled={full} onClick={() => addPiece({})}>Add straight run</button>
+        <button type="button" className="btn-secondary" disabled={full} onClick={() => addPiece({ elbow: '90', fitting: 'mitered' })}>Add 90° elbow</button>
+        <button type="button" className="btn-secondary" disabled={full} onClick={() => addPiece({ elbow: '45', fitting: 'mitered' })}>Add 45° elbow</button>
       </div>
       <ListLimit name={list.path} count={fields.length} max={list.max} noun="pieces in the route" />
     </fieldset>

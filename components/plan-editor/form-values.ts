@@ -1,5 +1,7 @@
 // Converts between a saved plan (as the installer entered it) and the editor's string-valued form.
-import { conditionsAt, editorSections, fieldApplies, followingGroups, type EditorField, type PlanInput } from '@/lib/domain/plan';
+import { editorSections, followingGroups, type EditorField } from '@/lib/domain/plan/editor';
+import { conditionsAt, fieldApplies } from '@/lib/domain/plan/registry';
+import type { PlanInput } from '@/lib/domain/plan';
 
 // The form holds one string per field, and arrays of those for lists, under the plan's own paths.
 export type FormValues = Record<string, any>;

@@ -5,12 +5,16 @@ import { useEffect, useMemo, useState } from 'react';
 import { FormProvider, useFieldArray, useForm, useFormContext, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import type { RuleSetParameters } from '@/lib/domain/params';
-import { editorSections, entryAt, parsePlan, type EditorList, type PlanInput } from '@/lib/domain/plan';
+import type { PlanInput } from '@/lib/domain/plan';
+import { editorSections, type EditorList, type EditorSection } from '@/lib/domain/plan/editor';
+import { entryAt } from '@/lib/domain/plan/registry';
 import { ExhaustRouteBuilder } from '@/components/plan-editor/exhaust-route-builder';
 import { formToPlan, isShown, planToForm, type FormValues } from '@/components/plan-editor/form-values';
 import { LibraryModelPicker } from '@/components/plan-editor/library-model-picker';
 import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
+import { useKeepFocus } from '@/components/plan-editor/keep-focus';
+import { SectionStatusContext, useSectionFailCount, useSectionStatusSource, type SectionStatus } from '@/components/plan-editor/section-status';
 import type { FieldError } from '@/lib/domain/errors';
 
 
@@ -35,7 +39,9 @@ function toFormErrors(errors: FieldError[]): FieldErrors<FormValues> {
 }
 
 // The editor validates with the plan's own schema (the one the API parses), after turning its text fields into a plan.
+// The schema (and zod under it) loads on first validation, so it does not hold up the form's first paint.
 const planResolver: Resolver<FormValues> = async (values) => {
+  const { parsePlan } = await import('@/lib/domain/plan');
   const parsed = parsePlan(formToPlan(values));
   if (parsed.ok) return { values, errors: {} };
   return { values: {}, errors: toFormErrors(parsed.errors) };
@@ -46,27 +52,55 @@ function ListEditor({ list, plan }: { list: EditorList; plan: PlanInput }) {
   const { fields, append, remove } = useFieldArray({ control, name: list.path });
   const full = fields.length >= list.max;
   const id = `f-${list.path.replace(/\./g, '-')}`;
+  const focusNext = useKeepFocus();
+  const item = list.itemLabel.toLowerCase();
   return (
     <fieldset id={id} className="mt-4 rounded-lg border border-rule p-4" aria-describedby={`${id}-limit`}>
       <legend className="px-1 text-base font-semibold">{list.label}</legend>
-      {fields.length === 0 && <p className="text-sm text-ink-faint">None yet.</p>}
+      {fields.length === 0 && <p className="text-sm text-ink-soft">None yet.</p>}
       <ol className="space-y-4">
         {fields.map((f, i) => (
           <li key={f.id} className="rounded-md border border-rule bg-white p-3">
-            <div className="mb-2 flex items-center justify-between">
-              <span className="text-sm font-semibold">{list.itemLabel} {i + 1}</span>
-              <button type="button" className="btn-danger px-2 py-1 text-xs" onClick={() => remove(i)}>Remove {list.itemLabel.toLowerCase()} {i + 1}</button>
-            </div>
-            <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
-              {list.fields.map((spec) => {
-                const name = `${list.path}.${i}.${spec.path}`;
-                return isShown(spec, plan, name) ? <PlanField key={spec.path} spec={spec} name={name} /> : null;
-              })}
-            </div>
+            <fieldset>
+              <legend className="sr-only">{list.itemLabel} {i + 1}</legend>
+              <div className="mb-2 flex items-center justify-between">
+                <span className="text-sm font-semibold" aria-hidden="true">{list.itemLabel} {i + 1}</span>
+                <button
+                  type="button"
+                  id={`${id}-remove-${i}`}
+                  className="btn-danger px-2 py-1 text-xs"
+                  onClick={() => {
+                    remove(i);
+                    const left = fields.length - 1;
+                    focusNext(left === 0 ? `${id}-add` : `${id}-remove-${Math.min(i, left - 1)}`);
+                  }}
+                >
+                  Remove {item} {i + 1}
+                </button>
+              </div>
+              <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+                {list.fields.map((spec) => {
+                  const name = `${list.path}.${i}.${spec.path}`;
+                  return isShown(spec, plan, name) ? <PlanField key={spec.path} spec={spec} name={name} /> : null;
+                })}
+              </div>
+            </fieldset>
           </li>
         ))}
       </ol>
-      <button type="button" className="btn-secondary mt-3" onClick={() => append({ ...list.newItem })} disabled={full}>Add {list.itemLabel.toLowerCase()}</button>
+      <button
+        type="button"
+        id={`${id}-add`}
+        className="btn-secondary mt-3"
+        onClick={() => {
+          append({ ...list.newItem }, { shouldFocus: false });
+          const first = list.fields[0];
+          if (first) focusNext(`${id}-${fields.length}-${first.path.replace(/\./g, '-')}`);
+        }}
+        disabled={full}
+      >
+        Add {item}
+      </button>
       <ListLimit name={list.path} count={fields.length} max={list.max} noun={list.label.toLowerCase()} />
     </fieldset>
   );
@@ -76,37 +110,125 @@ function getPath(values: FormValues, path: string): unknown {
   return path.split('.').reduce<unknown>((o, k) => (o == null ? undefined : (o as Record<string, unknown>)[k]), values);
 }
 
-function Sections({ params }: { params: RuleSetParameters }) {
+/** The sections, fields and lists that apply to the plan as it stands (no gas details for an electric dryer). */
+function useVisibleSections(): { sections: EditorSection[]; plan: PlanInput } {
   const values = useWatch() as FormValues;
-  // Fields that do not apply to the plan as it stands (gas details for an electric dryer) are not shown.
   const plan = formToPlan(values);
+  const sections = editorSections
+    .filter((s) => !s.shownWhen || getPath(values, s.shownWhen.path) === s.shownWhen.equals)
+    .map((s) => ({
+      ...s,
+      fields: s.fields.filter((spec) => isShown(spec, plan, spec.appliesPath ?? spec.path)),
+      lists: s.lists.filter((list) => isShown(list, plan, list.path)),
+    }))
+    .filter((s) => s.fields.length > 0 || s.lists.length > 0);
+  return { sections, plan };
+}
+
+function failText(count: number | null): string {
+  if (count === null) return 'not checked yet';
+  return count === 0 ? 'none failing' : `${count} failing`;
+}
+
+function StatusBadge({ id }: { id: EditorSection['id'] }) {
+  const count = useSectionFailCount(id);
+  return (
+    <span
+      className={`rounded-full px-2 py-0.5 text-xs font-semibold ${count ? 'bg-status-fail/10 text-status-fail' : 'bg-paper-deep text-ink-soft'}`}
+      data-testid={`section-status-${id}`}
+    >
+      {failText(count)}
+    </span>
+  );
+}
+
+/** Links to every section; on a phone, following one opens that section and closes the others. */
+function JumpList({ sections, onJump }: { sections: EditorSection[]; onJump: (id: EditorSection['id']) => void }) {
+  const { caption } = useSectionStatusSource();
+  return (
+    <nav aria-label="Plan sections" className="no-print" data-testid="section-jump-list">
+      <ul className="flex gap-2 overflow-x-auto pb-1 sm:flex-wrap">
+        {sections.map((s) => (
+          <li key={s.id} className="shrink-0">
+            <a
+              href={`#section-${s.id}`}
+              onClick={() => onJump(s.id)}
+              className="inline-flex min-h-[44px] items-center gap-2 rounded-md border border-rule bg-white px-3 text-sm font-semibold text-ink underline-offset-2 hover:underline"
+            >
+              {s.title} <StatusBadge id={s.id} />
+            </a>
+          </li>
+        ))}
+      </ul>
+      {caption && <p className="mt-1 text-xs text-ink-soft">Failing counts {caption}.</p>}
+    </nav>
+  );
+}
+
+/**
+ * One plan section as a fieldset named by its legend. On a phone it collapses to its title and how many
+ * findings fail in it; wider screens always show it whole.
+ */
+function PlanSection({ section, plan, params, open, onToggle }: { section: EditorSection; plan: PlanInput; params: RuleSetParameters; open: boolean; onToggle: () => void }) {
+  const bodyId = `section-body-${section.id}`;
+  return (
+    <fieldset id={`section-${section.id}`} data-section={section.id} data-open={open} className="card min-w-0 scroll-mt-28 p-5">
+      <legend className="float-left w-full">
+        <button
+          type="button"
+          className="flex min-h-[44px] w-full items-center justify-between gap-3 text-left text-lg font-bold sm:hidden"
+          aria-expanded={open}
+          aria-controls={bodyId}
+          onClick={onToggle}
+          data-testid={`section-toggle-${section.id}`}
+        >
+          <span>{section.title}</span>
+          <StatusBadge id={section.id} />
+        </button>
+        <span className="hidden items-center gap-3 text-lg font-bold sm:flex">
+          {section.title}
+        </span>
+      </legend>
+      <div id={bodyId} className={`clear-both ${open ? 'block' : 'hidden sm:block'}`} data-testid={`section-body-${section.id}`}>
+        {section.intro && <p className="mt-1 text-sm text-ink-soft">{section.intro}</p>}
+        {(section.id === 'washer' || section.id === 'dryer') && <LibraryModelPicker slot={section.id} />}
+        {section.fields.length > 0 && (
+          <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+            {section.fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
+          </div>
+        )}
+        {section.lists.map((list) =>
+          list.bespoke === 'exhaust-route-builder' ? (
+            <div key={list.path} className="mt-5"><ExhaustRouteBuilder list={list} params={params} /></div>
+          ) : (
+            <ListEditor key={list.path} list={list} plan={plan} />
+          ),
+        )}
+      </div>
+    </fieldset>
+  );
+}
+
+function sectionOfElement(el: Element | null): EditorSection['id'] | null {
+  return (el?.closest('[data-section]')?.getAttribute('data-section') as EditorSection['id'] | null) ?? null;
+}
+
+function Sections({ params, openId, setOpenId }: { params: RuleSetParameters; openId: EditorSection['id'] | null; setOpenId: (id: EditorSection['id'] | null) => void }) {
+  const { sections, plan } = useVisibleSections();
+  const jump = (id: EditorSection['id']) => setOpenId(id);
   return (
     <>
-      {editorSections.map((section) => {
-        if (section.shownWhen && getPath(values, section.shownWhen.path) !== section.shownWhen.equals) return null;
-        const fields = section.fields.filter((spec) => isShown(spec, plan, spec.appliesPath ?? spec.path));
-        const lists = section.lists.filter((list) => isShown(list, plan, list.path));
-        if (fields.length === 0 && lists.length === 0) return null;
-        return (
-          <section key={section.id} id={`section-${section.id}`} aria-labelledby={`h-${section.id}`} className="card p-5">
-            <h2 id={`h-${section.id}`} className="text-lg font-bold">{section.title}</h2>
-            {section.intro && <p className="mt-1 text-sm text-ink-soft">{section.intro}</p>}
-            {(section.id === 'washer' || section.id === 'dryer') && <LibraryModelPicker slot={section.id} />}
-            {fields.length > 0 && (
-              <div className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-                {fields.map((spec) => <PlanField key={spec.path} spec={spec} name={spec.path} />)}
-              </div>
-            )}
-            {lists.map((list) =>
-              list.bespoke === 'exhaust-route-builder' ? (
-                <div key={list.path} className="mt-5"><ExhaustRouteBuilder list={list} params={params} /></div>
-              ) : (
-                <ListEditor key={list.path} list={list} plan={plan} />
-              ),
-            )}
-          </section>
-        );
-      })}
+      <JumpList sections={sections} onJump={jump} />
+      {sections.map((section) => (
+        <PlanSection
+          key={section.id}
+          section={section}
+          plan={plan}
+          params={params}
+          open={openId === section.id}
+          onToggle={() => setOpenId(openId === section.id ? null : section.id)}
+        />
+      ))}
     </>
   );
 }
@@ -118,6 +240,7 @@ export function PlanEditor({
   params,
   saveBeforeCheck = false,
   submit,
+  sectionStatus = { source: 'none', failBySection: {} },
 }: {
   projectId: string | null;
   initialPlan: PlanInput | null;
@@ -127,6 +250,8 @@ export function PlanEditor({
   saveBeforeCheck?: boolean;
   /** Instead of saving a revision (a quick check without a project): what the submit button does with the plan. */
   submit?: { label: string; run: (plan: PlanInput) => Promise<string> };
+  /** Failing findings per section, from the latest stored check. */
+  sectionStatus?: SectionStatus;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
@@ -137,6 +262,29 @@ export function PlanEditor({
   const [running, setRunning] = useState(false);
   const dirty = formState.isDirty;
   const failWord = submit ? 'Not checked' : 'Not saved';
+  // On a phone one section is open at a time; the first until the installer picks another.
+  const [openId, setOpenId] = useState<EditorSection['id'] | null>(editorSections[0]?.id ?? null);
+
+  // A link to a section or a field (the jump list, the error summary, a shared address) opens its section.
+  useEffect(() => {
+    const openFor = (hash: string) => {
+      const target = hash.length > 1 ? document.getElementById(decodeURIComponent(hash.slice(1))) : null;
+      const section = sectionOfElement(target);
+      if (section) setOpenId(section);
+    };
+    openFor(window.location.hash);
+    const onClick = (e: MouseEvent) => {
+      const a = (e.target as HTMLElement)?.closest?.('a[href^="#"]') as HTMLAnchorElement | null;
+      if (a) openFor(a.getAttribute('href') ?? '');
+    };
+    const onHash = () => openFor(window.location.hash);
+    document.addEventListener('click', onClick, true);
+    window.addEventListener('hashchange', onHash);
+    return () => {
+      document.removeEventListener('click', onClick, true);
+      window.removeEventListener('hashchange', onHash);
+    };
+  }, []);
 
   // Unsaved changes are not lost by closing the tab or following a link without a warning.
   useEffect(() => {
@@ -181,6 +329,8 @@ export function PlanEditor({
       if (err instanceof ApiError && err.errors.length) {
         const errs = err.errors.map((e) => ({ path: e.path.replace(/^plan\./, ''), message: e.message }));
         for (const e of errs) setError(formPathFor(e.path), { type: 'server', message: e.message });
+        const first = errs[0] ? sectionOfElement(document.getElementById(`f-${formPathFor(errs[0].path).replace(/\./g, '-')}`)) : null;
+        if (first) setOpenId(first);
         setSummaryErrors(errs);
         setStatus({ kind: 'error', text: `${failWord}: fix the fields listed below.` });
       } else {
@@ -210,6 +360,8 @@ export function PlanEditor({
       for (const [k, v] of Object.entries(o)) if (k !== 'ref' && k !== 'message' && k !== 'type') walk(v, path ? `${path}.${k}` : k);
     };
     walk(errors, '');
+    const first = list[0] ? sectionOfElement(document.getElementById(`f-${formPathFor(list[0].path).replace(/\./g, '-')}`)) : null;
+    if (first) setOpenId(first);
     setSummaryErrors(list);
     setStatus({ kind: 'error', text: `${failWord}: fix the fields listed below.` });
   };
@@ -246,7 +398,9 @@ export function PlanEditor({
           </div>
         )}
 
-        <Sections params={params} />
+        <SectionStatusContext.Provider value={sectionStatus}>
+          <Sections params={params} openId={openId} setOpenId={setOpenId} />
+        </SectionStatusContext.Provider>
       </form>
     </FormProvider>
   );

@@ -3,6 +3,7 @@
 import { useRef, useState } from 'react';
 import useSWR from 'swr';
 import { fetchJson, swrFetcher } from '@/lib/platform/client/fetch-json';
+import { MAX_PHOTO_SIDE_PX, preparePhoto, uploadWithProgress } from '@/lib/platform/client/photo-upload';
 
 type A = { id: string; kind: 'photo' | 'document'; filename: string; caption: string; byteSize: number; createdAt: string };
 
@@ -12,6 +13,9 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
   const [caption, setCaption] = useState('');
   const [busy, setBusy] = useState(false);
   const [uploadError, setUploadError] = useState<string | null>(null);
+  // null: nothing under way; 'preparing': the photo is being scaled; a number: the share sent so far.
+  const [progress, setProgress] = useState<'preparing' | number | null>(null);
+  const [note, setNote] = useState<string | null>(null);
   const fileRef = useRef<HTMLInputElement>(null);
 
   async function upload(e: React.FormEvent) {
@@ -20,18 +24,25 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
     if (!file) return setUploadError('Choose a file to upload.');
     setBusy(true);
     setUploadError(null);
-    const form = new FormData();
-    form.set('file', file);
-    form.set('caption', caption);
+    setNote(null);
+    setProgress('preparing');
     try {
-      await fetchJson(url, { method: 'POST', body: form });
+      const prepared = await preparePhoto(file);
+      const form = new FormData();
+      form.set('file', prepared.file);
+      form.set('caption', caption);
+      setProgress(0);
+      await uploadWithProgress(url, form, setProgress);
+      const s = prepared.scaledFrom;
+      setNote(s ? `Uploaded ${prepared.file.name}, scaled from ${s.width} × ${s.height} to ${s.toWidth} × ${s.toHeight} px.` : `Uploaded ${prepared.file.name}.`);
       setCaption('');
       if (fileRef.current) fileRef.current.value = '';
       await mutate();
     } catch (err) {
-      setUploadError((err as Error).message);
+      setUploadError(`${(err as Error).message} The file was not saved; choose it again to retry.`);
     } finally {
       setBusy(false);
+      setProgress(null);
     }
   }
 
@@ -54,13 +65,23 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
         <form onSubmit={upload} className="mt-4 flex flex-wrap items-end gap-3" noValidate>
           <div>
             <label htmlFor="att-file" className="field-label">File (JPEG, PNG, WebP or PDF, up to 15 MB)</label>
-            <input id="att-file" ref={fileRef} type="file" accept="image/jpeg,image/png,image/webp,application/pdf" className="mt-1 block text-sm" aria-describedby={uploadError ? 'att-error' : undefined} />
+            <input id="att-file" ref={fileRef} type="file" accept="image/jpeg,image/png,image/webp,application/pdf" className="mt-1 block min-h-[44px] text-sm" aria-describedby={`att-file-hint${uploadError ? ' att-error' : ''}`} />
+            <p id="att-file-hint" className="mt-1 text-xs text-ink-soft">Photos larger than {MAX_PHOTO_SIDE_PX.toLocaleString('en-US')} px on their longest side are scaled down to a JPEG before they are sent.</p>
           </div>
           <div className="min-w-[14rem] flex-1">
             <label htmlFor="att-caption" className="field-label">Caption</label>
             <input id="att-caption" className="field-input" value={caption} onChange={(e) => setCaption(e.target.value)} placeholder="e.g. dryer nameplate" />
           </div>
           <button type="submit" className="btn-primary" disabled={busy}>{busy ? 'Uploading…' : 'Upload'}</button>
+          {progress !== null && (
+            <div className="w-full" role="status" data-testid="upload-progress">
+              <label htmlFor="att-progress" className="text-sm text-ink-soft">
+                {progress === 'preparing' ? 'Preparing the photo…' : `Uploading: ${Math.round(progress * 100)} %`}
+              </label>
+              <progress id="att-progress" className="mt-1 block h-2 w-full" max={1} value={progress === 'preparing' ? undefined : progress} />
+            </div>
+          )}
+          {note && progress === null && <p role="status" className="w-full text-sm text-ink-soft" data-testid="upload-note">{note}</p>}
           {uploadError && <p id="att-error" role="alert" className="field-error w-full">{uploadError}</p>}
         </form>
       )}
@@ -88,7 +109,7 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
               ) : (
                 <p className="mt-1">{a.caption}</p>
               )}
-              {canEdit && <button type="button" className="btn-danger mt-2 px-2 py-1 text-xs" onClick={() => remove(a)}>Delete</button>}
+              {canEdit && <button type="button" className="btn-danger mt-2 px-2 py-1 text-xs" onClick={() => remove(a)} aria-label={`Delete ${a.filename}`}>Delete</button>}
             </li>
           ))}
         </ul>

@@ -13,7 +13,8 @@ export default async function UsersPage() {
   return (
     <>
       <PageHeader kicker="Administration" title="Users" />
-      <div className="card overflow-x-auto">
+      {/* Focusable so a keyboard can scroll the table on a phone. */}
+      <div className="card overflow-x-auto" tabIndex={0} role="region" aria-label="Users">
         <table className="min-w-full text-sm">
           <caption className="sr-only">Everyone who can sign in</caption>
           <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-ink-soft">

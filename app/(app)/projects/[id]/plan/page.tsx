@@ -12,6 +12,9 @@ import { defaultParameters } from '@/lib/domain/params';
 import { findOversizeLists, truncateToLimits, type PlanInput } from '@/lib/domain/plan';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
 import { findRuleSetById } from '@/db/rule-sets';
+import { findCheck, listChecks } from '@/db/checks';
+import { failingBySection } from '@/lib/domain/checks/sections';
+import type { SectionStatus } from '@/components/plan-editor/section-status';
 
 export const metadata: Metadata = { title: 'Plan' };
 
@@ -33,6 +36,7 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
   // A revision saved before the list limits opens cut to them, so the editor stays usable; the stored row is untouched.
   const oversize = revision ? findOversizeLists(revision.plan) : [];
   const initialPlan = revision ? (truncateToLimits(revision.plan) as PlanInput) : null;
+  const sectionStatus = await latestCheckStatus(db, user, id);
 
   return (
     <>
@@ -61,7 +65,21 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
         saveBeforeCheck={oversize.length > 0}
         baseRevision={latest?.number ?? null}
         params={parameters}
+        sectionStatus={sectionStatus}
       />
     </>
   );
+}
+
+/** Failing findings per editor section from the project's latest stored check (the live check replaces them). */
+async function latestCheckStatus(db: ReturnType<typeof getDb>, user: Parameters<typeof listChecks>[1], projectId: string): Promise<SectionStatus> {
+  const [latest] = await listChecks(db, user, projectId);
+  const check = latest ? await findCheck(db, user, latest.id) : null;
+  if (!check) return { source: 'none', failBySection: {} };
+  const ruleSet = await findRuleSetById(db, check.ruleSet.id);
+  return {
+    source: 'stored',
+    failBySection: failingBySection(check.findings, ruleSet?.rules ?? []),
+    caption: `from the check of revision ${check.planRevision.number}`,
+  };
 }

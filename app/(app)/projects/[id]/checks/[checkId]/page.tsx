@@ -60,7 +60,13 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
 
       <div className="mt-4"><SafetyNotice /></div>
 
-      <div className="mt-6">
+      <section className="mt-6" aria-labelledby="findings-h" data-testid="check-findings">
+        <h2 id="findings-h" className="sr-only">Findings</h2>
+        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} />
+      </section>
+
+      {/* The findings come first: at the job site the installer opens the check to see what fails. */}
+      <div className="mt-6" data-testid="check-report-actions">
         <ReportActions checkId={check.id} inspectorEmail={inspectorEmail} canSend={user.role === 'installer'} />
       </div>
 
@@ -81,10 +87,6 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
         </section>
       )}
 
-      <section className="mt-6" aria-labelledby="findings-h">
-        <h2 id="findings-h" className="sr-only">Findings</h2>
-        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} />
-      </section>
 
       <section className="card mt-6 p-5 text-sm" aria-labelledby="cited-h">
         <h2 id="cited-h" className="font-bold">Sections checked</h2>
