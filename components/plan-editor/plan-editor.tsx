@@ -11,6 +11,7 @@ import { formToPlan, planToForm, type FormValues } from '@/components/plan-edito
 import { ListLimit } from '@/components/plan-editor/list-limit';
 import { PlanField } from '@/components/plan-editor/measure-field';
 import type { FieldError } from '@/lib/domain/errors';
+import { LiveCheckPanel, LiveCheckProvider, type LiveSource } from '@/components/live-check/live-check-panel';
 
 
 /** Maps a plan path to the editor field that shows it ("doors.0.hinges.2" → "doors.0.hinges"). */
@@ -109,6 +110,7 @@ export function PlanEditor({
   baseRevision,
   params,
   saveBeforeCheck = false,
+  live = null,
 }: {
   projectId: string;
   initialPlan: PlanInput | null;
@@ -116,10 +118,12 @@ export function PlanEditor({
   params: RuleSetParameters;
   /** The form does not show the saved revision as it is (it was cut to the plan limits): save before a check. */
   saveBeforeCheck?: boolean;
+  /** Where the live check reads its rules; without it the editor shows no live panel. */
+  live?: LiveSource | null;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
-  const form = useForm<FormValues>({ defaultValues, resolver: planResolver, mode: 'onBlur' });
+  const form = useForm<FormValues>({ defaultValues, resolver: planResolver, mode: 'onChange' });
   const { formState, handleSubmit, reset, setError } = form;
   const [status, setStatus] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
   const [summaryErrors, setSummaryErrors] = useState<FieldError[]>([]);
@@ -186,6 +190,11 @@ export function PlanEditor({
     }
   }
 
+  // Save, then check the revision just saved on the server; a refused save checks nothing and keeps every edit.
+  const saveAndCheck = handleSubmit(async (values) => {
+    if ((await save(values)) !== null) await runCheck();
+  }, (errors) => onInvalid(errors));
+
   const onInvalid = (errors: FieldErrors<FormValues>) => {
     const list: FieldError[] = [];
     const walk = (o: any, path: string) => {
@@ -200,6 +209,8 @@ export function PlanEditor({
 
   return (
     <FormProvider {...form}>
+      <LiveCheckProvider source={live ?? { jurisdiction: '', version: null }}>
+      <div className={live ? 'grid items-start gap-5 lg:grid-cols-[minmax(0,1fr)_24rem]' : undefined}>
       <form onSubmit={handleSubmit(save, onInvalid)} noValidate className="space-y-5" aria-label="Closet plan">
         <div className="no-print sticky top-0 z-10 -mx-4 flex flex-wrap items-center gap-3 border-b border-rule bg-paper/95 px-4 py-3 backdrop-blur">
           <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>Save plan</button>
@@ -207,6 +218,7 @@ export function PlanEditor({
             title={dirty || saveBeforeCheck ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
             {running ? 'Running check…' : 'Run check'}
           </button>
+          <button type="button" className="btn-secondary" onClick={() => void saveAndCheck()} disabled={running || formState.isSubmitting}>Save and check</button>
           <span className="text-sm text-ink-soft" data-testid="editor-state">
             {dirty ? 'Unsaved changes' : baseRevision ? `Revision ${baseRevision} saved` : 'Not saved yet'}
           </span>
@@ -232,6 +244,9 @@ export function PlanEditor({
 
         <Sections params={params} />
       </form>
+      {live && <LiveCheckPanel source={live} />}
+      </div>
+      </LiveCheckProvider>
     </FormProvider>
   );
 }

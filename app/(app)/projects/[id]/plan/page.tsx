@@ -61,6 +61,7 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
         saveBeforeCheck={oversize.length > 0}
         baseRevision={latest?.number ?? null}
         params={parameters}
+        live={{ jurisdiction: project.jurisdiction.slug, version: published?.version ?? null }}
       />
     </>
   );
