@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useRef, useState } from 'react';
+import { useEffect, useState } from 'react';
 import { useFormContext } from 'react-hook-form';
 import type { Finding, RuleSetForEvaluation } from '@/lib/domain/engine';
 import type { UnitSystem } from '@/lib/domain/units';
@@ -74,8 +74,6 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
   const [extras, setExtras] = useState<LiveExtras | null>(null);
   const [runs, setRuns] = useState(0);
   const [applied, setApplied] = useState<AppliedChange[]>([]);
-  const onStateRef = useRef(onState);
-  onStateRef.current = onState;
 
   useEffect(() => {
     let live = true;
@@ -109,7 +107,7 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
           if (disposed) return;
           setOutcome(result);
           setRuns((n) => n + 1);
-          if ('evaluation' in result) onStateRef.current({ state: 'ready', bySection: result.bySection });
+          if ('evaluation' in result) onState({ state: 'ready', bySection: result.bySection });
           clearTimeout(extrasTimer);
           if ('evaluation' in result) {
             // Sizes, fixes and drawings follow a moment later, so typing is never held up by them.
@@ -129,7 +127,7 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
       clearTimeout(extrasTimer);
       subscription.unsubscribe();
     };
-  }, [ruleSet, form]);
+  }, [ruleSet, form, onState]);
 
   const units = ((form.getValues('units') as UnitSystem) || 'imperial') as UnitSystem;
 
