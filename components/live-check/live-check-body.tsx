@@ -1,6 +1,6 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { memo, useEffect, useState } from 'react';
 import { useFormContext } from 'react-hook-form';
 import type { Finding, RuleSetForEvaluation } from '@/lib/domain/engine';
 import type { UnitSystem } from '@/lib/domain/units';
@@ -41,6 +41,28 @@ function jumpTo(paths: string[]) {
   }
 }
 
+// Drawings and sizes change only when their own results do, not with every finding update.
+const LiveDrawings = memo(function LiveDrawings({ extras }: { extras: LiveExtras }) {
+  if (!extras.elevation && !extras.planView) return null;
+  return (
+    <div className="mt-4 grid grid-cols-2 gap-2" data-testid="live-drawings">
+      {extras.elevation && (
+        <figure aria-label="Front elevation, failing parts marked">
+          <DrawingSvg drawing={extras.elevation} id="live-elevation" className="h-auto w-full" />
+          <figcaption className="text-center text-xs text-ink-faint">Front</figcaption>
+        </figure>
+      )}
+      {extras.planView && (
+        <figure aria-label="Plan view, failing parts marked">
+          <DrawingSvg drawing={extras.planView} id="live-plan-view" className="h-auto w-full" />
+          <figcaption className="text-center text-xs text-ink-faint">Plan view</figcaption>
+        </figure>
+      )}
+    </div>
+  );
+});
+const MemoSizes = memo(SizesWorkedOut);
+
 const ORDER: Record<Finding['status'], number> = { fail: 0, caution: 1, 'needs-info': 2, pass: 3, 'not-applicable': 4 };
 
 function FindingItem({ finding, ruleSet, fix, units, onApply }: { finding: Finding; ruleSet: RuleSetForEvaluation; fix?: PlanFix; units: UnitSystem; onApply: (fix: PlanFix) => void }) {
@@ -66,7 +88,7 @@ function FindingItem({ finding, ruleSet, fix, units, onApply }: { finding: Findi
   );
 }
 
-export default function LiveCheckBody({ slug, version, onState }: { slug: string; version: number; onState: (s: LiveCheckState) => void }) {
+function LiveCheckBody({ slug, version, onState }: { slug: string; version: number; onState: (s: LiveCheckState) => void }) {
   const form = useFormContext<FormValues>();
   const [ruleSet, setRuleSet] = useState<RuleSetForEvaluation | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
@@ -92,6 +114,7 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
     let running = false;
     let again = false;
     let extrasTimer: ReturnType<typeof setTimeout> | undefined;
+    let lastCounts = '';
     // Every change starts an evaluation at once (it settles before the next frame is painted); changes that
     // arrive while one runs are taken together by the next.
     const run = async () => {
@@ -107,7 +130,12 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
           if (disposed) return;
           setOutcome(result);
           setRuns((n) => n + 1);
-          if ('evaluation' in result) onState({ state: 'ready', bySection: result.bySection });
+          // Section headers re-render only when their counts change, not on every keystroke.
+          const counts = 'evaluation' in result ? JSON.stringify(result.bySection) : lastCounts;
+          if ('evaluation' in result && counts !== lastCounts) {
+            lastCounts = counts;
+            onState({ state: 'ready', bySection: result.bySection });
+          }
           clearTimeout(extrasTimer);
           if ('evaluation' in result) {
             // Sizes, fixes and drawings follow a moment later, so typing is never held up by them.
@@ -223,24 +251,8 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
         </details>
       )}
 
-      {extras && (extras.elevation || extras.planView) && (
-        <div className="mt-4 grid grid-cols-2 gap-2" data-testid="live-drawings">
-          {extras.elevation && (
-            <figure aria-label="Front elevation, failing parts marked">
-              <DrawingSvg drawing={extras.elevation} id="live-elevation" className="h-auto w-full" />
-              <figcaption className="text-center text-xs text-ink-faint">Front</figcaption>
-            </figure>
-          )}
-          {extras.planView && (
-            <figure aria-label="Plan view, failing parts marked">
-              <DrawingSvg drawing={extras.planView} id="live-plan-view" className="h-auto w-full" />
-              <figcaption className="text-center text-xs text-ink-faint">Plan view</figcaption>
-            </figure>
-          )}
-        </div>
-      )}
-
-      {extras && <SizesWorkedOut sizing={extras.sizing} units={units} />}
+      {extras && <LiveDrawings extras={extras} />}
+      {extras && <MemoSizes sizing={extras.sizing} units={units} />}
       <DoorLeavesProposal params={ruleSet.parameters} plan={outcome.plan} units={units} onAccept={applyChanges} />
 
       <p className="mt-4 text-xs text-ink-faint">
@@ -249,3 +261,5 @@ export default function LiveCheckBody({ slug, version, onState }: { slug: string
     </div>
   );
 }
+
+export default memo(LiveCheckBody);
