@@ -1,7 +1,7 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useEffect, useMemo, useState } from 'react';
+import { useContext, useEffect, useMemo, useState, type ReactNode } from 'react';
 import { FormProvider, useFieldArray, useForm, useFormContext, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import type { RuleSetParameters } from '@/lib/domain/params';
@@ -16,6 +16,20 @@ import { PlanField } from '@/components/plan-editor/measure-field';
 import { useKeepFocus } from '@/components/plan-editor/keep-focus';
 import { SectionStatusContext, useSectionFailCount, useSectionStatusSource, type SectionStatus } from '@/components/plan-editor/section-status';
 import type { FieldError } from '@/lib/domain/errors';
+import { LiveCheckPanel, LiveCheckProvider, type LiveSource } from '@/components/live-check/live-check-panel';
+import { LiveCheckContext, REVEAL_FIELD_EVENT } from '@/components/live-check/live-check-context';
+
+/** Each section's failing count: the live check's once it runs, else the latest stored check's. */
+function SectionCounts({ stored, children }: { stored: SectionStatus; children: ReactNode }) {
+  const live = useContext(LiveCheckContext);
+  const value = useMemo<SectionStatus>(() => {
+    if (live.state !== 'ready') return stored;
+    const failBySection: SectionStatus['failBySection'] = {};
+    for (const [id, counts] of Object.entries(live.bySection)) failBySection[id as EditorSection['id']] = counts?.fail ?? 0;
+    return { source: 'live', failBySection, caption: 'from the live check' };
+  }, [live, stored]);
+  return <SectionStatusContext.Provider value={value}>{children}</SectionStatusContext.Provider>;
+}
 
 
 /** Maps a plan path to the editor field that shows it ("doors.0.hinges.2" → "doors.0.hinges"). */
@@ -241,6 +255,7 @@ export function PlanEditor({
   saveBeforeCheck = false,
   submit,
   sectionStatus = { source: 'none', failBySection: {} },
+  live = null,
 }: {
   projectId: string | null;
   initialPlan: PlanInput | null;
@@ -252,10 +267,12 @@ export function PlanEditor({
   submit?: { label: string; run: (plan: PlanInput) => Promise<string> };
   /** Failing findings per section, from the latest stored check. */
   sectionStatus?: SectionStatus;
+  /** Where the live check reads its rules; without it the editor shows no live panel. */
+  live?: LiveSource | null;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
-  const form = useForm<FormValues>({ defaultValues, resolver: planResolver, mode: 'onBlur' });
+  const form = useForm<FormValues>({ defaultValues, resolver: planResolver, mode: 'onChange' });
   const { formState, handleSubmit, reset, setError } = form;
   const [status, setStatus] = useState<{ kind: 'ok' | 'error'; text: string } | null>(null);
   const [summaryErrors, setSummaryErrors] = useState<FieldError[]>([]);
@@ -278,11 +295,17 @@ export function PlanEditor({
       if (a) openFor(a.getAttribute('href') ?? '');
     };
     const onHash = () => openFor(window.location.hash);
+    const onReveal = (e: Event) => {
+      const id = (e as CustomEvent<{ id?: string }>).detail?.id;
+      if (id) openFor(`#${id}`);
+    };
+    window.addEventListener(REVEAL_FIELD_EVENT, onReveal);
     document.addEventListener('click', onClick, true);
     window.addEventListener('hashchange', onHash);
     return () => {
       document.removeEventListener('click', onClick, true);
       window.removeEventListener('hashchange', onHash);
+      window.removeEventListener(REVEAL_FIELD_EVENT, onReveal);
     };
   }, []);
 
@@ -352,6 +375,11 @@ export function PlanEditor({
     }
   }
 
+  // Save, then check the revision just saved on the server; a refused save checks nothing and keeps every edit.
+  const saveAndCheck = handleSubmit(async (values) => {
+    if ((await save(values)) !== null) await runCheck();
+  }, (errors) => onInvalid(errors));
+
   const onInvalid = (errors: FieldErrors<FormValues>) => {
     const list: FieldError[] = [];
     const walk = (o: any, path: string) => {
@@ -368,6 +396,8 @@ export function PlanEditor({
 
   return (
     <FormProvider {...form}>
+      <LiveCheckProvider source={live ?? { jurisdiction: '', version: null }}>
+      <div className={live ? 'grid items-start gap-5 lg:grid-cols-[minmax(0,1fr)_24rem]' : undefined}>
       <form onSubmit={handleSubmit(save, onInvalid)} noValidate className="space-y-5" aria-label="Closet plan">
         <div className="no-print sticky top-0 z-10 -mx-4 flex flex-wrap items-center gap-3 border-b border-rule bg-paper/95 px-4 py-3 backdrop-blur">
           <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>{submit?.label ?? 'Save plan'}</button>
@@ -375,6 +405,7 @@ export function PlanEditor({
             title={dirty || saveBeforeCheck ? 'Save the plan first' : baseRevision === null ? 'Save the first plan revision first' : undefined}>
             {running ? 'Running check…' : 'Run check'}
           </button>}
+          {!submit && <button type="button" className="btn-secondary" onClick={() => void saveAndCheck()} disabled={running || formState.isSubmitting}>Save and check</button>}
           {!submit && <span className="text-sm text-ink-soft" data-testid="editor-state">
             {dirty ? 'Unsaved changes' : baseRevision ? `Revision ${baseRevision} saved` : 'Not saved yet'}
           </span>}
@@ -398,10 +429,13 @@ export function PlanEditor({
           </div>
         )}
 
-        <SectionStatusContext.Provider value={sectionStatus}>
+        <SectionCounts stored={sectionStatus}>
           <Sections params={params} openId={openId} setOpenId={setOpenId} />
-        </SectionStatusContext.Provider>
+        </SectionCounts>
       </form>
+      {live && <LiveCheckPanel source={live} />}
+      </div>
+      </LiveCheckProvider>
     </FormProvider>
   );
 }

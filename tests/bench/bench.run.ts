@@ -12,6 +12,7 @@ import { buildRuleSet } from '@/rules';
 import { hallClosetPassPlan, largestAllowedPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
 import { api, baseUrl, postJson, signIn } from '../integration/helpers';
 import { measureEngineOverhead } from './engine-bench';
+import { measureLiveCheck } from './live-check-bench';
 
 const results: Record<string, unknown> = {};
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -97,6 +98,12 @@ it('/api/evaluations vs a bare route handler under load', async () => {
   results.http = { connections: 20, seconds, bare: summary(bare), evaluations: summary(evals), throughputRatio: +(evals.requests.average / bare.requests.average).toFixed(2), goal: '≥ 0.5' };
   console.log('[bench] http', JSON.stringify(results.http));
   expect(evals.non2xx).toBe(0);
+});
+
+it('live check: time from an edit to the updated panel in Chromium', async () => {
+  results.liveCheck = { ...(await measureLiveCheck(200)), goal: 'within one animation frame (16.7 ms at 60 Hz)' };
+  console.log('[bench] live check', JSON.stringify(results.liveCheck));
+  expect((results.liveCheck as { edits: number }).edits).toBe(200);
 });
 
 it('first-load JavaScript of the plan editor, and what loads after it', async () => {

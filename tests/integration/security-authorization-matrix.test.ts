@@ -146,6 +146,7 @@ const apiMatrix: Record<string, ApiRow> = {
   'PATCH /api/jurisdictions/[slug]':             { path: (i) => `/api/jurisdictions/${i.slug}`, send: { json: () => ({ amendmentNotes: 'Edited by the authorization matrix.' }) }, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/audit':         { path: (i) => `/api/jurisdictions/${i.slug}/audit`, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/impact':        { path: (i) => `/api/jurisdictions/${i.slug}/impact`, expect: a(401, 403, 403, 403, 403, 200) },
+  'GET /api/jurisdictions/[slug]/published/[version]': { path: (i) => `/api/jurisdictions/${i.slug}/published/1`, expect: a(401, 200, 200, 200, 200, 200) },
   'GET /api/jurisdictions/[slug]/rule-sets':     { path: (i) => `/api/jurisdictions/${i.slug}/rule-sets`, expect: a(401, 403, 403, 403, 403, 200) },
   // A jurisdiction has at most one open draft; the admin passes the role check and meets that rule.
   'POST /api/jurisdictions/[slug]/rule-sets':    { path: (i) => `/api/jurisdictions/${i.slug}/rule-sets`, send: { json: () => ({ from: 'published' }) }, expect: a(401, 403, 403, 403, 403, 409) },

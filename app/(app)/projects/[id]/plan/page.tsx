@@ -66,6 +66,7 @@ export default async function PlanPage({ params, searchParams }: { params: Promi
         baseRevision={latest?.number ?? null}
         params={parameters}
         sectionStatus={sectionStatus}
+        live={{ jurisdiction: project.jurisdiction.slug, version: published?.version ?? null }}
       />
     </>
   );
