@@ -20,8 +20,11 @@ describe('live check on the plan as typed', () => {
     // 31-1/2 in outside leaves 30 in inside: depth, rear zone and hinge arms all short (see plan-fixes.test.ts).
     const result = await runLive(set, variant((p) => (p.enclosure.depth = 31.5)));
     if (!('evaluation' in result)) throw new Error('expected an evaluation');
-    expect(result.bySection.enclosure?.caution).toBe(3);
-    expect(result.bySection.doors).toBeUndefined();
+    // The maker's depth clearance is binding (IRC 2018 M1307.1): a fail; rear zone and hinge arms stay cautions.
+    expect(result.bySection.enclosure?.fail).toBe(1);
+    expect(result.bySection.enclosure?.caution).toBe(2);
+    // The inside depth reads each door's overlay or inset, so the depth and hinge-arm findings count in Doors too.
+    expect(result.bySection.doors).toEqual({ fail: 1, caution: 1, needsInfo: 0 });
     // Two hinges on a 78 in (1981 mm) door, where the hinge makers' chart asks four up to 2000 mm (TRADE.md, S).
     const hinges = await runLive(set, variant((p) => (p.doors[0].hinges = [3, 75])));
     if (!('evaluation' in hinges)) throw new Error('expected an evaluation');

@@ -39,8 +39,18 @@ describe('smallest enclosure', () => {
     expect(sizing.spareComfortable).toEqual({ width: 3.5, depth: 1.5, height: 48.25 });
   });
 
-  it('with every size rule a caution, only the units themselves bound the fail-severity size', async () => {
+  it('the maker\'s clearances bound the fail-severity size (installed per the listing, IRC 2018 M1307.1)', async () => {
     const sizing = await sizeEnclosure(ruleSet(), plan());
+    // 24 + 24 + 1 + 1 + 1 = 51 wide, 24 + 2 + 1 + 4 = 31 deep, 34 + 1 = 35 high (plan figures, maker's clearances).
+    expect(sizing.smallestInside).toEqual({ width: 51, depth: 31, height: 35 });
+    expect(sizing.spare).toEqual({ width: 3.5, depth: 3.5, height: 48.25 });
+  });
+
+  it('with every size rule a caution, only the units themselves bound the fail-severity size', async () => {
+    const cautions: RuleSetOverrides = {
+      rules: { 'clearances.width': { severity: 'caution' }, 'clearances.depth': { severity: 'caution' }, 'clearances.height': { severity: 'caution' } },
+    };
+    const sizing = await sizeEnclosure(ruleSet(cautions), plan());
     // The units alone: 24 + 24 wide, 24 + 2 deep, 34 high (plan figures).
     expect(sizing.smallestInside).toEqual({ width: 48, depth: 26, height: 34 });
     expect(sizing.spare).toEqual({ width: 6.5, depth: 8.5, height: 49.25 });
