@@ -8,6 +8,8 @@ export type AppUser = {
   role: Role;
   organizationId: string | null;
   jurisdictionId: string | null;
+  /** An installer who manages their company's people and settings. */
+  isOwner: boolean;
   isDemo: boolean;
 };
 
