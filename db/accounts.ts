@@ -51,6 +51,8 @@ export async function insertCompanyWithOwner(
       organization_id: org.id,
       jurisdiction_id: null,
       is_owner: true,
+      // Confirmed by the link in the welcome e-mail, not by default.
+      email_confirmed_at: null,
       updated_at: new Date(),
     })
     .returning([...USER_COLUMNS])

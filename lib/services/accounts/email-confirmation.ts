@@ -45,10 +45,11 @@ export async function confirmEmail(db: DB, token: string): Promise<{ status: Tok
 
 /** Sends a fresh confirmation link to the signed-in person (older links stop working). */
 export async function resendConfirmation(db: DB, user: AppUser, ctx: { address: string }): Promise<{ sentTo: string }> {
-  await countConfirmationRequest(user.email, ctx.address);
   const account = await findAccountById(db, user.id);
   if (!account) throw new NotFoundError('Your account was not found.');
   if (account.emailConfirmedAt) throw new ConflictError('Your e-mail address is already confirmed.');
+  // Counted only when a message would go out: an already confirmed address sends nothing.
+  await countConfirmationRequest(account.user.email, ctx.address);
   const { token, hash } = newOneTimeToken();
   await db.transaction().execute(async (trx) => {
     await expireOtherEmailTokens(trx, 'email_confirmations', user.id);
