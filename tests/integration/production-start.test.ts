@@ -22,7 +22,7 @@ afterAll(async () => {
 });
 
 function run(script: string, args: string[], env: Record<string, string | undefined>) {
-  const base = { ...process.env, DATABASE_URL: scratch.url };
+  const base: Record<string, string | undefined> = { ...process.env, DATABASE_URL: scratch.url };
   delete base.NOOKPASS_DEMO;
   delete base.NOOKPASS_ADMIN_PASSWORD;
   const res = spawnSync('npx', ['tsx', script, ...args], { env: { ...base, ...env } as NodeJS.ProcessEnv, encoding: 'utf8', timeout: 60_000, stdio: ['ignore', 'pipe', 'pipe'] });
