@@ -8,6 +8,8 @@ export type AppUser = {
   role: Role;
   organizationId: string | null;
   jurisdictionId: string | null;
+  /** An installer who manages their company's people and settings. */
+  isOwner: boolean;
   isDemo: boolean;
 };
 
@@ -24,6 +26,7 @@ export function navigationFor(role: Role): NavItem[] {
       { href: '/projects', label: 'Projects' },
       { href: '/quick-check', label: 'Quick check' },
       { href: '/appliances', label: 'Appliance library' },
+      { href: '/company', label: 'Company' },
     ],
     inspector: [{ href: '/inspections', label: 'Inspections' }],
     admin: [
@@ -44,5 +47,6 @@ export const pageRoles: Record<string, readonly Role[]> = {
   '/rules': ['admin'],
   '/jurisdictions': ['admin'],
   '/users': ['admin'],
+  '/company': ['installer'],
   '/account': roles,
 };

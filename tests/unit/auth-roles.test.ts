@@ -11,7 +11,7 @@ describe('role helper', () => {
   });
 
   it('gives each role its navigation, and everyone Account', () => {
-    expect(navigationFor('installer').map((n) => n.label)).toEqual(['Projects', 'Quick check', 'Appliance library', 'Account']);
+    expect(navigationFor('installer').map((n) => n.label)).toEqual(['Projects', 'Quick check', 'Appliance library', 'Company', 'Account']);
     expect(navigationFor('inspector').map((n) => n.label)).toEqual(['Inspections', 'Account']);
     expect(navigationFor('admin').map((n) => n.label)).toEqual(['Rules', 'Jurisdictions', 'Users', 'Account']);
   });
