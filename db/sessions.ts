@@ -57,9 +57,11 @@ export async function findLiveSession(db: DB, sessionId: string): Promise<LiveSe
     .innerJoin('users', 'users.id', 's.user_id')
     .select([
       's.id as session_id', 's.expires_at', 's.last_seen_at',
-      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo',
+      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo', 'users.is_owner',
     ])
     .where('s.id', '=', sessionId)
+    // A switched-off person's sessions end on their next request.
+    .where('users.deactivated_at', 'is', null)
     .where('s.revoked_at', 'is', null)
     .where('s.expires_at', '>', sql<Date>`now()`)
     .executeTakeFirst();

@@ -9,6 +9,8 @@ export type AppUser = {
   organizationId: string | null;
   jurisdictionId: string | null;
   isDemo: boolean;
+  /** An installer who manages their company's people and settings. */
+  isOwner: boolean;
 };
 
 export function hasRole(user: Pick<AppUser, 'role'> | null | undefined, allowed: readonly Role[]): boolean {
