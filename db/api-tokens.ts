@@ -118,7 +118,7 @@ export async function findTokenHolder(db: DB, tokenHash: string): Promise<TokenH
     .select([
       'api_tokens.id as token_id', 'api_tokens.last_used_at', 'api_tokens.expires_at',
       sql<boolean>`api_tokens.expires_at <= now()`.as('is_expired'),
-      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo', 'users.is_owner', 'users.deactivated_at',
+      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_owner', 'users.is_demo', 'users.deactivated_at',
     ])
     .where('api_tokens.token_hash', '=', tokenHash)
     .where('api_tokens.revoked_at', 'is', null)

@@ -57,7 +57,7 @@ export async function findLiveSession(db: DB, sessionId: string): Promise<LiveSe
     .innerJoin('users', 'users.id', 's.user_id')
     .select([
       's.id as session_id', 's.expires_at', 's.last_seen_at',
-      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_demo', 'users.is_owner',
+      'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_owner', 'users.is_demo',
     ])
     .where('s.id', '=', sessionId)
     // A switched-off person's sessions end on their next request.

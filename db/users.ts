@@ -2,7 +2,7 @@ import type { DB } from '@/db/index';
 import type { UserRow } from '@/db/types';
 import type { AppUser } from '@/lib/domain/roles';
 
-export function toAppUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'organization_id' | 'jurisdiction_id' | 'is_demo' | 'is_owner'>): AppUser {
+export function toAppUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'organization_id' | 'jurisdiction_id' | 'is_owner' | 'is_demo'>): AppUser {
   return {
     id: row.id,
     email: row.email,
@@ -10,8 +10,8 @@ export function toAppUser(row: Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 
     role: row.role,
     organizationId: row.organization_id,
     jurisdictionId: row.jurisdiction_id,
-    isDemo: row.is_demo,
     isOwner: row.is_owner,
+    isDemo: row.is_demo,
   };
 }
 
@@ -47,7 +47,7 @@ export async function listUsers(db: DB): Promise<UserListItem[]> {
     .leftJoin('organizations as o', 'o.id', 'u.organization_id')
     .leftJoin('jurisdictions as j', 'j.id', 'u.jurisdiction_id')
     .select([
-      'u.id', 'u.email', 'u.name', 'u.role', 'u.organization_id', 'u.jurisdiction_id', 'u.is_demo', 'u.is_owner', 'u.created_at',
+      'u.id', 'u.email', 'u.name', 'u.role', 'u.organization_id', 'u.jurisdiction_id', 'u.is_owner', 'u.is_demo', 'u.created_at',
       'o.name as organization_name', 'j.name as jurisdiction_name',
     ])
     .orderBy('u.role')

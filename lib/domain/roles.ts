@@ -8,9 +8,9 @@ export type AppUser = {
   role: Role;
   organizationId: string | null;
   jurisdictionId: string | null;
-  isDemo: boolean;
   /** An installer who manages their company's people and settings. */
   isOwner: boolean;
+  isDemo: boolean;
 };
 
 export function hasRole(user: Pick<AppUser, 'role'> | null | undefined, allowed: readonly Role[]): boolean {

@@ -12,7 +12,7 @@ vi.mock('@/lib/platform/auth/sessions', async (importOriginal) => ({
 
 const SECRET = 'unit-test-secret-for-sessions';
 const SID = '00000000-0000-4000-8000-0000000000aa';
-const USER = { id: 'u-7', email: 'seven@example.test', name: 'Seven', role: 'installer' as const, organizationId: 'o-1', jurisdictionId: null, isDemo: false, isOwner: false };
+const USER = { id: 'u-7', email: 'seven@example.test', name: 'Seven', role: 'installer' as const, organizationId: 'o-1', jurisdictionId: null, isOwner: false, isDemo: false };
 
 const { AuthHandler } = createRequire(import.meta.url)(join(process.cwd(), 'node_modules/next-auth/core/index.js')) as {
   AuthHandler: (params: { req: Request; options: unknown }) => Promise<{ body?: unknown; cookies?: { name: string; value: string; options: { maxAge?: number; expires?: Date } }[] }>;

@@ -11,7 +11,7 @@ vi.mock('@/lib/platform/auth/sessions', async (importOriginal) => ({
   requireLiveSession: vi.fn(async () => ({
     id: '00000000-0000-4000-8000-000000000001',
     expiresAt: new Date(Date.now() + 3600_000),
-    user: { id: 'u-1', email: 'unit@example.test', name: 'Unit', role: 'installer', organizationId: null, jurisdictionId: null, isDemo: false, isOwner: false },
+    user: { id: 'u-1', email: 'unit@example.test', name: 'Unit', role: 'installer', organizationId: null, jurisdictionId: null, isOwner: false, isDemo: false },
   })),
 }));
 

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { newPasswordSchema } from '@/lib/domain/accounts/password-policy';
 
 /** How long an invitation link works (common practice, no published source). */
 export const INVITATION_LIFETIME_DAYS = 7;
@@ -35,8 +36,8 @@ export type InvitationInput = z.input<typeof invitationSchema>;
 
 export const acceptInvitationSchema = z.strictObject({
   name: z.string('Give your name.').trim().min(1, 'Give your name.').max(120, 'A name has at most 120 characters.'),
-  // The password policy (length, not the e-mail) is checked by the service, which knows the e-mail.
-  password: z.string('Choose a password.').max(1024, 'A password has at most 1024 characters.'),
+  // The rule that it is not the e-mail is checked by the service, which knows the invitation's e-mail.
+  password: newPasswordSchema,
 });
 export type AcceptInvitationInput = z.input<typeof acceptInvitationSchema>;
 

@@ -1,5 +1,4 @@
 import 'server-only';
-import { createHash, randomBytes } from 'node:crypto';
 import type { DB } from '@/db';
 import { writeAudit } from '@/db/audit';
 import {
@@ -27,16 +26,12 @@ import {
 } from '@/lib/domain/accounts/people';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
+import { passwordFieldError } from '@/lib/domain/accounts/password-policy';
+import { hashOneTimeToken, looksLikeOneTimeToken, newOneTimeToken } from '@/lib/platform/auth/one-time-token';
 import { hashAtCurrentCost } from '@/lib/platform/auth/password';
 import { sendMail } from '@/lib/platform/mail';
 import { countInvitation, countInvitationAcceptance } from '@/lib/services/accounts/invitation-limits';
-import { checkNewPassword } from '@/lib/services/accounts/password-policy';
 import { publicBaseUrl } from '@/lib/services/reports/issue';
-
-// 256 random bits, URL-safe; only the SHA-256 is stored, so a leaked table opens no account.
-const TOKEN = /^[A-Za-z0-9_-]{43}$/;
-const newToken = () => randomBytes(32).toString('base64url');
-const hashToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 
 export const invitationUrl = (token: string) => `${publicBaseUrl()}/invitations/${token}`;
 
@@ -88,11 +83,11 @@ export async function sendInvitation(db: DB, actor: AppUser, input: InvitationIn
   if (await emailHasAccount(db, email)) throw new ValidationError([{ path: 'email', message: existingAccountMessage(email) }]);
   await countInvitation(email, from.address);
 
-  const token = newToken();
+  const { token, hash } = newOneTimeToken();
   return db.transaction().execute(async (trx) => {
     const replaced = await revokePendingInvitationsTo(trx, email, organizationId);
     const created = await insertInvitation(trx, {
-      email, role, organizationId, jurisdictionId, invitedBy: actor.id, tokenHash: hashToken(token), lifetimeDays: INVITATION_LIFETIME_DAYS,
+      email, role, organizationId, jurisdictionId, invitedBy: actor.id, tokenHash: hash, lifetimeDays: INVITATION_LIFETIME_DAYS,
     });
     await writeAudit(trx, {
       actorUserId: actor.id,
@@ -175,8 +170,8 @@ export async function revokeInvitation(db: DB, actor: AppUser, id: string): Prom
 
 /** What the invitation page shows for a link: null for a token that names no invitation. */
 export async function describeInvitation(db: DB, token: string): Promise<InvitationView | null> {
-  if (!TOKEN.test(token)) return null;
-  const found = await findInvitationByTokenHash(db, hashToken(token));
+  if (!looksLikeOneTimeToken(token)) return null;
+  const found = await findInvitationByTokenHash(db, hashOneTimeToken(token));
   return found ? toView(found) : null;
 }
 
@@ -199,12 +194,12 @@ const unusable: Record<Exclude<InvitationState, 'pending'>, string> = {
  */
 export async function acceptInvitation(db: DB, token: string, input: AcceptInvitationInput & { name: string; password: string }, from: { address: string }): Promise<AppUser> {
   await countInvitationAcceptance(from.address);
-  if (!TOKEN.test(token)) throw new NotFoundError('This invitation link is not valid. Check that the whole link was copied.');
-  const tokenHash = hashToken(token);
+  if (!looksLikeOneTimeToken(token)) throw new NotFoundError('This invitation link is not valid. Check that the whole link was copied.');
+  const tokenHash = hashOneTimeToken(token);
   const peek = await findInvitationByTokenHash(db, tokenHash);
   if (!peek) throw new NotFoundError('This invitation link is not valid. Check that the whole link was copied.');
-  const passwordProblem = checkNewPassword(input.password, peek.email);
-  if (passwordProblem) throw new ValidationError([{ path: 'password', message: passwordProblem }]);
+  const weak = passwordFieldError(input.password, peek.email);
+  if (weak) throw new ValidationError([weak]);
   const passwordHash = await hashAtCurrentCost(input.password);
 
   const userId = await db.transaction().execute(async (trx) => {
