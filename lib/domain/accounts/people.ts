@@ -84,3 +84,22 @@ export const accountActionLabels: Record<string, string> = {
   'user.reactivate': 'Reactivated',
   'user.jurisdiction-change': 'Jurisdiction changed',
 };
+
+const day = z.iso.date('Give a date as YYYY-MM-DD.');
+
+/** The audit page's filters, from the query string. */
+export const auditFilterSchema = z.strictObject({
+  action: z.string().trim().max(80, 'An action has at most 80 characters.').optional().transform((v) => v || undefined),
+  person: z.string().trim().max(254, 'Search for at most 254 characters.').optional().transform((v) => v || undefined),
+  from: z.union([z.literal(''), day]).optional().transform((v) => v || undefined),
+  to: z.union([z.literal(''), day]).optional().transform((v) => v || undefined),
+  limit: z.coerce.number('Give the number of rows, 1 to 500.').int().min(1).max(500).default(200),
+});
+export type AuditFilterInput = z.output<typeof auditFilterSchema>;
+
+/** The people page's filters, from the query string. */
+export const peopleFilterSchema = z.strictObject({
+  q: z.string().trim().max(254, 'Search for at most 254 characters.').optional().transform((v) => v || undefined),
+  role: z.union([z.literal(''), z.enum(['installer', 'owner', 'inspector', 'admin'], 'Filter by installer, owner, inspector or admin.')]).optional().transform((v) => v || undefined),
+  status: z.union([z.literal(''), z.enum(['active', 'deactivated'], 'Filter by active or deactivated.')]).optional().transform((v) => v || undefined),
+});
