@@ -21,6 +21,8 @@ async function acceptInvitation(browser: Browser, path: string, name: string): P
   const page = await (await browser.newContext()).newPage();
   await page.goto(path);
   await expect(page.getByTestId('invitation')).toHaveAttribute('data-state', 'pending');
+  // The form takes over its fields when it hydrates; type after that.
+  await page.waitForLoadState('networkidle');
   await page.getByLabel('Your name').fill(name);
   // The policy refuses a short password beside the field before anything is sent.
   await page.getByLabel('Choose a password').fill('too-short');
@@ -28,6 +30,8 @@ async function acceptInvitation(browser: Browser, path: string, name: string): P
   await expect(page.locator('#accept-password-error')).toContainText('at least 12 characters');
   await page.getByLabel('Choose a password').fill(PASSWORD);
   await page.getByRole('button', { name: 'Accept and create my account' }).click();
+  // Signed in, on the role's start page.
+  await expect(page).toHaveURL(/\/(projects|inspections)$/);
   await expect(page.getByTestId('shell-user')).toHaveText(name);
   return page;
 }
@@ -38,6 +42,7 @@ test('an owner invites a teammate who sees the company’s projects, then deacti
   await signInAs(page, 'installer@nookpass.demo');
   await page.getByRole('link', { name: 'People' }).click();
   await expect(page).toHaveURL(/\/people$/);
+  await page.waitForLoadState('networkidle');
   await page.getByLabel('E-mail').fill(email);
   await page.getByRole('button', { name: 'Send invitation' }).click();
   await expect(page.getByTestId('invite-sent')).toContainText(email);
@@ -72,10 +77,11 @@ test('an owner invites a teammate who sees the company’s projects, then deacti
   expect((await teammate.request.get('/api/me', { headers: { authorization: `Bearer ${token}` } })).status()).toBe(401);
   await teammate.goto('/projects');
   await expect(teammate).toHaveURL(/\/sign-in/);
+  await teammate.waitForLoadState('networkidle');
   await teammate.getByLabel('E-mail').fill(email);
   await teammate.getByLabel('Password').fill(PASSWORD);
   await teammate.getByRole('button', { name: 'Sign in' }).click();
-  await expect(teammate.getByRole('alert')).toContainText('deactivated');
+  await expect(teammate.locator('#sign-in-error')).toContainText('deactivated');
 
   // The owner's audit page shows what happened.
   await page.goto(`/audit?person=${encodeURIComponent(email)}`);
@@ -89,6 +95,7 @@ test('an admin invites an inspector for Demo County who accepts and sees that ju
   const email = `county-inspector-${Date.now()}@example.test`;
   await signInAs(page, 'admin@nookpass.demo');
   await page.goto('/users');
+  await page.waitForLoadState('networkidle');
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Role', { exact: true }).last().selectOption('inspector');
   await page.getByLabel('Jurisdiction', { exact: true }).selectOption('demo-county');
