@@ -16,5 +16,5 @@ export async function proxy(request: NextRequest) {
 }
 
 export const config = {
-  matcher: ['/home', '/projects/:path*', '/inspections/:path*', '/rules/:path*', '/jurisdictions/:path*', '/users/:path*', '/account/:path*'],
+  matcher: ['/home', '/projects/:path*', '/inspections/:path*', '/rules/:path*', '/jurisdictions/:path*', '/users/:path*', '/account/:path*', '/company/:path*'],
 };

@@ -73,7 +73,7 @@ export type DemoUser = {
 export const demoUsers: DemoUser[] = [
   { email: 'installer@nookpass.demo', name: 'Robin Demo (installer)', role: 'installer', organization: 'closet-works', owner: true },
   { email: 'installer2@nookpass.demo', name: 'Sam Demo (installer)', role: 'installer', organization: 'closet-works' },
-  { email: 'other-installer@nookpass.demo', name: 'Alex Demo (installer)', role: 'installer', organization: 'second-company', owner: true },
+  { email: 'other-installer@nookpass.demo', name: 'Alex Demo (installer)', role: 'installer', organization: 'second-company' },
   { email: 'inspector@nookpass.demo', name: 'Jordan Demo (inspector)', role: 'inspector', jurisdiction: 'demo-county' },
   { email: 'admin@nookpass.demo', name: 'Casey Demo (admin)', role: 'admin' },
 ];

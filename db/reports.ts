@@ -93,6 +93,9 @@ export type PublicReportFacts = {
   projectName: string;
   siteAddress: string;
   jurisdictionName: string;
+  /** The installer company and its contractor licence number, as printed on the report. */
+  companyName: string;
+  licenseNumber: string | null;
   ruleSetVersion: number;
   checkedAt: Date;
   summary: EvaluationSummary;
@@ -107,9 +110,11 @@ export async function publicReportFacts(db: DB, input: string): Promise<PublicRe
     .innerJoin('projects as p', 'p.id', 'c.project_id')
     .innerJoin('rule_sets as s', 's.id', 'c.rule_set_id')
     .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
+    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .select([
       'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'r.snapshot', 'p.name as project_name', 'p.site_address',
       'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name',
+      'o.name as organization_name', 'o.license_number',
     ])
     .where('r.code', '=', code)
     .executeTakeFirst();
@@ -123,6 +128,8 @@ export async function publicReportFacts(db: DB, input: string): Promise<PublicRe
       projectName: snap.project.name,
       siteAddress: snap.project.siteAddress,
       jurisdictionName: snap.jurisdiction.name,
+      companyName: snap.company.name,
+      licenseNumber: snap.company.licenseNumber,
       ruleSetVersion: snap.ruleSet.version,
       checkedAt: new Date(snap.check.checkedAt),
       summary: snap.check.summary,
@@ -134,6 +141,8 @@ export async function publicReportFacts(db: DB, input: string): Promise<PublicRe
     projectName: row.project_name,
     siteAddress: row.site_address,
     jurisdictionName: row.jurisdiction_name,
+    companyName: row.organization_name,
+    licenseNumber: row.license_number,
     ruleSetVersion: row.rule_set_version,
     checkedAt: row.checked_at,
     summary: row.summary as EvaluationSummary,

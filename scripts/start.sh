@@ -1,6 +1,10 @@
 #!/usr/bin/env bash
 # npm start: install what is missing, start the private PostgreSQL, migrate, seed the demo, build and serve.
+# npm run start:production (--production): the same without the demo; nothing is seeded.
 source "$(dirname "$0")/lib.sh"
+
+PRODUCTION=0
+if [ "${1:-}" = "--production" ]; then PRODUCTION=1; fi
 
 APP_PORT="${PORT:-3000}"
 DB_NAME="${NOOKPASS_DB:-nookpass}"
@@ -12,16 +16,28 @@ if port_busy "$APP_PORT"; then
 fi
 start_cluster
 ensure_database "$DB_NAME"
+if [ "$PRODUCTION" = 1 ] && [ -z "${NEXTAUTH_SECRET:-}" ]; then
+  die "Set NEXTAUTH_SECRET (32 random bytes or more, kept secret and the same on every app server) before a production start."
+fi
 ensure_auth_secret
 
 export DATABASE_URL="$(database_url "$DB_NAME")"
 export NEXTAUTH_URL="${NEXTAUTH_URL:-http://127.0.0.1:$APP_PORT}"
-export NOOKPASS_DEMO=1
+if [ "$PRODUCTION" = 1 ]; then
+  unset NOOKPASS_DEMO
+else
+  export NOOKPASS_DEMO=1
+fi
 
 npx tsx db/migrate.ts
-npx tsx scripts/seed.ts
+if [ "${NOOKPASS_DEMO:-}" = 1 ]; then npx tsx scripts/seed.ts; fi
 build_if_needed
-start_fakes
+if [ "$PRODUCTION" = 1 ] && [ -n "${NOOKPASS_SMTP_HOST:-}" ] && [ -n "${NOOKPASS_S3_ENDPOINT:-}" ]; then
+  say "Mail goes through $NOOKPASS_SMTP_HOST, files to $NOOKPASS_S3_ENDPOINT."
+else
+  [ "$PRODUCTION" = 1 ] && say "NOOKPASS_SMTP_HOST or NOOKPASS_S3_ENDPOINT is not set: using the local stand-ins (mail is not delivered)."
+  start_fakes
+fi
 
 cleanup() {
   trap - INT TERM EXIT
@@ -46,6 +62,20 @@ for _ in $(seq 1 60); do
   kill -0 "$APP_PID" 2>/dev/null || die "The app exited during start-up; see the messages above."
   sleep 0.5
 done
+
+if [ "$PRODUCTION" = 1 ]; then
+  cat <<MSG
+
+  NookPass is running at $NEXTAUTH_URL (no demo data).
+
+  First start? Create the first administrator from another shell:
+    npm run admin:create -- --email you@example.com --name "Your Name"
+  Installer companies sign up at $NEXTAUTH_URL/sign-up.
+
+MSG
+  wait "$APP_PID"
+  exit $?
+fi
 
 PASSWORD="${NOOKPASS_DEMO_PASSWORD:-demo-password}"
 cat <<MSG

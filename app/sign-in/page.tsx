@@ -8,8 +8,8 @@ import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
 export const metadata: Metadata = { title: 'Sign in' };
 export const dynamic = 'force-dynamic';
 
-export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string | string[]; error?: string }> }) {
-  const { callbackUrl } = await searchParams;
+export default async function SignInPage({ searchParams }: { searchParams: Promise<{ callbackUrl?: string | string[]; error?: string; notice?: string }> }) {
+  const { callbackUrl, notice } = await searchParams;
   const isDemo = process.env.NOOKPASS_DEMO === '1';
   return (
     <main id="main" className="mx-auto flex min-h-screen max-w-md flex-col justify-center px-4 py-10">
@@ -17,10 +17,17 @@ export default async function SignInPage({ searchParams }: { searchParams: Promi
       <div className="card mt-6 p-6">
         <h1 className="text-2xl font-bold">Sign in</h1>
         <p className="mt-1 text-sm text-ink-soft">Use the e-mail your company or jurisdiction registered.</p>
+        {notice === 'password-reset' && (
+          <p role="status" className="mt-4 rounded-md bg-status-pass/10 px-3 py-2 text-sm text-status-pass">
+            Your password is changed and every session of yours has ended. Sign in with the new password.
+          </p>
+        )}
         <div className="mt-6">
           <SignInForm callbackUrl={safeCallbackPath(callbackUrl)} />
         </div>
+        <p className="mt-4 text-sm"><Link href="/forgot-password" className="underline">Forgot your password?</Link></p>
       </div>
+      <p className="mt-4 text-sm text-ink-soft">New installer company? <Link href="/sign-up" className="underline">Sign up your company</Link>.</p>
       {isDemo && (
         <section aria-labelledby="demo-heading" className="mt-6 rounded-lg border border-dashed border-brass bg-brass-soft/40 p-4 text-sm">
           <h2 id="demo-heading" className="font-semibold">Demo data</h2>

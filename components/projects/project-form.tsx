@@ -12,8 +12,11 @@ type Jurisdiction = { slug: string; name: string; editions: { building: string; 
 export function ProjectForm({
   jurisdictions,
   project,
+  defaultJurisdiction = '',
 }: {
   jurisdictions: Jurisdiction[];
+  /** The company's default jurisdiction slug, preselected for a new project. */
+  defaultJurisdiction?: string;
   project?: { id: string } & ProjectInput & { archived: boolean };
 }) {
   const router = useRouter();
@@ -27,7 +30,7 @@ export function ProjectForm({
     resolver: zodResolver(projectInputSchema),
     defaultValues: project
       ? { name: project.name, siteAddress: project.siteAddress, jurisdiction: project.jurisdiction, permitNumber: project.permitNumber ?? '', notes: project.notes ?? '' }
-      : { name: '', siteAddress: '', jurisdiction: '', permitNumber: '', notes: '' },
+      : { name: '', siteAddress: '', jurisdiction: defaultJurisdiction, permitNumber: '', notes: '' },
   });
 
   async function onSubmit(values: ProjectInput) {

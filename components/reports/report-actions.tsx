@@ -4,10 +4,12 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { NOTE_MAX_CHARS, sendSchema } from '@/lib/domain/reports/send-schema';
+import { UnconfirmedNotice } from '@/components/auth/resend-confirmation';
 
 type Sent = { to: string; toInspector: boolean; report: { code: string } };
 
-export function ReportActions({ checkId, inspectorEmail, canSend }: { checkId: string; inspectorEmail: string | null; canSend: boolean }) {
+/** `unconfirmedEmail`: the sender's address while it is unconfirmed; sending then waits for the confirmation. */
+export function ReportActions({ checkId, inspectorEmail, canSend, unconfirmedEmail = null }: { checkId: string; inspectorEmail: string | null; canSend: boolean; unconfirmedEmail?: string | null }) {
   const router = useRouter();
   const [to, setTo] = useState(inspectorEmail ?? '');
   const [note, setNote] = useState('');
@@ -59,7 +61,8 @@ export function ReportActions({ checkId, inspectorEmail, canSend }: { checkId: s
         {/* Issuing records a report, so it is a form POST; the answer is the PDF as a download. */}
         <button type="submit" className="btn-secondary mt-3" data-testid="download-report">Download report (PDF)</button>
       </form>
-      {canSend && (
+      {canSend && unconfirmedEmail && <div className="mt-4"><UnconfirmedNotice email={unconfirmedEmail} /></div>}
+      {canSend && !unconfirmedEmail && (
         <form onSubmit={(e) => { e.preventDefault(); void send(false); }} className="mt-4 space-y-3" noValidate>
           <div>
             <label htmlFor="send-to" className="field-label">Inspector’s e-mail</label>

@@ -22,7 +22,7 @@ export type NavItem = { href: string; label: string };
 /** The app shell's navigation for each role. */
 export function navigationFor(role: Role): NavItem[] {
   const byRole: Record<Role, NavItem[]> = {
-    installer: [{ href: '/projects', label: 'Projects' }],
+    installer: [{ href: '/projects', label: 'Projects' }, { href: '/company', label: 'Company' }],
     inspector: [{ href: '/inspections', label: 'Inspections' }],
     admin: [
       { href: '/rules', label: 'Rules' },
@@ -43,6 +43,7 @@ export const pageRoles: Record<string, readonly Role[]> = {
   '/rules': ['admin'],
   '/jurisdictions': ['admin'],
   '/users': ['admin'],
+  '/company': ['installer'],
   '/account': roles,
 };
 

@@ -2,7 +2,7 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
 
 const roles = [
-  { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Account'], lands: '/projects' },
+  { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Company', 'Account'], lands: '/projects' },
   { email: 'inspector@nookpass.demo', role: 'Inspector', nav: ['Inspections', 'Account'], lands: '/inspections' },
   { email: 'admin@nookpass.demo', role: 'Admin', nav: ['Rules', 'Jurisdictions', 'Users', 'Account'], lands: '/rules' },
 ];

@@ -182,7 +182,7 @@ describe('an admin invites an inspector', () => {
 describe('invitation links that no longer work', () => {
   it('a revoked link is refused and its page says it was withdrawn; revoking twice is a 409; another company gets 404', { timeout: 90_000 }, async () => {
     const owner = await signIn('installer@nookpass.demo', undefined, { address: testAddress() });
-    const other = await signIn('other-installer@nookpass.demo', undefined, { address: testAddress() });
+    const { owner: other } = await freshCompany();
     const email = fresh('revoked');
     const sent = await invite({ email, role: 'installer' }, owner);
     const token = await invitationToken(email);
@@ -355,7 +355,7 @@ describe('the audit trail of account events', () => {
     expect(mine.status).toBe(200);
     const actions = mine.body.entries.map((r: { action: string }) => r.action);
     expect(actions).toEqual(expect.arrayContaining(['invitation.send', 'user.deactivate', 'user.reactivate', 'user.role-change']));
-    const otherOwner = await signIn('other-installer@nookpass.demo', undefined, { address: testAddress() });
+    const { owner: otherOwner } = await freshCompany();
     const theirs = await api(`/api/organization/audit?person=${encodeURIComponent(member.email)}`, { cookie: otherOwner });
     expect(theirs.body.entries).toEqual([]);
   });

@@ -5,7 +5,7 @@ import bcrypt from 'bcryptjs';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+import { api, appDb, baseUrl, postJson, signIn, testAddress } from './helpers';
 
 /*
  * Who may do what, for every route handler and every page, from the file system: a route file,
@@ -58,7 +58,13 @@ type Send =
  * `ownAccounts`: the row is called by throwaway accounts of the six callers' roles, because the call acts on
  * the caller's whole account (ending its other sessions) and the demo accounts are signed in by other tests.
  */
-type ApiRow = { path: (ids: Ids) => string; send?: Send; expect: Statuses; ownAccounts?: true };
+type ApiRow = { path: (ids: Ids) => string; send?: Send; expect: Statuses; ownAccounts?: true; headers?: () => Record<string, string> };
+
+/** Rows whose requests are counted per client address stand for a fresh address each call (X-Forwarded-For). */
+const freshAddress = () => ({ 'x-forwarded-for': testAddress() });
+const uniqueTag = () => randomBytes(5).toString('hex');
+// A well-formed token that was never issued: 43 base64url characters.
+const UNISSUED_TOKEN = 'A'.repeat(43);
 
 const NIL_UUID = '00000000-0000-4000-8000-000000000000';
 
@@ -151,16 +157,30 @@ const apiMatrix: Record<string, ApiRow> = {
   'POST /api/rule-sets/[id]/retire':             { path: (i) => `/api/rule-sets/${i.publishedId}/retire`, send: { json: (i) => ({ successorId: i.draftId, revision: 9999, changelog: 'Never retired.' }) }, expect: a(401, 403, 403, 403, 403, 409) },
   'DELETE /api/rule-sets/[id]':                  { path: (i) => `/api/rule-sets/${i.draftId}?revision=9999`, expect: a(401, 403, 403, 403, 403, 409) },
   // Owners invite into their company; an admin invites inspectors and admins, so an installer role is a 400 naming it.
-  'GET /api/invitations':                        { path: () => '/api/invitations', expect: a(401, 200, 200, 403, 403, 200) },
-  'POST /api/invitations':                       { path: () => '/api/invitations', send: { json: () => ({ email: `matrix-invitee-${randomBytes(4).toString('hex')}@example.test`, role: 'installer' }) }, expect: a(401, 201, 201, 403, 403, 400) },
-  // The owner's company sent it: another company and the admins (who send their own) do not see it.
-  'DELETE /api/invitations/[id]':                { path: (i) => `/api/invitations/${i.invitationId}`, expect: a(401, 200, 404, 403, 403, 404) },
+  'GET /api/invitations':                        { path: () => '/api/invitations', expect: a(401, 200, 403, 403, 403, 200) },
+  'POST /api/invitations':                       { path: () => '/api/invitations', send: { json: () => ({ email: `matrix-invitee-${randomBytes(4).toString('hex')}@example.test`, role: 'installer' }) }, expect: a(401, 201, 403, 403, 403, 400) },
+  // The owner's company sent it: the admins (who send their own) do not see it; plain installers may not revoke.
+  'DELETE /api/invitations/[id]':                { path: (i) => `/api/invitations/${i.invitationId}`, expect: a(401, 200, 403, 403, 403, 404) },
   // Public: the link is the credential. The first caller (anon) uses it; everyone after finds it used.
   'POST /api/invitations/[id]/accept':           { path: (i) => `/api/invitations/${i.invitationToken}/accept`, send: { json: () => ({ name: 'Matrix Invitee', password: 'matrix-invitee-password' }) }, expect: a(201, 409, 409, 409, 409, 409) },
-  'GET /api/organization/members':               { path: () => '/api/organization/members', expect: a(401, 200, 200, 403, 403, 403) },
-  'GET /api/organization/audit':                 { path: () => '/api/organization/audit', expect: a(401, 200, 200, 403, 403, 403) },
-  // A no-op role change of a teammate in the owner's company; another company's owner gets 404.
-  'PATCH /api/users/[id]':                       { path: (i) => `/api/users/${i.memberId}`, send: { json: () => ({ role: 'installer' }) }, expect: a(401, 200, 404, 403, 403, 200) },
+  'GET /api/organization/members':               { path: () => '/api/organization/members', expect: a(401, 200, 403, 403, 403, 403) },
+  'GET /api/organization/audit':                 { path: () => '/api/organization/audit', expect: a(401, 200, 403, 403, 403, 403) },
+  // A no-op role change of a teammate in the owner's company; plain installers may not change people.
+  'PATCH /api/users/[id]':                       { path: (i) => `/api/users/${i.memberId}`, send: { json: () => ({ role: 'installer' }) }, expect: a(401, 200, 403, 403, 403, 200) },
+  // Anyone may sign a new company up, signed in or not; each call is a new company from a new address.
+  'POST /api/sign-up':                           { path: () => '/api/sign-up', send: { json: () => { const t = uniqueTag(); return { company: `Matrix Co ${t} (test)`, name: 'Matrix Person', email: `matrix-signup-${t}@example.test`, password: 'matrix sign-up password' }; } }, headers: freshAddress, expect: a(201, 201, 201, 201, 201, 201) },
+  // The demo people's addresses are confirmed already: past the sign-in check, nothing is sent (409).
+  'POST /api/email-confirmations':               { path: () => '/api/email-confirmations', headers: freshAddress, expect: a(401, 409, 409, 409, 409, 409) },
+  // A link works for whoever holds it; one never issued is 404 for everyone.
+  'POST /api/email-confirmations/[token]':       { path: () => `/api/email-confirmations/${UNISSUED_TOKEN}`, expect: a(404, 404, 404, 404, 404, 404) },
+  // The same 202 for everyone, known address or not.
+  'POST /api/password-resets':                   { path: () => '/api/password-resets', send: { json: () => ({ email: `matrix-nobody-${uniqueTag()}@example.test` }) }, headers: freshAddress, expect: a(202, 202, 202, 202, 202, 202) },
+  'POST /api/password-resets/[token]':           { path: () => `/api/password-resets/${UNISSUED_TOKEN}`, send: { json: () => ({ password: 'matrix new password' }) }, expect: a(404, 404, 404, 404, 404, 404) },
+  // Signed-in browsers only; the wrong current password is refused beside its field (400), changing nothing.
+  'POST /api/account/password':                  { path: () => '/api/account/password', send: { json: () => ({ currentPassword: 'not the password', password: 'matrix new password' }) }, expect: a(401, 400, 400, 400, 400, 400) },
+  // An installer reads their own company; only its owner changes it (the matrix owner owns Demo Closet Works).
+  'GET /api/organization':                       { path: () => '/api/organization', expect: a(401, 200, 200, 403, 403, 403) },
+  'PATCH /api/organization':                     { path: () => '/api/organization', send: { json: () => ({ name: 'Demo Closet Works', licenseNumber: 'DEMO-HIC-000123' }) }, expect: a(401, 200, 403, 403, 403, 403) },
 };
 
 // DELETE carries the revision in the query; it is filled in just before the call.
@@ -197,10 +217,15 @@ const pageMatrix: Record<string, PageRow> = {
   '/jurisdictions/new':                 { path: () => '/jurisdictions/new', expect: p('sign-in', 'forbidden', 'forbidden', 'forbidden', 'forbidden', 'ok') },
   '/jurisdictions/[slug]':              { path: (i) => `/jurisdictions/${i.slug}`, expect: p('sign-in', 'forbidden', 'forbidden', 'forbidden', 'forbidden', 'ok') },
   '/users':                             { path: () => '/users', expect: p('sign-in', 'forbidden', 'forbidden', 'forbidden', 'forbidden', 'ok') },
-  // Both demo installers own their companies.
-  '/people':                            { path: () => '/people', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'forbidden') },
-  '/audit':                             { path: () => '/audit', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'ok') },
+  // The matrix owner owns Demo Closet Works; the other company's installer is not an owner.
+  '/people':                            { path: () => '/people', expect: p('sign-in', 'ok', 'forbidden', 'forbidden', 'forbidden', 'forbidden') },
+  '/audit':                             { path: () => '/audit', expect: p('sign-in', 'ok', 'forbidden', 'forbidden', 'forbidden', 'ok') },
   '/invitations/[token]':               { path: (i) => `/invitations/${i.invitationToken}`, expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
+  '/sign-up':                           { path: () => '/sign-up', expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
+  '/forgot-password':                   { path: () => '/forgot-password', expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
+  '/reset-password/[token]':            { path: () => `/reset-password/${UNISSUED_TOKEN}`, expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
+  '/confirm-email/[token]':             { path: () => `/confirm-email/${UNISSUED_TOKEN}`, expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
+  '/company':                           { path: () => '/company', expect: p('sign-in', 'ok', 'ok', 'forbidden', 'forbidden', 'forbidden') },
 };
 
 /** Files with a 'use server' directive (server actions), each with the roles its actions accept. None exist today. */
@@ -315,6 +340,8 @@ async function uploadPhoto(cookie: string, shade: string): Promise<string> {
 }
 
 beforeAll(async () => {
+  // The demo company's first installer owns it (as the demo seed records); set here too, so this file does not depend on the seed's age.
+  await db.updateTable('users').set({ is_owner: true }).where('email', '=', 'installer@nookpass.demo').execute();
   const city = await db.selectFrom('jurisdictions').select('id').where('slug', '=', 'demo-city').executeTakeFirstOrThrow();
   const cityEmail = `matrix-city-inspector-${randomBytes(4).toString('hex')}@example.test`;
   await db
@@ -384,7 +411,7 @@ afterAll(async () => {
 });
 
 async function call(row: ApiRow, role: RoleName): Promise<number> {
-  const headers = new Headers();
+  const headers = new Headers(row.headers?.());
   const cookie = (row.ownAccounts ? ownAccountCookies : cookies)[role];
   if (cookie) headers.set('cookie', cookie);
   let path = row.path(ids);

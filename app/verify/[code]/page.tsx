@@ -63,6 +63,8 @@ export default async function VerifyPage({ params }: { params: Promise<{ code: s
             <div><dt className="text-ink-faint">Project</dt><dd className="font-semibold">{facts.projectName}</dd></div>
             <div><dt className="text-ink-faint">Site</dt><dd>{facts.siteAddress}</dd></div>
             <div><dt className="text-ink-faint">Jurisdiction</dt><dd>{facts.jurisdictionName}</dd></div>
+            <div><dt className="text-ink-faint">Installer company</dt><dd data-testid="verify-company">{facts.companyName}</dd></div>
+            <div><dt className="text-ink-faint">Contractor licence number</dt><dd data-testid="verify-license">{facts.licenseNumber ?? 'not given'}</dd></div>
             <div><dt className="text-ink-faint">Rule set version</dt><dd>{facts.ruleSetVersion}</dd></div>
             <div><dt className="text-ink-faint">Check date</dt><dd>{facts.checkedAt.toUTCString()}</dd></div>
             <div><dt className="text-ink-faint">Report issued</dt><dd>{facts.issuedAt.toUTCString()} · {facts.pageCount} pages</dd></div>

@@ -7,7 +7,7 @@ import { normalizeEmail } from '@/db/users';
 import { clientAddress } from '@/lib/platform/rate-limit';
 import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
 import { PasswordCheckBusyError } from '@/lib/platform/auth/password';
-import { checkCredentials, DeactivatedAccountError, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from '@/lib/platform/auth/sign-in';
+import { auditSignIn, checkCredentials, DeactivatedAccountError, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from '@/lib/platform/auth/sign-in';
 import { SIGN_IN_BUSY, SIGN_IN_DEACTIVATED } from '@/lib/platform/auth/sign-in-messages';
 import { SESSION_LIFETIME_SECONDS, SessionEndedError, endSession, remainingSeconds, requireLiveSession, startSession } from '@/lib/platform/auth/sessions';
 
@@ -53,8 +53,9 @@ export const authOptions: NextAuthOptions = {
           if (err instanceof DeactivatedAccountError) throw new Error(SIGN_IN_DEACTIVATED);
           throw err;
         }
-        if (!user) return null;
         const headers = new Headers(req.headers as Record<string, string>);
+        await auditSignIn(getDb(), email, user, clientAddress({ headers }));
+        if (!user) return null;
         await signInSucceeded(email, clientAddress({ headers }));
         const session = await startSession(user.id, headers);
         return { ...user, sessionId: session.id, sessionExpiresAt: session.expiresAtSeconds };

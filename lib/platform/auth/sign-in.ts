@@ -1,5 +1,6 @@
 import 'server-only';
 import type { DB } from '@/db';
+import { writeAudit } from '@/db/audit';
 import { findUserForSignIn, normalizeEmail, replacePasswordHash } from '@/db/users';
 import { PayloadTooLargeError, TooManyRequestsError } from '@/lib/domain/errors';
 import { errorResponse, readTextUpTo } from '@/lib/platform/http';
@@ -116,4 +117,25 @@ export async function refuseThrottledSignIn(request: Request, origin: string): P
     if (form.json) return Response.json({ url, error: err.message }, { status: 429, headers });
     return new Response(null, { status: 303, headers: { ...headers, location: url } });
   }
+}
+
+/**
+ * Every sign-in, successful or not, goes on the audit trail (OWASP Logging Cheat Sheet: authentication
+ * successes and failures). A failure for a known address names that person, so their company's owners see
+ * it; a failure for an unknown address keeps only the address typed.
+ */
+export async function auditSignIn(db: DB, email: string, user: AppUser | null, address: string): Promise<void> {
+  if (user) {
+    await writeAudit(db, { actorUserId: user.id, action: 'auth.sign-in', entityType: 'user', entityId: user.id, organizationId: user.organizationId, details: { address } });
+    return;
+  }
+  const known = await findUserForSignIn(db, email);
+  await writeAudit(db, {
+    actorUserId: null,
+    action: 'auth.sign-in-failed',
+    entityType: 'user',
+    entityId: known?.user.id ?? null,
+    organizationId: known?.user.organizationId ?? null,
+    details: { email: normalizeEmail(email).slice(0, MAX_EMAIL_LENGTH), address },
+  });
 }

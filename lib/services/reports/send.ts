@@ -9,6 +9,7 @@ import { ConfirmationRequiredError, NotFoundError, ServiceUnavailableError, Vali
 import { sendMail } from '@/lib/platform/mail';
 import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
 import { countReportSend } from '@/lib/services/reports/limits';
+import { assertMaySendToInspectors } from '@/lib/services/accounts/email-confirmation';
 import type { SendInput } from '@/lib/domain/reports/send-schema';
 
 const sameAddress = (a: string, b: string | null) => !!b && a.trim().toLowerCase() === b.trim().toLowerCase();
@@ -26,6 +27,7 @@ async function inspectorAddress(db: DB, jurisdictionId: string): Promise<{ name:
  * company's hourly limit before anything is issued.
  */
 export async function sendReport(db: DB, user: AppUser, checkId: string, input: SendInput) {
+  await assertMaySendToInspectors(db, user);
   const check = await findCheck(db, user, checkId);
   if (!check) throw new NotFoundError('No such check, or its project belongs to another company.');
   const before = await getProject(db, user, check.projectId);

@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { findJurisdictionById } from '@/db/jurisdictions';
+import { isEmailConfirmed } from '@/db/accounts';
 import { findCheck, previousCheck } from '@/db/checks';
 import { citationText } from '@/lib/domain/vocabulary';
 import { FindingsList } from '@/components/checks/findings-list';
@@ -27,6 +28,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
   const changes = prev ? compareFindings(prev.findings, check.findings) : [];
   const newer = published && published.version > check.ruleSet.version;
   const inspectorEmail = (await findJurisdictionById(db, project.jurisdiction.id))?.inspectorEmail ?? null;
+  const unconfirmedEmail = user.role === 'installer' && !(await isEmailConfirmed(db, user.id)) ? user.email : null;
   const cited = [...new Set(check.findings.filter((f) => f.status !== 'not-applicable').map((f) => citationText(f.citation)))];
 
   return (
@@ -61,7 +63,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
       <div className="mt-4"><SafetyNotice /></div>
 
       <div className="mt-6">
-        <ReportActions checkId={check.id} inspectorEmail={inspectorEmail} canSend={user.role === 'installer'} />
+        <ReportActions checkId={check.id} inspectorEmail={inspectorEmail} canSend={user.role === 'installer'} unconfirmedEmail={unconfirmedEmail} />
       </div>
 
       {prev && (
