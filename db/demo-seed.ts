@@ -52,6 +52,7 @@ export async function writeDemoScenario(db: DB, { hashAtCurrentCost, needsRehash
             role: u.role,
             organization_id,
             jurisdiction_id,
+            is_owner: !!u.owner,
             password_hash: await hashAtCurrentCost(password),
             is_demo: true,
           })
@@ -62,7 +63,8 @@ export async function writeDemoScenario(db: DB, { hashAtCurrentCost, needsRehash
       const passwordOk = (await verifyPassword(password, existing.password_hash)) && !needsRehash(existing.password_hash);
       const same =
         passwordOk && existing.name === u.name && existing.role === u.role &&
-        existing.organization_id === organization_id && existing.jurisdiction_id === jurisdiction_id && existing.is_demo;
+        existing.organization_id === organization_id && existing.jurisdiction_id === jurisdiction_id && existing.is_demo &&
+        existing.is_owner === !!u.owner;
       if (same) continue;
       await trx
         .updateTable('users')
@@ -71,6 +73,7 @@ export async function writeDemoScenario(db: DB, { hashAtCurrentCost, needsRehash
           role: u.role,
           organization_id,
           jurisdiction_id,
+          is_owner: !!u.owner,
           is_demo: true,
           updated_at: new Date(),
           ...(passwordOk ? {} : { password_hash: await hashAtCurrentCost(password) }),

@@ -66,10 +66,12 @@ export type DemoUser = {
   role: Role;
   organization?: (typeof demoOrganizations)[number]['key'];
   jurisdiction?: string;
+  /** Manages the company's people and settings. */
+  owner?: boolean;
 };
 
 export const demoUsers: DemoUser[] = [
-  { email: 'installer@nookpass.demo', name: 'Robin Demo (installer)', role: 'installer', organization: 'closet-works' },
+  { email: 'installer@nookpass.demo', name: 'Robin Demo (installer)', role: 'installer', organization: 'closet-works', owner: true },
   { email: 'installer2@nookpass.demo', name: 'Sam Demo (installer)', role: 'installer', organization: 'closet-works' },
   { email: 'other-installer@nookpass.demo', name: 'Alex Demo (installer)', role: 'installer', organization: 'second-company' },
   { email: 'inspector@nookpass.demo', name: 'Jordan Demo (inspector)', role: 'inspector', jurisdiction: 'demo-county' },

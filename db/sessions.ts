@@ -60,6 +60,8 @@ export async function findLiveSession(db: DB, sessionId: string): Promise<LiveSe
       'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_owner', 'users.is_demo',
     ])
     .where('s.id', '=', sessionId)
+    // A switched-off person's sessions end on their next request.
+    .where('users.deactivated_at', 'is', null)
     .where('s.revoked_at', 'is', null)
     .where('s.expires_at', '>', sql<Date>`now()`)
     .executeTakeFirst();

@@ -21,7 +21,7 @@ export function normalizeEmail(email: string): string {
 
 export async function findUserForSignIn(db: DB, email: string) {
   const row = await db.selectFrom('users').selectAll().where('email', '=', normalizeEmail(email)).executeTakeFirst();
-  return row ? { user: toAppUser(row), passwordHash: row.password_hash } : null;
+  return row ? { user: toAppUser(row), passwordHash: row.password_hash, isDeactivated: row.deactivated_at !== null } : null;
 }
 
 /** Swaps a verified password's hash for a stronger one, unless the password changed in the meantime. */

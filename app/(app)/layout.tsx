@@ -2,7 +2,7 @@ import Link from 'next/link';
 import { redirect } from 'next/navigation';
 import { NavLinks } from '@/components/shell/nav-links';
 import { Wordmark } from '@/components/ui/logo';
-import { navigationFor } from '@/lib/domain/roles';
+import { navigationForUser } from '@/lib/domain/roles';
 import { optionalPageUser } from '@/lib/platform/auth/session';
 
 export const dynamic = 'force-dynamic';
@@ -23,7 +23,7 @@ export default async function AppShell({ children }: { children: React.ReactNode
         <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
           <Link href="/home" aria-label="NookPass start page"><Wordmark /></Link>
           <nav aria-label="Main" className="flex-1">
-            <NavLinks items={navigationFor(user.role)} />
+            <NavLinks items={navigationForUser(user)} />
           </nav>
           <div className="flex items-center gap-3 text-sm">
             <span className="text-ink-soft">

@@ -44,9 +44,23 @@ export const pageRoles: Record<string, readonly Role[]> = {
   '/appliances': ['installer'],
   '/quick-check': ['installer'],
   '/inspections': ['inspector', 'admin'],
+  // Installers who own their company only; the page checks that too.
+  '/people': ['installer'],
+  '/audit': ['installer', 'admin'],
   '/rules': ['admin'],
   '/jurisdictions': ['admin'],
   '/users': ['admin'],
   '/company': ['installer'],
   '/account': roles,
 };
+
+/** The navigation for this person: their role's, with people administration for company owners and the audit log. */
+export function navigationForUser(user: Pick<AppUser, 'role' | 'isOwner'>): NavItem[] {
+  const items = navigationFor(user.role);
+  const extra: NavItem[] =
+    user.role === 'admin' ? [{ href: '/audit', label: 'Audit' }]
+    : user.role === 'installer' && user.isOwner ? [{ href: '/people', label: 'People' }, { href: '/audit', label: 'Audit' }]
+    : [];
+  // Before "Account", which stays last.
+  return [...items.slice(0, -1), ...extra, ...items.slice(-1)];
+}

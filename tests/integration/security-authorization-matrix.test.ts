@@ -1,4 +1,4 @@
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import bcrypt from 'bcryptjs';
@@ -46,6 +46,9 @@ type Ids = {
   ruleKey: string;
   applianceId: string;
   applianceToDeleteId: string;
+  invitationId: string;
+  invitationToken: string;
+  memberId: string;
 };
 
 type Send =
@@ -170,6 +173,17 @@ const apiMatrix: Record<string, ApiRow> = {
   'POST /api/rule-sets/[id]/publish':            { path: (i) => `/api/rule-sets/${i.draftId}/publish`, send: { json: () => ({ revision: 9999, changelog: 'Never published.' }) }, expect: a(401, 403, 403, 403, 403, 409) },
   'POST /api/rule-sets/[id]/retire':             { path: (i) => `/api/rule-sets/${i.publishedId}/retire`, send: { json: (i) => ({ successorId: i.draftId, revision: 9999, changelog: 'Never retired.' }) }, expect: a(401, 403, 403, 403, 403, 409) },
   'DELETE /api/rule-sets/[id]':                  { path: (i) => `/api/rule-sets/${i.draftId}?revision=9999`, expect: a(401, 403, 403, 403, 403, 409) },
+  // Owners invite into their company; an admin invites inspectors and admins, so an installer role is a 400 naming it.
+  'GET /api/invitations':                        { path: () => '/api/invitations', expect: a(401, 200, 403, 403, 403, 200) },
+  'POST /api/invitations':                       { path: () => '/api/invitations', send: { json: () => ({ email: `matrix-invitee-${randomBytes(4).toString('hex')}@example.test`, role: 'installer' }) }, expect: a(401, 201, 403, 403, 403, 400) },
+  // The owner's company sent it: the admins (who send their own) do not see it; plain installers may not revoke.
+  'DELETE /api/invitations/[id]':                { path: (i) => `/api/invitations/${i.invitationId}`, expect: a(401, 200, 403, 403, 403, 404) },
+  // Public: the link is the credential. The first caller (anon) uses it; everyone after finds it used.
+  'POST /api/invitations/[id]/accept':           { path: (i) => `/api/invitations/${i.invitationToken}/accept`, send: { json: () => ({ name: 'Matrix Invitee', password: 'matrix-invitee-password' }) }, expect: a(201, 409, 409, 409, 409, 409) },
+  'GET /api/organization/members':               { path: () => '/api/organization/members', expect: a(401, 200, 403, 403, 403, 403) },
+  'GET /api/organization/audit':                 { path: () => '/api/organization/audit', expect: a(401, 200, 403, 403, 403, 403) },
+  // A no-op role change of a teammate in the owner's company; plain installers may not change people.
+  'PATCH /api/users/[id]':                       { path: (i) => `/api/users/${i.memberId}`, send: { json: () => ({ role: 'installer' }) }, expect: a(401, 200, 403, 403, 403, 200) },
   // Anyone may sign a new company up, signed in or not; each call is a new company from a new address.
   'POST /api/sign-up':                           { path: () => '/api/sign-up', send: { json: () => { const t = uniqueTag(); return { company: `Matrix Co ${t} (test)`, name: 'Matrix Person', email: `matrix-signup-${t}@example.test`, password: 'matrix sign-up password' }; } }, headers: freshAddress, expect: a(201, 201, 201, 201, 201, 201) },
   // The demo people's addresses are confirmed already: past the sign-in check, nothing is sent (409).
@@ -222,6 +236,10 @@ const pageMatrix: Record<string, PageRow> = {
   '/jurisdictions/new':                 { path: () => '/jurisdictions/new', expect: p('sign-in', 'forbidden', 'forbidden', 'forbidden', 'forbidden', 'ok') },
   '/jurisdictions/[slug]':              { path: (i) => `/jurisdictions/${i.slug}`, expect: p('sign-in', 'forbidden', 'forbidden', 'forbidden', 'forbidden', 'ok') },
   '/users':                             { path: () => '/users', expect: p('sign-in', 'forbidden', 'forbidden', 'forbidden', 'forbidden', 'ok') },
+  // The matrix owner owns Demo Closet Works; the other company's installer is not an owner.
+  '/people':                            { path: () => '/people', expect: p('sign-in', 'ok', 'forbidden', 'forbidden', 'forbidden', 'forbidden') },
+  '/audit':                             { path: () => '/audit', expect: p('sign-in', 'ok', 'forbidden', 'forbidden', 'forbidden', 'ok') },
+  '/invitations/[token]':               { path: (i) => `/invitations/${i.invitationToken}`, expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
   '/sign-up':                           { path: () => '/sign-up', expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
   '/forgot-password':                   { path: () => '/forgot-password', expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
   '/reset-password/[token]':            { path: () => `/reset-password/${UNISSUED_TOKEN}`, expect: p('ok', 'ok', 'ok', 'ok', 'ok', 'ok') },
@@ -396,6 +414,18 @@ beforeAll(async () => {
   const set = await must(await api(`/api/rule-sets/${ids.draftId}`, { cookie: admin }), 200, 'draft read');
   draftRule = set.rules.find((r: { key: string }) => r.key === 'exhaust.developed-length');
   ids.ruleKey = 'local.matrix-copy';
+
+  ids.invitationId = (await must(await api('/api/invitations', postJson({ email: `matrix-revokable-${randomBytes(4).toString('hex')}@example.test`, role: 'installer' }, { cookie: owner })), 201, 'invitation')).id;
+  // An invitation with a token of our own making, stored as the app stores them (SHA-256 hex), for the accept row.
+  ids.invitationToken = randomBytes(32).toString('base64url');
+  await db.insertInto('invitations').values({
+    email: `matrix-accepting-${randomBytes(4).toString('hex')}@example.test`, role: 'installer', organization_id: firstCompany.id,
+    token_hash: createHash('sha256').update(ids.invitationToken).digest('hex'), expires_at: new Date(Date.now() + 24 * 3600_000),
+  }).execute();
+  ids.memberId = (await db.insertInto('users').values({
+    email: `matrix-member-${randomBytes(4).toString('hex')}@example.test`, name: 'Matrix Member', role: 'installer', organization_id: firstCompany.id,
+    password_hash: await bcrypt.hash('matrix-member-pw', 4),
+  }).returning('id').executeTakeFirstOrThrow()).id;
 }, 120_000);
 
 afterAll(async () => {

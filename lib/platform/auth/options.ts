@@ -7,8 +7,8 @@ import { normalizeEmail } from '@/db/users';
 import { clientAddress } from '@/lib/platform/rate-limit';
 import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
 import { PasswordCheckBusyError } from '@/lib/platform/auth/password';
-import { auditSignIn, checkCredentials, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from '@/lib/platform/auth/sign-in';
-import { SIGN_IN_BUSY } from '@/lib/platform/auth/sign-in-messages';
+import { auditSignIn, checkCredentials, DeactivatedAccountError, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from '@/lib/platform/auth/sign-in';
+import { SIGN_IN_BUSY, SIGN_IN_DEACTIVATED } from '@/lib/platform/auth/sign-in-messages';
 import { SESSION_LIFETIME_SECONDS, SessionEndedError, endSession, remainingSeconds, requireLiveSession, startSession } from '@/lib/platform/auth/sessions';
 
 /** Expected ends of a session are not errors worth a log line: a signed-out or expired cookie came back. */
@@ -50,6 +50,7 @@ export const authOptions: NextAuthOptions = {
           user = await checkCredentials(getDb(), email, password);
         } catch (err) {
           if (err instanceof PasswordCheckBusyError) throw new Error(SIGN_IN_BUSY);
+          if (err instanceof DeactivatedAccountError) throw new Error(SIGN_IN_DEACTIVATED);
           throw err;
         }
         const headers = new Headers(req.headers as Record<string, string>);

@@ -65,6 +65,7 @@ export async function currentCaller(request: Request): Promise<Caller | null> {
     if (!looksLikeApiToken(token)) throw new UnauthorizedError('The API token is malformed.');
     const holder = await findTokenHolder(getDb(), hashApiToken(token));
     if (!holder) throw new UnauthorizedError('The API token is unknown or revoked.');
+    if (holder.isDeactivated) throw new UnauthorizedError('The account this API token belongs to has been deactivated.');
     if (holder.isExpired) {
       throw new UnauthorizedError(`The API token expired on ${holder.expiresAt.toISOString().slice(0, 10)}. Create a new one on the Account page.`);
     }

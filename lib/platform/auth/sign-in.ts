@@ -9,6 +9,14 @@ import { dummyHash, needsRehash, hashAtCurrentCost, verifyPassword } from '@/lib
 import type { AppUser } from '@/lib/domain/roles';
 import { SIGN_IN_THROTTLED, THROTTLED_MESSAGE } from '@/lib/platform/auth/sign-in-messages';
 
+/** The password was right but the person has been deactivated: no session. */
+export class DeactivatedAccountError extends Error {
+  constructor() {
+    super('The account has been deactivated.');
+    this.name = 'DeactivatedAccountError';
+  }
+}
+
 export const MAX_EMAIL_LENGTH = 320; // 64 + 1 + 255, the bound RFC 3696 section 3 first gave
 export const MAX_PASSWORD_LENGTH = 1024;
 
@@ -59,6 +67,7 @@ export async function checkCredentials(db: DB, email: string, password: string):
   const [found, fallback] = await Promise.all([findUserForSignIn(db, email), dummyHash()]);
   const ok = await verifyPassword(password, found?.passwordHash ?? fallback);
   if (!found || !ok) return null;
+  if (found.isDeactivated) throw new DeactivatedAccountError();
   if (needsRehash(found.passwordHash)) {
     await replacePasswordHash(db, found.user.id, found.passwordHash, await hashAtCurrentCost(password));
   }

@@ -1,16 +1,15 @@
-import { z } from 'zod';
 import { getDb } from '@/db';
-import { listAudit } from '@/db/audit';
+import { auditFilterSchema } from '@/lib/domain/accounts/people';
 import { requireUser } from '@/lib/platform/auth/session';
 import { ValidationError } from '@/lib/domain/errors';
 import { json, route, zodErrors } from '@/lib/platform/http';
+import { readAudit } from '@/lib/services/accounts/account-audit';
 
-const querySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) });
-
-/** The most recent audit entries across the product, for admins. */
+/** The audit entries across the product, newest first, for admins: filter by action, person and dates (YYYY-MM-DD, UTC). */
 export const GET = route(async (request) => {
-  await requireUser(request, ['admin']);
-  const parsed = querySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
+  const user = await requireUser(request, ['admin']);
+  const parsed = auditFilterSchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
   if (!parsed.success) throw new ValidationError(zodErrors(parsed.error));
-  return json(await listAudit(getDb(), parsed.data.limit));
+  const { rows } = await readAudit(getDb(), user, parsed.data);
+  return json(rows);
 });
