@@ -40,7 +40,7 @@ function Row({ c, url, readOnly, onChange }: { c: CitationStatus; url: string; r
         <div>
           <span className="font-mono font-semibold">{c.citation}</span> <span className="text-sm text-ink-soft">{c.title}{c.enabled ? '' : ' (disabled)'}</span>
         </div>
-        <span className={`text-xs ${c.confidence === 'M' && !checked ? 'font-semibold text-status-caution' : 'text-ink-soft'}`}>{CONFIDENCE[c.confidence] ?? c.confidence}</span>
+        <span className={`text-xs ${c.confidence === 'M' && !checked ? 'font-semibold text-brass' : 'text-ink-soft'}`}>{CONFIDENCE[c.confidence] ?? c.confidence}</span>
       </div>
       <p className="mt-1 text-sm" data-testid="citation-state">
         {checked

@@ -193,3 +193,24 @@ describe('citations checked against the adopted text', () => {
     expect((entry.details as { uncheckedConfirmed: { ruleKey: string }[] }).uncheckedConfirmed.map((u) => u.ruleKey)).toEqual([list.uncheckedMemory[0].ruleKey]);
   });
 });
+
+describe('rule sets stored before amendments were cited', () => {
+  it('a version 1 row reads through the app with an empty amendment list and its values as stored', async () => {
+    const s = slug('v1-params');
+    const res = await api('/api/jurisdictions', postJson(body(s, { publishChangelog: 'Version 1 (test).', confirm: true }), { cookie: admin }));
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const v1 = await loadSet(res.body.draft.id);
+    const { amendments: _none, ...oldShape } = { ...v1.parameters, exhaust: { ...v1.parameters.exhaust, maxDevelopedLengthIn: LOCAL_MAX_IN } };
+    const row = await db
+      .insertInto('rule_sets')
+      .values({ jurisdiction_id: res.body.jurisdiction.id, version: 2, parameters: JSON.stringify(oldShape), schema_version: 1, based_on_id: v1.id })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    const read = await loadSet(row.id);
+    expect(read.parameters.amendments).toEqual([]);
+    expect(read.parameters.exhaust.maxDevelopedLengthIn).toBe(LOCAL_MAX_IN); // read, never rewritten
+    const stored = await db.selectFrom('rule_sets').select(['schema_version', 'parameters']).where('id', '=', row.id).executeTakeFirstOrThrow();
+    expect(stored.schema_version).toBe(1);
+    expect('amendments' in (stored.parameters as object)).toBe(false);
+  });
+});
