@@ -1,6 +1,7 @@
 'use client';
 
 import { zodResolver } from '@hookform/resolvers/zod';
+import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { acceptInvitationSchema, type AcceptInvitationInput } from '@/lib/domain/accounts/people';
@@ -8,6 +9,7 @@ import { MIN_NEW_PASSWORD_LENGTH } from '@/lib/domain/accounts/password-policy';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 
 export function AcceptInvitationForm({ token, email }: { token: string; email: string }) {
+  const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
@@ -20,8 +22,9 @@ export function AcceptInvitationForm({ token, email }: { token: string; email: s
     setFormError(null);
     try {
       await fetchJson(`/api/invitations/${token}/accept`, { method: 'POST', json: values });
-      // A full load, so the app shell reads the new session cookie.
-      window.location.assign('/home');
+      // The app shell reads the new session cookie on the next render.
+      router.replace('/home');
+      router.refresh();
     } catch (err) {
       if (err instanceof ApiError && err.errors.length) {
         for (const e of err.errors) setError(e.path as keyof AcceptInvitationInput, { message: e.message });

@@ -3,7 +3,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { invitationSchema, invitedRoleLabels, INVITATION_LIFETIME_DAYS, type InvitationInput, type InvitedRole } from '@/lib/domain/accounts/people';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 
@@ -19,10 +19,10 @@ export function InviteForm({ roles, jurisdictions = [] }: { roles: readonly Invi
     handleSubmit,
     setError,
     reset,
-    watch,
+    control,
     formState: { errors, isSubmitting },
   } = useForm<InvitationInput>({ resolver: zodResolver(invitationSchema), defaultValues: { email: '', role: roles[0], jurisdiction: undefined } });
-  const role = watch('role');
+  const role = useWatch({ control, name: 'role' });
 
   async function onSubmit(values: InvitationInput) {
     setFormError(null);

@@ -344,7 +344,9 @@ describe('the audit trail of account events', () => {
     expect(sent.body[0]).toMatchObject({ action: 'invitation.send', actorEmail: ownerEmail, details: { email, role: 'installer' } });
     const today = new Date().toISOString().slice(0, 10);
     const byPerson = await api(`/api/admin/audit?person=${encodeURIComponent(member.email)}&from=${today}&to=${today}`, { cookie: admin });
-    expect(byPerson.body.map((r: { action: string }) => r.action)).toEqual(['user.role-change', 'user.reactivate', 'user.deactivate']);
+    // Their own sign-in is on record too; the changes made to them come newest first.
+    expect(byPerson.body.map((r: { action: string }) => r.action).filter((a: string) => a.startsWith('user.'))).toEqual(['user.role-change', 'user.reactivate', 'user.deactivate']);
+    expect(byPerson.body.map((r: { action: string }) => r.action)).toContain('auth.sign-in');
     const yesterday = new Date(Date.now() - 24 * 3600_000).toISOString().slice(0, 10);
     expect((await api(`/api/admin/audit?person=${encodeURIComponent(member.email)}&to=${yesterday}`, { cookie: admin })).body).toEqual([]);
     const badDate = await api('/api/admin/audit?from=yesterday', { cookie: admin });
