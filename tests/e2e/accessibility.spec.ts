@@ -62,8 +62,16 @@ test('installer pages have no WCAG 2.2 AA violations at desktop and phone width'
     `/projects/${projectId}/edit`,
     `/projects/${projectId}/drawing`,
     `/projects/${projectId}/checks/${checkId}`,
+    '/appliances',
+    '/quick-check',
     '/account',
   ]);
+});
+
+test('company owner pages have no WCAG 2.2 AA violations at desktop and phone width', async ({ page }) => {
+  test.setTimeout(120_000);
+  await signInAs(page, 'installer@nookpass.demo');
+  await walk(page, ['/company', '/people', '/audit']);
 });
 
 test('inspector pages have no WCAG 2.2 AA violations at desktop and phone width', async ({ page }) => {
@@ -95,6 +103,7 @@ test('admin pages have no WCAG 2.2 AA violations at desktop and phone width', as
     '/projects',
     project!,
     `${project}/plan`,
+    '/audit',
     '/account',
   ]);
 });
@@ -109,5 +118,10 @@ test('pages without signing in have no WCAG 2.2 AA violations at desktop and pho
   const code = (await insp.locator('main').textContent())?.match(/NP(?:-[A-Z2-9]{4}){4}/)?.[0];
   await inspector.close();
   expect(code).toBeTruthy();
-  await walk(page, ['/', '/sign-in', `/verify/${code}`, '/forbidden', '/no-such-page']);
+  // Unknown tokens: each page says the link does not work and what to do next.
+  const unknown = 'A'.repeat(43);
+  await walk(page, [
+    '/', '/sign-in', '/sign-up', '/forgot-password', `/reset-password/${unknown}`, `/invitations/${unknown}`,
+    `/confirm-email/${unknown}`, `/verify/${code}`, '/forbidden', '/no-such-page',
+  ]);
 });
