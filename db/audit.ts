@@ -26,25 +26,6 @@ export async function writeAudit(db: DB, entry: AuditEntry): Promise<void> {
     .execute();
 }
 
-export async function listAudit(db: DB, limit = 100) {
-  const rows = await db
-    .selectFrom('audit_log as a')
-    .leftJoin('users as u', 'u.id', 'a.actor_user_id')
-    .select(['a.id', 'a.at', 'a.action', 'a.entity_type', 'a.entity_id', 'a.details', 'u.email as actor_email'])
-    .orderBy('a.id', 'desc')
-    .limit(limit)
-    .execute();
-  return rows.map((r) => ({
-    id: r.id,
-    at: r.at,
-    action: r.action,
-    entityType: r.entity_type,
-    entityId: r.entity_id,
-    details: r.details,
-    actorEmail: r.actor_email,
-  }));
-}
-
 export type AuditItem = { id: number; at: Date; action: string; actorEmail: string | null; entityId: string | null; details: Record<string, unknown> };
 
 /** The audit trail of one jurisdiction: its own edits and everything done to its rule set versions. */

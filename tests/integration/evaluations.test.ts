@@ -90,7 +90,10 @@ describe('POST /api/evaluations', () => {
 
   it('reports the published version in /api/jurisdictions', async () => {
     const res = await api('/api/jurisdictions', { token });
-    for (const j of res.body) expect(j.publishedVersion).toBeGreaterThanOrEqual(1);
+    // Jurisdictions other tests create may have no published version yet; the demo ones always have one.
+    const demo = res.body.filter((j: { slug: string }) => j.slug === 'demo-county' || j.slug === 'demo-city');
+    expect(demo).toHaveLength(2);
+    for (const j of demo) expect(j.publishedVersion).toBeGreaterThanOrEqual(1);
   });
 });
 

@@ -1,8 +1,7 @@
-import { sql } from 'kysely';
+import { sql, type Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createMigrator, migrateToLatest } from '@/db/migrator';
 import { listInspections, publicReportFacts } from '@/db/reports';
-import { seedDemo } from '@/lib/services/demo-seed';
 import { createScratchDb } from './helpers';
 
 let scratch: Awaited<ReturnType<typeof createScratchDb>>;
@@ -93,17 +92,30 @@ describe('reports issued before snapshots were kept', () => {
 
   beforeAll(async () => {
     legacy = await createScratchDb();
-    // The schema just before reports kept their snapshot (the demo seed writes today's other columns).
+    // The schema just before reports kept their snapshot.
     const before = await createMigrator(legacy.db).migrateTo('2026-12-04T00-00-00_stored-schema-versions');
     expect(before.error).toBeUndefined();
-    await seedDemo(legacy.db);
-    const project = await legacy.db
-      .selectFrom('projects as p')
-      .innerJoin('plan_revisions as r', 'r.project_id', 'p.id')
-      .innerJoin('rule_sets as s', (j) => j.onRef('s.jurisdiction_id', '=', 'p.jurisdiction_id').on('s.status', '=', 'published'))
-      .select(['p.id', 'p.jurisdiction_id', 'p.created_by', 'r.id as revision_id', 's.id as rule_set_id'])
-      .where('p.name', 'like', 'Demo%')
-      .executeTakeFirstOrThrow();
+    // The rows a report of that time hangs on, written with that time's columns (today's seed writes today's).
+    const db = legacy.db as unknown as Kysely<any>;
+    const org = await db.insertInto('organizations').values({ name: 'Legacy Closets (test)' }).returning('id').executeTakeFirstOrThrow();
+    const county = await db.insertInto('jurisdictions').values({
+      slug: 'legacy-county', name: 'Legacy County (test)', region: 'Test', building_edition: 'IRC 2018', electrical_edition: 'NEC 2017',
+      plumbing_edition: 'IPC 2018', plumbing_family: 'IPC', mechanical_edition: 'IRC 2018', fuel_gas_edition: 'IRC 2018',
+      inspector_email: 'inspector@legacy.test',
+    }).returning('id').executeTakeFirstOrThrow();
+    const installer = await db.insertInto('users').values({
+      email: 'installer@legacy.test', name: 'Legacy installer', password_hash: 'x', role: 'installer', organization_id: org.id,
+    }).returning('id').executeTakeFirstOrThrow();
+    const ruleSet = await db.insertInto('rule_sets').values({
+      jurisdiction_id: county.id, version: 1, status: 'published', parameters: '{}', schema_version: 0, published_at: new Date(), changelog: 'First version (test)',
+    }).returning('id').executeTakeFirstOrThrow();
+    const legacyProject = await db.insertInto('projects').values({
+      organization_id: org.id, jurisdiction_id: county.id, name: 'Legacy closet', site_address: '1 Old Road', created_by: installer.id,
+    }).returning('id').executeTakeFirstOrThrow();
+    const revision = await db.insertInto('plan_revisions').values({
+      project_id: legacyProject.id, number: 1, plan: '{}', canonical: '{}', schema_version: 0, created_by: installer.id,
+    }).returning('id').executeTakeFirstOrThrow();
+    const project = { id: legacyProject.id, jurisdiction_id: county.id, created_by: installer.id, revision_id: revision.id, rule_set_id: ruleSet.id };
     projectId = project.id;
     jurisdictionId = project.jurisdiction_id;
     const summary = { pass: 30, fail: 2, caution: 1, needsInfo: 0, notApplicable: 3 };
