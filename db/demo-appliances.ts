@@ -13,10 +13,15 @@ const closet = { clearanceSideIn: 1, clearanceTopIn: 1, clearanceFrontIn: 1 } as
 
 export const demoApplianceModels: ApplianceModelValues[] = [
   { ...none, ...closet, kind: 'washer', label: 'Demo FL-27 front-load washer (demo)', widthIn: 27, depthIn: 32, heightIn: 39, frontProjectionIn: 2.5, clearanceRearIn: 4, volts: 120, amps: 15 },
+  { ...none, ...closet, kind: 'washer', label: 'Demo HW-24 hall-closet washer (demo)', widthIn: 24, depthIn: 24, heightIn: 34, frontProjectionIn: 2, clearanceRearIn: 4, volts: 120, amps: 15 },
   { ...none, ...closet, kind: 'washer', label: 'Demo CW-24 compact washer (demo)', widthIn: 24, depthIn: 24.5, heightIn: 34, frontProjectionIn: 2, clearanceRearIn: 4, volts: 120, amps: 15 },
   {
     ...none, ...closet, kind: 'dryer', label: 'Demo ED-27 electric dryer (demo)', widthIn: 27, depthIn: 31, heightIn: 39, frontProjectionIn: 2.5,
     clearanceRearIn: 5.5, closetVentTopSqIn: 48, closetVentBottomSqIn: 24, maxExhaustLengthIn: 420, fuel: 'electric', dryerType: 'vented', exhaustCfm: 180, volts: 240, amps: 30,
+  },
+  {
+    ...none, ...closet, kind: 'dryer', label: 'Demo HD-24 hall-closet electric dryer (demo)', widthIn: 24, depthIn: 24, heightIn: 34, frontProjectionIn: 2,
+    clearanceRearIn: 4, closetVentTopSqIn: 48, closetVentBottomSqIn: 24, fuel: 'electric', dryerType: 'vented', exhaustCfm: 160, volts: 240, amps: 30,
   },
   {
     ...none, ...closet, kind: 'dryer', label: 'Demo GD-27 gas dryer (demo)', widthIn: 27, depthIn: 31, heightIn: 39, frontProjectionIn: 2.5,

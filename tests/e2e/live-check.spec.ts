@@ -35,6 +35,16 @@ for (const viewport of [{ name: 'desktop', width: 1280, height: 900 }, { name: '
     await page.goto(`/projects/${id}/plan`);
     await expect(live(page)).toHaveAttribute('data-live-state', 'ready', { timeout: 30_000 });
 
+    // The units come from the company's appliance library: the demo hall-closet pair (invented demo models).
+    for (const [slot, label] of [['washer', 'Demo HW-24 hall-closet washer (demo) (washer)'], ['dryer', 'Demo HD-24 hall-closet electric dryer (demo) (dryer)']] as const) {
+      const picker = page.getByTestId(`library-picker-${slot}`);
+      if (viewport.name === 'phone') await page.getByTestId(`section-toggle-${slot}`).click();
+      await picker.getByLabel('Fill from the appliance library').selectOption({ label });
+      await picker.getByRole('button', { name: `Fill ${slot} fields` }).click();
+      await expect(page.locator(`#f-${slot}-width`)).toHaveValue('24');
+    }
+    if (viewport.name === 'phone') await page.getByTestId('section-toggle-enclosure').click();
+
     // The sizes worked out for the demo units: 33 in (2' 9") inside depth with the cautions (24 + 2 + 1 in front +
     // 6 in rear zone; plan figures and trade references, common practice), 34-1/2 in outside with 3/4 in panel and doors.
     await expect(live(page).getByTestId('size-depth-all')).toContainText(`2' 9"`);
@@ -75,6 +85,7 @@ for (const viewport of [{ name: 'desktop', width: 1280, height: 900 }, { name: '
     await expect(live(page).getByTestId('live-waiting')).toHaveCount(0);
 
     // Lengthen the exhaust's long straight run past 35 ft of developed length (IRC 2018 M1502.4.5.1), then back.
+    if (viewport.name === 'phone') await page.getByTestId('section-toggle-exhaust').click();
     const straight = page.locator('#f-exhaust-run-2-straight');
     await straight.fill('40 ft');
     await expect(liveFinding(page, 'exhaust.developed-length')).toHaveAttribute('data-status', 'fail');
