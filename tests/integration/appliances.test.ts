@@ -78,8 +78,8 @@ describe('appliance library API', () => {
     const washers = await api('/api/appliances?slot=washer', { cookie: colleague });
     const dryers = await api('/api/appliances?slot=dryer', { cookie: colleague });
     const demo = (items: Array<{ isDemo: boolean; kind: string; label: string }>) => items.filter((m) => m.isDemo);
-    expect(demo(washers.body.items).map((m) => m.kind).sort()).toEqual(['washer', 'washer', 'washer-dryer']);
-    expect(demo(dryers.body.items).map((m) => m.kind).sort()).toEqual(['dryer', 'dryer', 'dryer', 'dryer', 'washer-dryer']);
+    expect(demo(washers.body.items).map((m) => m.kind).sort()).toEqual(['washer', 'washer', 'washer', 'washer-dryer']);
+    expect(demo(dryers.body.items).map((m) => m.kind).sort()).toEqual(['dryer', 'dryer', 'dryer', 'dryer', 'dryer', 'washer-dryer']);
     for (const m of demo([...washers.body.items, ...dryers.body.items])) expect(m.label).toMatch(/\(demo\)$/);
     const second = await api('/api/appliances', { cookie: other });
     expect(demo(second.body.items)).toEqual([]);

@@ -54,7 +54,7 @@ describe('demo seed', () => {
       .select(['o.name', 'm.kind', 'm.label', 'm.is_demo'])
       .execute();
     expect(new Set(models.map((m) => m.name))).toEqual(new Set(['Demo Closet Works']));
-    expect(models.map((m) => m.kind).sort()).toEqual(['dryer', 'dryer', 'dryer', 'dryer', 'washer', 'washer', 'washer-dryer']);
+    expect(models.map((m) => m.kind).sort()).toEqual(['dryer', 'dryer', 'dryer', 'dryer', 'dryer', 'washer', 'washer', 'washer', 'washer-dryer']);
     expect(models.every((m) => m.is_demo && m.label.startsWith('Demo ') && m.label.endsWith('(demo)'))).toBe(true);
   });
 
