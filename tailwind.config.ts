@@ -13,7 +13,7 @@ export default {
         status: {
           pass: '#256a4c',
           fail: '#b23a2a',
-          caution: '#b8860b',
+          caution: '#875f00',
           info: '#4a58b8',
           na: '#646970',
         },

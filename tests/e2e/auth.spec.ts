@@ -2,13 +2,14 @@ import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
 
 const roles = [
-  { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Company', 'Account'], lands: '/projects' },
+  { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Quick check', 'Appliance library', 'Company', 'People', 'Audit', 'Account'], lands: '/projects' },
+  { email: 'installer2@nookpass.demo', role: 'Installer', nav: ['Projects', 'Quick check', 'Appliance library', 'Account'], lands: '/projects' },
   { email: 'inspector@nookpass.demo', role: 'Inspector', nav: ['Inspections', 'Account'], lands: '/inspections' },
-  { email: 'admin@nookpass.demo', role: 'Admin', nav: ['Rules', 'Jurisdictions', 'Users', 'Account'], lands: '/rules' },
+  { email: 'admin@nookpass.demo', role: 'Admin', nav: ['Rules', 'Jurisdictions', 'Users', 'Audit', 'Account'], lands: '/rules' },
 ];
 
 for (const r of roles) {
-  test(`${r.role.toLowerCase()} signs in and sees their navigation`, async ({ page }) => {
+  test(`${r.role.toLowerCase()} ${r.email} signs in and sees their navigation`, async ({ page }) => {
     await signInAs(page, r.email);
     await expect(page).toHaveURL(new RegExp(`${r.lands}$`));
     await expect(page.getByTestId('shell-role')).toHaveText(r.role);

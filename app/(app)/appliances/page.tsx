@@ -29,7 +29,7 @@ export default async function AppliancesPage() {
           A row whose kind and label match a model already here replaces its figures. If any row is wrong, nothing of the file is saved and
           each error names its line and column.
         </p>
-        <pre className="mt-3 overflow-x-auto rounded bg-paper-deep p-3 text-xs" data-testid="csv-header">{APPLIANCE_CSV_HEADER.join(',')}</pre>
+        <pre className="mt-3 overflow-x-auto rounded bg-paper-deep p-3 text-xs" data-testid="csv-header" tabIndex={0} role="region" aria-label="CSV header line">{APPLIANCE_CSV_HEADER.join(',')}</pre>
         <dl className="mt-3 grid gap-x-4 gap-y-1 text-sm sm:grid-cols-[max-content_1fr]">
           {applianceFields.map((f) => (
             <div key={f.column} className="contents">

@@ -69,7 +69,8 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
         <button type="submit" className="btn-secondary">Filter</button>
         {problem && <p role="alert" className="field-error w-full">{problem}</p>}
       </form>
-      <div className="card overflow-x-auto">
+      {/* Focusable so a keyboard can scroll the table on a phone. */}
+      <div className="card overflow-x-auto" tabIndex={0} role="region" aria-label="Account events">
         <table className="min-w-full text-sm" data-testid="audit-table">
           <caption className="sr-only">Audit entries</caption>
           <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-ink-soft">
