@@ -80,7 +80,7 @@ for (const viewport of [{ name: 'desktop', width: 1280, height: 900 }, { name: '
     // A length that does not read shows its message beside the field, and the panel says what waits for it.
     await depth.fill('34 bananas');
     await expect(page.locator('#f-enclosure-depth-error')).toBeVisible();
-    await expect(live(page).getByTestId('live-waiting')).toContainText('Enclosure inside depth');
+    await expect(live(page).getByTestId('live-waiting')).toContainText('Enclosure depth');
     await depth.fill('34.5');
     await expect(live(page).getByTestId('live-waiting')).toHaveCount(0);
 

@@ -52,6 +52,8 @@ test('an owner invites a teammate who sees the company’s projects, then deacti
   const link = await invitationLink(email);
   const teammate = await acceptInvitation(browser, link, 'Taylor Teammate (test)');
   await teammate.goto('/projects');
+  // Other tests add projects to the demo company: search, so the demo project is on the first page.
+  await teammate.getByLabel('Search projects').fill('hall closet');
   await expect(teammate.getByText('Demo — hall closet pair, 12 Example Lane')).toBeVisible();
   await expect(teammate.getByText('Demo — second company hall closet, 300 Fictional Ave')).toHaveCount(0);
   // A teammate is not an owner: no people administration.
