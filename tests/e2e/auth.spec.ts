@@ -3,7 +3,7 @@ import { signInAs } from './helpers';
 
 const roles = [
   { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Quick check', 'Appliance library', 'Company', 'People', 'Audit', 'Account'], lands: '/projects' },
-  { email: 'installer2@nookpass.demo', role: 'Installer', nav: ['Projects', 'Quick check', 'Appliance library', 'Account'], lands: '/projects' },
+  { email: 'installer2@nookpass.demo', role: 'Installer', nav: ['Projects', 'Quick check', 'Appliance library', 'Company', 'Account'], lands: '/projects' },
   { email: 'inspector@nookpass.demo', role: 'Inspector', nav: ['Inspections', 'Account'], lands: '/inspections' },
   { email: 'admin@nookpass.demo', role: 'Admin', nav: ['Rules', 'Jurisdictions', 'Users', 'Audit', 'Account'], lands: '/rules' },
 ];
