@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { migrateToLatest } from '@/db/migrator';
 import { TooManyRequestsError } from '@/lib/domain/errors';
 import { clientAddress, SharedLimiter, type LimitPolicy } from '@/lib/platform/rate-limit';
-import { createScratchDb } from './helpers';
+import { createScratchDb, testPool } from './helpers';
 
 let scratch: Awaited<ReturnType<typeof createScratchDb>>;
 let poolA: pg.Pool;
@@ -13,8 +13,8 @@ beforeAll(async () => {
   scratch = await createScratchDb();
   const { error } = await migrateToLatest(scratch.db);
   if (error) throw error;
-  poolA = new pg.Pool({ connectionString: scratch.url, max: 4 });
-  poolB = new pg.Pool({ connectionString: scratch.url, max: 4 });
+  poolA = testPool(scratch.url, 4);
+  poolB = testPool(scratch.url, 4);
 });
 afterAll(async () => {
   await poolA?.end();

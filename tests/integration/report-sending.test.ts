@@ -1,10 +1,9 @@
 import { randomBytes } from 'node:crypto';
-import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SharedLimiter } from '@/lib/platform/rate-limit';
 import { REPORT_SEND_LIMIT } from '@/lib/services/reports/limits';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
-import { api, appDb, newInstallerCompany, postJson, signIn } from './helpers';
+import { api, appDatabaseUrl, appDb, newInstallerCompany, postJson, signIn, testPool } from './helpers';
 
 /*
  * E-mailing reports: the inspector address and addresses the company used before go straight out, any
@@ -106,7 +105,7 @@ describe('sending a report by e-mail', () => {
     const checkId = await newCheck(company.cookie);
     // 29 sends this hour recorded through another app server's limiter on the same database; the app's
     // own counting takes the 30th and refuses the 31st.
-    const pool = new pg.Pool({ connectionString: process.env.DATABASE_URL, max: 1 });
+    const pool = testPool(appDatabaseUrl(), 1);
     try {
       await new SharedLimiter(pool).penalize(REPORT_SEND_LIMIT, company.organizationId, REPORT_SEND_LIMIT.points - 1);
     } finally {
