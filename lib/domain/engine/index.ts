@@ -292,7 +292,7 @@ function needsInfoFinding(base: FindingBase, missing: string[], summary: Evaluat
   summary.needsInfo += 1;
   const message =
     missing.length > 0
-      ? `Needs: ${missing.map(labelForPath).join('; ')}. Add them to the plan to check this.`
+      ? `To check this, add to the plan: ${missing.map(labelForPath).join('; ')}.`
       : 'Needs more detail in the plan to check this.';
   return finish(base, 'needs-info', message, null, missing, null);
 }

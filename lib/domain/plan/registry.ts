@@ -4,8 +4,8 @@
  * sections are all derived from it (schema.ts, labels.ts, editor.ts).
  *
  * Each entry gives its kind, the editor's label, its help text (the JSON Schema description), and where it
- * applies its unit, choices, list limit and what "none" means. A key's words in messages come from the key
- * itself ("fastenerProtrusion" reads "fastener protrusion") unless the entry gives a `term`.
+ * applies its unit, choices, list limit and what "none" means. Messages name a field by its label (or its
+ * `term`), qualified by its section where the label alone is ambiguous (labels.ts).
  */
 
 /** Editor sections, in the order the editor shows them. */
@@ -85,7 +85,7 @@ interface Entry {
   help: string;
   /** A short hint under the field in the editor. */
   hint?: string;
-  /** The key's words in messages, when the key itself does not read well. */
+  /** The field's name in messages, when its label does not read well there (messages otherwise use the label). */
   term?: string;
   none?: NoneAnswer;
   /** Top-level entries: the editor section they are shown in. */
@@ -121,6 +121,8 @@ export interface ListEntry extends Entry {
   noun: string;
   /** One item in the editor ("Door 2"). */
   itemLabel?: string;
+  /** One item in messages, when `itemLabel` alone does not say what it is ("Exhaust piece 3", "Door 1, hinge 2"). */
+  itemTerm?: string;
   /** A new item's form values in the editor. */
   newItem?: Readonly<Record<string, string>>;
   /** The editor shows this list with its own component. */
@@ -271,6 +273,7 @@ export const planRegistry = {
         buildingType: {
           kind: 'choice',
           label: 'Building',
+          term: 'building type',
           help: 'The kind of building: a one- or two-family dwelling or townhouse (the default), or any other building. It decides which adopted code the findings cite.',
           choices: buildingTypes,
           choiceLabels: { dwelling: 'one- or two-family dwelling or townhouse', other: 'other building' },
@@ -417,6 +420,8 @@ export const planRegistry = {
           max: MAX_EXHAUST_RUN_PIECES,
           noun: 'pieces in the exhaust route',
           itemLabel: 'Piece',
+          itemTerm: 'exhaust piece',
+          term: 'exhaust route',
           bespoke: 'exhaust-route-builder',
           item: {
             kind: 'group',
@@ -645,6 +650,7 @@ export const planRegistry = {
       kind: 'list',
       section: 'doors',
       label: 'Enclosure doors',
+      term: 'doors',
       itemLabel: 'Door',
       help: 'The enclosure doors.',
       max: MAX_DOORS,
@@ -692,6 +698,8 @@ export const planRegistry = {
             hint: `Comma-separated, e.g. 3, 40, 77 (at most ${MAX_HINGES_PER_DOOR}); “none” for a door without hinges.`,
             max: MAX_HINGES_PER_DOOR,
             noun: 'hinge positions on a door',
+            term: 'hinge positions',
+            itemTerm: 'hinge',
             none: { answer: 'empty', meaning: 'A door without hinges.', word: 'none' },
             item: { kind: 'length', help: 'Distance of a hinge cup centre from the bottom edge of the door.' },
           },
