@@ -95,7 +95,13 @@ interface Entry {
 
 export interface LengthField extends Entry { kind: 'length' }
 export interface AreaField extends Entry { kind: 'area' }
-export interface NumberField extends Entry { kind: 'number'; unit: string; min: 'nonnegative' | 'positive' }
+export interface NumberField extends Entry {
+  kind: 'number';
+  unit: 'cfm' | 'A' | 'V';
+  min: 'nonnegative' | 'positive';
+  /** A typical value, offered in the message when something else was typed. */
+  example: number;
+}
 export interface BooleanField extends Entry { kind: 'boolean' }
 export interface TextField extends Entry {
   kind: 'text';
@@ -375,7 +381,7 @@ export const planRegistry = {
           applies: { all: [condensateDrained, { path: 'dryer.condensateDrainTo', notIn: ['none'] }] },
         },
         ...applianceFields,
-        exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.', applies: ventedDryer },
+        exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', example: 150, label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.', applies: ventedDryer },
         maxDuctLength: {
           kind: 'length',
           applies: ventedDryer,
@@ -540,6 +546,7 @@ export const planRegistry = {
           kind: 'number',
           unit: 'cfm',
           min: 'nonnegative',
+          example: 150,
           label: 'Make-up air by other means',
           help: 'Make-up air supplied by other means, cubic feet per minute.',
           applies: ventedDryer,
@@ -555,7 +562,7 @@ export const planRegistry = {
           kind: 'group',
           help: 'The laundry branch circuit.',
           fields: {
-            amps: { kind: 'number', unit: 'A', min: 'positive', label: 'Laundry circuit rating', help: 'Rating of the laundry branch circuit, amperes.' },
+            amps: { kind: 'number', unit: 'A', min: 'positive', example: 20, label: 'Laundry circuit rating', help: 'Rating of the laundry branch circuit, amperes.' },
             dedicated: { kind: 'boolean', label: 'Laundry circuit serves only laundry outlets', help: 'The laundry circuit has no outlets outside the laundry area.' },
           },
         },
@@ -572,8 +579,8 @@ export const planRegistry = {
             help: 'A receptacle outlet for the laundry appliances.',
             fields: {
               serves: { kind: 'choice', label: 'Serves', help: 'The appliance(s) this receptacle serves.', choices: ['washer', 'dryer', 'both'] },
-              volts: { kind: 'number', unit: 'V', min: 'positive', label: 'Voltage', help: 'Nominal voltage of the receptacle.' },
-              amps: { kind: 'number', unit: 'A', min: 'positive', label: 'Rating', help: 'Rating of the receptacle and its circuit, amperes.' },
+              volts: { kind: 'number', unit: 'V', min: 'positive', example: 240, label: 'Voltage', help: 'Nominal voltage of the receptacle.' },
+              amps: { kind: 'number', unit: 'A', min: 'positive', example: 30, label: 'Rating', help: 'Rating of the receptacle and its circuit, amperes.' },
               wires: { kind: 'choice', label: 'Wires (dryer)', help: 'Conductors to a dryer receptacle, 3 or 4 wire.', choices: [3, 4] },
               gfci: { kind: 'boolean', label: 'GFCI protected', help: 'Ground-fault circuit-interrupter protection is provided.' },
               afci: { kind: 'boolean', label: 'AFCI protected', help: 'Arc-fault circuit-interrupter protection is provided.' },

@@ -154,6 +154,14 @@ function parseLengthUncapped(input: unknown, units: UnitSystem, path: string): U
     return { ok: true, value: units === 'metric' ? mmToInches(inchPart) : inchPart };
   }
   const feet = feetText === undefined ? 0 : Number(feetText);
+  // "6 ft 14" is a slip of the pen, not 7' 2": say so rather than guess what was meant.
+  if (feetText !== undefined && hasInchPart && inchPart >= 12) {
+    const total = feetToInches(feet) + inchPart;
+    return fail(
+      path,
+      `${pathLabel(path)}: inches after the feet must be under 12 ('${input}'); if you meant ${formatLength(total, 'imperial')}, enter that or ${formatLength(total, 'imperial', 'inches')}.`,
+    );
+  }
   const inches = feet === 0 ? inchPart : feetToInches(feet) + inchPart;
   return checkNumber(inches, path, 'length');
 }
