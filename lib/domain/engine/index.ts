@@ -458,6 +458,11 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       return finish(base, 'pass', fill(messages.pass, shown.measured, shown.limit), null, [], null);
     }
     const failedCondition = result ? failedClause(result.conditions as ConditionResult) : null;
+    // A thin length rounded to thousandths can hide a miss (0.0158 against 0.016): then one more digit.
+    if (rule.lengthStyle === 'decimal' && shown.measured !== null && shown.measured === shown.limit && typeof measured === 'number' && typeof limit === 'number' && measured !== limit) {
+      shown.measured = formatLength(measured, plan.units, 'decimal-fine');
+      shown.limit = formatLength(limit, plan.units, 'decimal-fine');
+    }
     if (rule.severity === 'fail') summary.fail += 1;
     else summary.caution += 1;
     const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });

@@ -93,7 +93,11 @@ interface Entry {
   required?: boolean;
 }
 
-export interface LengthField extends Entry { kind: 'length' }
+export interface LengthField extends Entry {
+  kind: 'length';
+  /** Sheet-metal thin: shown in thousandths of an inch or tenths of a millimetre, never rounded to 1/16 in. */
+  thin?: boolean;
+}
 export interface AreaField extends Entry { kind: 'area' }
 export interface NumberField extends Entry {
   kind: 'number';
@@ -409,7 +413,7 @@ export const planRegistry = {
       fields: {
         material: { kind: 'choice', label: 'Duct material', help: 'Material of the exhaust duct (not the transition duct).', choices: ductMaterials, choiceLabels: words(ductMaterials) },
         diameter: { kind: 'length', label: 'Duct diameter', help: 'Nominal diameter of the exhaust duct.' },
-        thickness: { kind: 'length', label: 'Duct wall thickness', help: 'Wall thickness of the exhaust duct.', hint: 'e.g. 0.0157 in (No. 28 gage).' },
+        thickness: { kind: 'length', thin: true, label: 'Duct wall thickness', help: 'Wall thickness of the exhaust duct.', hint: 'e.g. 0.0157 in (No. 28 gage).' },
         transition: {
           kind: 'group',
           help: 'The flexible transition duct from the dryer outlet to the exhaust duct.',
