@@ -60,7 +60,7 @@ describe('revision change summary', () => {
     const after = { units: 'imperial', enclosure: { width: 56 }, exhaust: { run: [{ straight: 24 }, { elbow: 90 }] } };
     const changes = diffPlans(before, after);
     expect(changes.map((c) => c.path)).toEqual(['enclosure.width', 'exhaust.run.1']);
-    expect(summarizeChanges(changes)).toBe('Enclosure width 54 → 56; Exhaust piece 2 — → {"elbow":90}');
+    expect(summarizeChanges(changes)).toBe('Enclosure width 54 → 56; Exhaust piece 2 — → (elbow angle 90)');
     expect(summarizeChanges([])).toBe('No changes');
   });
 
