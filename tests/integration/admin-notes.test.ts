@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LOCAL_SECTION_ADMIN_NOTE } from '@/lib/domain/rule-format';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
@@ -10,9 +11,10 @@ import { api, appDb, baseUrl, postJson, signIn } from './helpers';
  */
 const db = appDb();
 let installer: string;
+let admin: string;
 
 beforeAll(async () => {
-  installer = await signIn('installer@nookpass.demo');
+  [installer, admin] = await Promise.all([signIn('installer@nookpass.demo'), signIn('admin@nookpass.demo')]);
 });
 afterAll(async () => {
   await db.destroy();
@@ -49,5 +51,25 @@ describe('admin notes never reach installers', () => {
     const html = await page.text();
     expect(html).not.toContain('rule set parameters');
     expect(html).toContain('the AHJ can say which section applies');
+  }, 180_000);
+
+  it('the evaluation API answers installers without admin notes; the admin’s dry run lists them', async () => {
+    const evaluation = await api('/api/evaluations', postJson({ jurisdiction: 'demo-county', plan: hallClosetPassPlan }, { cookie: installer }));
+    expect(evaluation.status).toBe(200);
+    expect(JSON.stringify(evaluation.body)).not.toContain('rule set parameters');
+    expect(evaluation.body.findings.some((f: Record<string, unknown>) => 'adminNote' in f)).toBe(false);
+
+    // A throwaway jurisdiction's first draft, from the baseline: its local-amendment rules have no section entered yet.
+    const slug = `it-notes-${randomBytes(4).toString('hex')}`;
+    const editions = { building: 'IRC 2018', electrical: 'NEC 2017', plumbing: 'IPC 2018', plumbingFamily: 'IPC', mechanical: 'IMC 2018', fuelGas: 'IFGC 2018' };
+    const made = await api(
+      '/api/jurisdictions',
+      postJson({ slug, name: `IT notes (test)`, region: 'Test State (invented)', editions, inspectorEmail: '', amendmentNotes: 'Throwaway test jurisdiction.', startFrom: 'baseline' }, { cookie: admin }),
+    );
+    expect(made.status, JSON.stringify(made.body)).toBe(201);
+    const dry = await api(`/api/rule-sets/${made.body.draft.id}/dry-run`, postJson({}, { cookie: admin }));
+    expect(dry.status).toBe(200);
+    expect(dry.body.adminNotes).toContainEqual({ ruleKey: 'plumbing.drain-pan', title: expect.any(String), note: LOCAL_SECTION_ADMIN_NOTE });
+    expect(JSON.stringify(dry.body.subjects)).not.toContain('rule set parameters');
   }, 180_000);
 });
