@@ -15,7 +15,7 @@ import { FactReference, RuleTable } from '@/components/admin/rule-editor';
 import { CitationChecks, type CitationList } from '@/components/admin/citation-checks';
 
 type DraftSet = Omit<RuleSetWithRules, 'createdAt' | 'updatedAt' | 'publishedAt' | 'retiredAt'> & { updatedAt: string | Date };
-type DryRun = { published: { version: number } | null; draft: { version: number; revision: number }; subjects: SubjectComparison[]; totals: { subjects: number; changed: number; newlyFailing: number; newlyPassing: number } };
+type DryRun = { published: { version: number } | null; draft: { version: number; revision: number }; subjects: SubjectComparison[]; totals: { subjects: number; changed: number; newlyFailing: number; newlyPassing: number }; adminNotes?: Array<{ ruleKey: string; title: string; note: string }> };
 
 /**
  * The draft editor: parameters, rules, dry run and publish, all saving against the revision this
@@ -170,6 +170,14 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
             <p className="mb-2 text-sm font-semibold" data-testid="dry-run-totals">
               {dryRun.totals.changed} of {dryRun.totals.subjects} plans would change status · {dryRun.totals.newlyFailing} would newly fail · {dryRun.totals.newlyPassing} would newly pass
             </p>
+            {(dryRun.adminNotes?.length ?? 0) > 0 && (
+              <div className="mb-3 rounded-md bg-paper-deep px-3 py-2 text-sm" data-testid="dry-run-admin-notes">
+                <p className="font-semibold">To fix in this draft (installers do not see these notes)</p>
+                <ul className="mt-1 list-disc pl-5">
+                  {dryRun.adminNotes!.map((n) => <li key={n.ruleKey}>{n.title}: {n.note}</li>)}
+                </ul>
+              </div>
+            )}
             <DryRunResults subjects={dryRun.subjects} publishedVersion={dryRun.published?.version ?? null} draftVersion={dryRun.draft.version} />
           </div>
         )}

@@ -69,7 +69,6 @@ export function FindingsList({ findings, changedKeys, citationChecks }: { findin
                     </dl>
                   )}
                   <p className="mt-2 text-sm">{f.message}</p>
-                  {f.missing.length > 0 && <p className="mt-1 text-sm text-status-info">Fill in: {f.missing.join(', ')}</p>}
                   {f.remedy && (
                     <p className="mt-2 rounded-md bg-paper-deep px-3 py-2 text-sm" data-testid="remedy">
                       <span className="font-semibold">Smallest fix: </span>{f.remedy}

@@ -43,7 +43,7 @@ function MarkKeys({ name, id, label }: { name: string; id: string; label: string
 }
 
 /** Shows a typed length or area in the other unit system, so a mixed-unit entry can be checked at a glance. */
-function OtherUnits({ name, kind }: { name: string; kind: 'length' | 'area' }) {
+function OtherUnits({ name, kind, thin }: { name: string; kind: 'length' | 'area'; thin?: boolean }) {
   const value = useWatch({ name });
   const units = (useWatch({ name: 'units' }) as UnitSystem) || 'imperial';
   if (value === undefined || value === null || String(value).trim() === '') return null;
@@ -53,7 +53,7 @@ function OtherUnits({ name, kind }: { name: string; kind: 'length' | 'area' }) {
   const other: UnitSystem = units === 'imperial' ? 'metric' : 'imperial';
   const shown =
     kind === 'length'
-      ? `${formatLength(parsed.value, units)} · ${formatLength(parsed.value, other)}`
+      ? `${formatLength(parsed.value, units, thin ? 'decimal' : undefined)} · ${formatLength(parsed.value, other, thin ? 'decimal' : undefined)}`
       : `${formatArea(parsed.value, units)} · ${formatArea(parsed.value, other)}`;
   return (
     <span className="mt-1 block font-mono text-xs text-ink-faint" data-testid={`convert-${name}`}>
@@ -139,7 +139,7 @@ export function PlanField({ spec, name }: { spec: EditorField; name: string }) {
     <div>
       <label htmlFor={id} className="field-label">{spec.label}</label>
       {control}
-      {(spec.kind === 'length' || spec.kind === 'area') && <OtherUnits name={name} kind={spec.kind} />}
+      {(spec.kind === 'length' || spec.kind === 'area') && <OtherUnits name={name} kind={spec.kind} thin={spec.thin} />}
       {spec.hint && <p id={`${id}-hint`} className="mt-1 text-xs text-ink-faint">{spec.hint}</p>}
       {error?.message && <p id={`${id}-error`} className="field-error" role="alert">{error.message}</p>}
     </div>

@@ -2,7 +2,7 @@ import 'server-only';
 import type { DB } from '@/db';
 import { findJurisdictionWithPublished } from '@/db/jurisdiction-lookup';
 import type { RuleSetWithRules } from '@/db/rule-sets';
-import { evaluate, type Evaluation } from '@/lib/domain/engine';
+import { evaluate, withoutAdminNotes, type Evaluation } from '@/lib/domain/engine';
 import { NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { parsePlan, type Plan } from '@/lib/domain/plan';
 import { loadImmutableRuleSet, loadPublishedRuleSet } from '@/lib/services/checks/rule-set-cache';
@@ -41,7 +41,8 @@ export async function evaluateForJurisdiction(db: DB, input: { jurisdiction: str
   if (!jurisdiction) throw new NotFoundError(`No jurisdiction '${input.jurisdiction}'. GET /api/jurisdictions lists them.`);
   const ruleSet = jurisdiction.publishedRuleSetId ? await loadImmutableRuleSet(db, jurisdiction.publishedRuleSetId) : null;
   if (!ruleSet) throw new NotFoundError(`${jurisdiction.name} has no published rule set yet.`);
-  return evaluateUnder(ruleSet, plan);
+  // The evaluation API answers installers: notes for rule-set admins stay on the admin screens.
+  return withoutAdminNotes(await evaluateUnder(ruleSet, plan));
 }
 
 /**

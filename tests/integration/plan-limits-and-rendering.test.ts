@@ -65,7 +65,7 @@ describe('plans over the limits', () => {
     const res = await api(`/api/projects/${projectId}/plans`, postJson({ plan }, { cookie: installer }));
     const ms = performance.now() - started;
     expect(res.status).toBe(400);
-    expect(res.body.errors).toEqual([{ path: 'plan.doors.0.hinges', message: `Doors item 1 hinges: at most ${MAX_HINGES_PER_DOOR} hinge positions on a door; this plan has 100,000.` }]);
+    expect(res.body.errors).toEqual([{ path: 'plan.doors.0.hinges', message: `Door 1, hinge positions: at most ${MAX_HINGES_PER_DOOR} hinge positions on a door; this plan has 100,000.` }]);
     expect(ms).toBeLessThan(2_000);
     expect(await revisionCount(projectId)).toBe(0);
 
@@ -138,7 +138,7 @@ describe('a revision stored before the limits', () => {
     const page = await timed(`/projects/${projectId}/drawing`);
     expect(page.status).toBe(200);
     expect(page.ms).toBeLessThan(10_000);
-    for (const said of ['Revision 2 is too large to draw', 'Doors: at most 8 doors; this plan has 5,000.', 'Doors item 1 hinges: at most 12 hinge positions on a door; this plan has 100,000.']) {
+    for (const said of ['Revision 2 is too large to draw', 'Doors: at most 8 doors; this plan has 5,000.', 'Door 1, hinge positions: at most 12 hinge positions on a door; this plan has 100,000.']) {
       expect(page.text.includes(said), said).toBe(true);
     }
     expect(page.bytes.length).toBeLessThan(1_000_000);

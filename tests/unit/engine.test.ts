@@ -55,7 +55,7 @@ describe('evaluate', () => {
     const developed = finding(evaluation, 'exhaust.developed-length');
     expect(developed.status).toBe('needs-info');
     expect(developed.missing).toEqual(['exhaust.run']);
-    expect(developed.message).toBe('Needs: Exhaust run. Add them to the plan to check this.');
+    expect(developed.message).toBe('To check this, add to the plan: Exhaust route.');
     expect(developed.remedy).toBeNull();
     for (const f of evaluation.findings) expect(['needs-info', 'not-applicable']).toContain(f.status);
   });

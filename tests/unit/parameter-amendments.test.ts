@@ -107,7 +107,7 @@ describe('stored rule sets and checks written before amendments were cited', () 
   });
 
   it('version 1 checks read with findings that cite no amendment, findings otherwise as stored', () => {
-    expect(CHECK_SCHEMA_VERSION).toBe(2);
+    expect(CHECK_SCHEMA_VERSION).toBe(3);
     const finding = { ruleKey: 'exhaust.developed-length', status: 'fail', message: 'as stored' };
     const stored = { inputs: { plan: {}, canonical: {}, planSchemaVersion: PLAN_SCHEMA_VERSION }, facts: {}, findings: [finding], summary: {} };
     const read = readStoredCheck(stored, 1);

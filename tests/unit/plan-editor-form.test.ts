@@ -60,7 +60,7 @@ describe('revision change summary', () => {
     const after = { units: 'imperial', enclosure: { width: 56 }, exhaust: { run: [{ straight: 24 }, { elbow: 90 }] } };
     const changes = diffPlans(before, after);
     expect(changes.map((c) => c.path)).toEqual(['enclosure.width', 'exhaust.run.1']);
-    expect(summarizeChanges(changes)).toBe('Enclosure width 54 → 56; Exhaust run item 2 — → {"elbow":90}');
+    expect(summarizeChanges(changes)).toBe('Enclosure width 54 → 56; Exhaust piece 2 — → (elbow angle 90)');
     expect(summarizeChanges([])).toBe('No changes');
   });
 
@@ -72,7 +72,7 @@ describe('revision change summary', () => {
     expect(performance.now() - started).toBeLessThan(200);
     expect(changes).toEqual([{ path: 'doors', label: 'Doors', from: '5,000 entries', to: '1 entry' }]);
     expect(diffPlans({ doors: [{ ...door, hinges: stored.doors[0].hinges }] }, { doors: [door] })).toEqual([
-      { path: 'doors.0.hinges', label: 'Doors item 1 hinges', from: '100,000 entries', to: '2 entries' },
+      { path: 'doors.0.hinges', label: 'Door 1, hinge positions', from: '100,000 entries', to: '2 entries' },
     ]);
   });
 });

@@ -65,7 +65,7 @@ describe('measure text limit', () => {
       ok: false,
       errors: [
         { path: 'enclosure.width', message: `Enclosure width: at most ${MAX_MEASURE_TEXT_LENGTH} characters; this has ${MAX_MEASURE_TEXT_LENGTH + 1}.` },
-        { path: 'makeupAir.openings.0.netFreeArea', message: `Makeup air openings item 1 net free area: at most ${MAX_MEASURE_TEXT_LENGTH} characters; this has 5,000.` },
+        { path: 'makeupAir.openings.0.netFreeArea', message: `Opening 1, net free area: at most ${MAX_MEASURE_TEXT_LENGTH} characters; this has 5,000.` },
       ],
     });
   });
@@ -143,7 +143,7 @@ describe('drawings under a budget', () => {
     const started = performance.now();
     const r = drawPlan(plan, { params });
     expect(performance.now() - started).toBeLessThan(500);
-    expect(r).toEqual({ ok: false, reasons: ['Doors item 1 hinges: at most 12 hinge positions on a door; this plan has 100,000.'] });
+    expect(r).toEqual({ ok: false, reasons: ['Door 1, hinge positions: at most 12 hinge positions on a door; this plan has 100,000.'] });
   });
 
   it('refuse geometry over the budget with a message', () => {
@@ -157,7 +157,7 @@ describe('findOversizeLists', () => {
   it('counts without parsing, and ignores lists of the wrong type', () => {
     expect(findOversizeLists({ doors: 'many', exhaust: { run: { length: 1e9 } } })).toEqual([]);
     expect(findOversizeLists({ makeupAir: { openings: times(13, () => null) } })).toEqual([
-      { path: 'makeupAir.openings', count: 13, max: 12, message: 'Makeup air openings: at most 12 make-up air openings; this plan has 13.' },
+      { path: 'makeupAir.openings', count: 13, max: 12, message: 'Make-up air openings: at most 12 make-up air openings; this plan has 13.' },
     ]);
   });
 });

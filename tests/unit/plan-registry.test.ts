@@ -58,9 +58,27 @@ describe('the field registry', () => {
     expect([...named].filter((p) => !entryAt(p))).toEqual([]);
   });
 
+  it('names list items by their item names, counted from 1', () => {
+    expect(labelForPath('doors.0.hinges.1')).toBe('Door 1, hinge 2');
+    expect(labelForPath('exhaust.run.2')).toBe('Exhaust piece 3');
+    expect(labelForPath('electrical.receptacles.1.volts')).toBe('Receptacle 2, voltage');
+    expect(labelForPath('makeupAir.openings.0.netFreeArea')).toBe('Opening 1, net free area');
+    for (const { path } of registryEntries) expect(labelForPath(path.replace(/\*/g, '0'))).not.toMatch(/\bitem\b/);
+  });
+
+  it('names fields by their editor labels, qualified where a label alone is ambiguous', () => {
+    expect(labelForPath('exhaust.thickness')).toBe('Duct wall thickness');
+    expect(labelForPath('exhaust.material')).toBe('Duct material');
+    expect(labelForPath('enclosure.depth')).toBe('Enclosure depth');
+    expect(labelForPath('washer.width')).toBe('Washer width');
+    expect(labelForPath('dryer.clearances.side')).toBe('Dryer maker’s side clearance');
+    const names = registryEntries.filter((e) => !e.path.includes('*')).map((e) => labelForPath(e.path));
+    expect(names.length - new Set(names).size).toBe(0);
+  });
+
   it('labels fields in messages as before, list items by number', () => {
-    expect(labelForPath('exhaust.run.2.straight')).toBe('Exhaust run item 3 straight');
-    expect(labelForPath('doors.0.hinges')).toBe('Doors item 1 hinges');
+    expect(labelForPath('exhaust.run.2.straight')).toBe('Exhaust piece 3, straight length');
+    expect(labelForPath('doors.0.hinges')).toBe('Door 1, hinge positions');
     expect(labelForPath('enclosure.colour')).toBe('Enclosure colour');
     expect(labelForPath('')).toBe('Value');
   });

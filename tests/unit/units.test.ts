@@ -133,7 +133,10 @@ describe('formatLength and formatArea', () => {
   });
   it('has a plain-inch and a decimal variant', () => {
     expect(formatLength(30.5, 'imperial', 'inches')).toBe(`30-1/2"`);
-    expect(formatLength(0.0157, 'imperial', 'decimal')).toBe('0.0157 in');
+    // Thin material in thousandths of an inch or tenths of a millimetre (1 in = 25.4 mm, NIST SP 811): 0.0157 in = 0.399 mm.
+    expect(formatLength(0.0157, 'imperial', 'decimal')).toBe('0.016"');
+    expect(formatLength(0.0157, 'metric', 'decimal')).toBe('0.4 mm');
+    expect(formatLength(0.0157, 'imperial', 'decimal-fine')).toBe('0.0157"');
   });
   it('formats metric lengths in mm (1 in = 25.4 mm, NIST SP 811)', () => {
     expect(formatLength(30, 'metric')).toBe('762 mm');

@@ -1,11 +1,12 @@
 import { upgradeStored, type UpgradeChain } from '@/lib/domain/history/upgrade';
 import { planUpgrades } from '@/lib/domain/plan/upgrade';
+import { splitCitationNote } from '@/lib/domain/rule-format/define';
 
 /**
  * The shape of a check's stored JSON (inputs, facts, findings, summary) that this build writes and
  * reads. Version 1 records, in its inputs, the plan schema version of the plan it evaluated.
  */
-export const CHECK_SCHEMA_VERSION = 2;
+export const CHECK_SCHEMA_VERSION = 3;
 
 export type StoredCheckJson = {
   inputs: { plan: unknown; canonical: unknown; planSchemaVersion: number };
@@ -30,6 +31,23 @@ export const checkUpgrades: UpgradeChain = {
       const check = stored as { findings?: unknown };
       const findings = Array.isArray(check.findings)
         ? check.findings.map((f) => (f && typeof f === 'object' && !('amendments' in f) ? { ...f, amendments: [] } : f))
+        : check.findings;
+      return { ...check, findings };
+    },
+    // Version 3: a note telling the rule set's admin what to fix is no longer part of an installer's
+    // findings; older checks carried it in the citation note and the finding's note. The installer now
+    // reads what it means on the job instead.
+    2: (stored) => {
+      const check = stored as { findings?: unknown };
+      const findings = Array.isArray(check.findings)
+        ? check.findings.map((f) => {
+            if (!f || typeof f !== 'object') return f;
+            const finding = { ...(f as Record<string, unknown>) };
+            for (const key of ['citationNote', 'note']) {
+              if (typeof finding[key] === 'string') finding[key] = splitCitationNote(finding[key]).installer;
+            }
+            return finding;
+          })
         : check.findings;
       return { ...check, findings };
     },

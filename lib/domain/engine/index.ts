@@ -6,7 +6,7 @@ import { readParam, ruleSetParametersSchema, type RuleSetParameters } from '@/li
 import { computeRemedy } from '@/lib/domain/remedies';
 import { amendmentsForFinding, amendmentsForRule, changedParameters, factsMovedByAmendments, parameterLabel, parameterValueText, type ParameterAmendment } from '@/lib/domain/params/amendments';
 import { formatArea, formatLength, type LengthStyle, type UnitSystem } from '@/lib/domain/units';
-import { conditionFacts, variantForFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
+import { conditionFacts, splitCitationNote, variantForFacts, type Area, type Citation, type Confidence, type Limit, type StoredCondition, type StoredRule, type ValueRef } from '@/lib/domain/rule-format';
 
 export type { FindingStatus };
 export type LimitValue = number | boolean | string | { min: number; max: number } | null;
@@ -35,6 +35,16 @@ export interface Finding {
   note: string;
   /** Local amendments that changed a model value this rule reads; `citation` stays the model section. */
   amendments?: ParameterAmendment[];
+  /**
+   * What an admin should fix in the rule set for this rule (a local amendment's section not entered). Shown on
+   * rule-set screens only; `withoutAdminNotes` removes it before findings reach an installer or are stored.
+   */
+  adminNote?: string | null;
+}
+
+/** Findings as installers receive and checks store them: without the notes meant for rule-set admins. */
+export function withoutAdminNotes<T extends { findings: Finding[] }>(evaluation: T): T {
+  return { ...evaluation, findings: evaluation.findings.map(({ adminNote: _admin, ...finding }) => finding) };
 }
 
 export interface EvaluationSummary {
@@ -255,7 +265,7 @@ function fill(template: string, measured: string | null, limit: string | null, s
     .replace(/\{shortfall\}/g, shortfall ?? 'an unknown amount');
 }
 
-type FindingBase = Omit<Finding, 'status' | 'message' | 'failedCondition' | 'missing' | 'remedy'>;
+type FindingBase = Omit<Finding, 'status' | 'message' | 'failedCondition' | 'missing' | 'remedy' | 'adminNote'> & { adminNote: string | null };
 
 // Written out field by field: object spread compiles to a slow helper under some transpilers and
 // dominated evaluate()'s own cost.
@@ -285,6 +295,7 @@ function finish(
     remedy,
     note: base.note,
     amendments: base.amendments,
+    adminNote: base.adminNote,
   };
 }
 
@@ -292,7 +303,7 @@ function needsInfoFinding(base: FindingBase, missing: string[], summary: Evaluat
   summary.needsInfo += 1;
   const message =
     missing.length > 0
-      ? `Needs: ${missing.map(labelForPath).join('; ')}. Add them to the plan to check this.`
+      ? `To check this, add to the plan: ${missing.map(labelForPath).join('; ')}.`
       : 'Needs more detail in the plan to check this.';
   return finish(base, 'needs-info', message, null, missing, null);
 }
@@ -429,6 +440,7 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       limit: displayLimit(limit, rule.unit, plan.units, rule.lengthStyle),
     };
     const cited = variant ?? rule;
+    const citationNote = splitCitationNote(cited.citationNote);
     const base: FindingBase = {
       ruleKey: rule.key,
       title: rule.title,
@@ -439,9 +451,10 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       display: shown,
       citation: cited.citation,
       confidence: cited.confidence,
-      citationNote: cited.citationNote,
-      note: noteFor(cited, ruleSet.jurisdiction, amendments),
+      citationNote: citationNote.installer,
+      note: noteFor({ ...cited, citationNote: citationNote.installer }, ruleSet.jurisdiction, amendments),
       amendments,
+      adminNote: citationNote.admin,
     };
     const earlyMissing = early.get(rule.key);
     if (earlyMissing) return needsInfoFinding(base, earlyMissing, summary);
@@ -458,6 +471,11 @@ export async function evaluate(ruleSet: RuleSetForEvaluation, plan: Plan): Promi
       return finish(base, 'pass', fill(messages.pass, shown.measured, shown.limit), null, [], null);
     }
     const failedCondition = result ? failedClause(result.conditions as ConditionResult) : null;
+    // A thin length rounded to thousandths can hide a miss (0.0158 against 0.016): then one more digit.
+    if (rule.lengthStyle === 'decimal' && shown.measured !== null && shown.measured === shown.limit && typeof measured === 'number' && typeof limit === 'number' && measured !== limit) {
+      shown.measured = formatLength(measured, plan.units, 'decimal-fine');
+      shown.limit = formatLength(limit, plan.units, 'decimal-fine');
+    }
     if (rule.severity === 'fail') summary.fail += 1;
     else summary.caution += 1;
     const remedy = computeRemedy(rule.remedy, { plan, params: parameters, facts, units: plan.units, measured, limit, failedCondition });

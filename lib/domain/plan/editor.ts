@@ -21,6 +21,8 @@ export interface EditorField {
   choiceLabels?: Readonly<Record<string, string>>;
   hint?: string;
   unit?: string;
+  /** A thin length (duct wall): echoed in thousandths of an inch or tenths of a millimetre. */
+  thin?: boolean;
   /** For 'presence' fields: the optional group of the plan this says is there, absent (null) or not known. */
   group?: string;
   /** The word that answers "none" (the maker gives no maximum; a door without hinges). */
@@ -77,6 +79,7 @@ function leafField(entry: Exclude<PlanEntry, GroupEntry>, path: string): EditorF
   const noneWord = entry.none?.word ? { noneWord: entry.none.word } : {};
   switch (entry.kind) {
     case 'length':
+      return [{ ...base, kind: entry.kind, ...noneWord, ...(entry.thin ? { thin: true } : {}) }];
     case 'area':
       return [{ ...base, kind: entry.kind, ...noneWord }];
     case 'number':

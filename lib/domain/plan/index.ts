@@ -13,6 +13,7 @@ import {
   type PlanListPath,
 } from '@/lib/domain/plan/schema';
 import type { FieldError } from '@/lib/domain/errors';
+import { entryAt, type NumberField } from '@/lib/domain/plan/registry';
 
 export * from '@/lib/domain/plan/schema';
 export * from '@/lib/domain/plan/registry';
@@ -25,6 +26,30 @@ export type ParsePlanResult = { ok: true; plan: Plan } | { ok: false; errors: Fi
 
 function joinPath(path: ReadonlyArray<PropertyKey>): string {
   return path.map(String).join('.');
+}
+
+const UNIT_WORDS: Record<NumberField['unit'], string> = { cfm: 'cubic feet per minute', A: 'amperes', V: 'volts' };
+const EXPECTED_WORDS: Record<string, string> = {
+  number: 'a number',
+  string: 'text',
+  boolean: 'yes or no',
+  object: 'a group of fields',
+  array: 'a list',
+};
+const MINUS = '\u2212';
+
+function minusSign(value: number): string {
+  return value < 0 ? `${MINUS}${String(-value)}` : String(value);
+}
+
+/** What was typed, quoted, cut short so a pasted essay never fills the message. */
+function typed(input: unknown): string {
+  if (typeof input === 'number') return `“${minusSign(input)}”`;
+  if (typeof input === 'boolean') return input ? 'yes' : 'no';
+  if (input === null) return 'nothing';
+  if (typeof input === 'object') return Array.isArray(input) ? 'a list' : 'a group of fields';
+  const text = String(input).replace(/\s+/g, ' ').trim();
+  return `“${text.length > 40 ? `${text.slice(0, 39)}…` : text}”`;
 }
 
 function describeIssue(issue: z.core.$ZodIssue): FieldError[] {
@@ -43,21 +68,31 @@ function describeIssue(issue: z.core.$ZodIssue): FieldError[] {
       // Unit-conversion issues carry a message written without the path; add the field's label.
       if (issue.params?.[UNIT_ISSUE]) return [{ path, message: `${label}${issue.message.replace(/^Value/, '')}` }];
       return [{ path, message: issue.message }];
-    case 'invalid_type':
+    case 'invalid_type': {
       if (issue.input === undefined) return [{ path, message: `${label}: required.` }];
-      return [{ path, message: `${label}: expected ${issue.expected}.` }];
+      const entry = entryAt(path)?.entry;
+      if (entry?.kind === 'number') {
+        return [{ path, message: `${label}: ${typed(issue.input)} is not a number; enter ${UNIT_WORDS[entry.unit]}, e.g. ${entry.example}.` }];
+      }
+      return [{ path, message: `${label}: ${typed(issue.input)} is not ${EXPECTED_WORDS[issue.expected] ?? issue.expected}.` }];
+    }
+    case 'too_small': {
+      const entry = entryAt(path)?.entry;
+      if (entry?.kind === 'number' && typeof issue.input === 'number') {
+        const bound = issue.inclusive ? 'at least' : 'more than';
+        return [{ path, message: `${label} must be ${bound} ${String(issue.minimum)} ${entry.unit} (you entered ${minusSign(issue.input)}).` }];
+      }
+      return [{ path, message: `${label}: ${issue.message}` }];
+    }
     case 'invalid_value':
-      return [
-        {
-          path,
-          message: `${label}: must be one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}.`,
-        },
-      ];
+      if (issue.input === undefined) return [{ path, message: `${label}: required.` }];
+      return [{ path, message: `${label}: ${typed(issue.input)} is not one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}.` }];
     case 'invalid_union': {
       const nested = issue.errors.flat();
       if (nested.length > 0 && nested.every((n) => n.code === 'invalid_value')) {
         const values = nested.flatMap((n) => (n.code === 'invalid_value' ? n.values : []));
-        return [{ path, message: `${label}: must be one of ${values.map((v) => JSON.stringify(v)).join(', ')}.` }];
+        if (issue.input === undefined) return [{ path, message: `${label}: required.` }];
+        return [{ path, message: `${label}: ${typed(issue.input)} is not one of ${values.map((v) => JSON.stringify(v)).join(', ')}.` }];
       }
       const example = isAreaPath(path) ? '60 sq in or 387 cm²' : `30 in, 2' 6" or 762 mm`;
       return [{ path, message: `${label}: expected a number in the plan's units, or text with units such as ${example}.` }];
@@ -78,7 +113,8 @@ export function parsePlan(input: unknown): ParsePlanResult {
 function parseWith(input: unknown, schemaFor: (units: UnitSystem) => z.ZodType): ParsePlanResult {
   const units = unitSystemSchema.safeParse((input as { units?: unknown } | null)?.units);
   const schema = units.success ? schemaFor(units.data as UnitSystem) : planInputSchema;
-  const result = schema.safeParse(input);
+  // The input goes into issues so a message can say what was typed, not only what was wanted.
+  const result = schema.safeParse(input, { reportInput: true });
   if (result.success && units.success) return { ok: true, plan: result.data as unknown as Plan };
   const issues = result.success ? [] : result.error.issues;
   const errors = issues.flatMap(describeIssue);

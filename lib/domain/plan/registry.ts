@@ -4,8 +4,8 @@
  * sections are all derived from it (schema.ts, labels.ts, editor.ts).
  *
  * Each entry gives its kind, the editor's label, its help text (the JSON Schema description), and where it
- * applies its unit, choices, list limit and what "none" means. A key's words in messages come from the key
- * itself ("fastenerProtrusion" reads "fastener protrusion") unless the entry gives a `term`.
+ * applies its unit, choices, list limit and what "none" means. Messages name a field by its label (or its
+ * `term`), qualified by its section where the label alone is ambiguous (labels.ts).
  */
 
 /** Editor sections, in the order the editor shows them. */
@@ -85,7 +85,7 @@ interface Entry {
   help: string;
   /** A short hint under the field in the editor. */
   hint?: string;
-  /** The key's words in messages, when the key itself does not read well. */
+  /** The field's name in messages, when its label does not read well there (messages otherwise use the label). */
   term?: string;
   none?: NoneAnswer;
   /** Top-level entries: the editor section they are shown in. */
@@ -93,9 +93,19 @@ interface Entry {
   required?: boolean;
 }
 
-export interface LengthField extends Entry { kind: 'length' }
+export interface LengthField extends Entry {
+  kind: 'length';
+  /** Sheet-metal thin: shown in thousandths of an inch or tenths of a millimetre, never rounded to 1/16 in. */
+  thin?: boolean;
+}
 export interface AreaField extends Entry { kind: 'area' }
-export interface NumberField extends Entry { kind: 'number'; unit: string; min: 'nonnegative' | 'positive' }
+export interface NumberField extends Entry {
+  kind: 'number';
+  unit: 'cfm' | 'A' | 'V';
+  min: 'nonnegative' | 'positive';
+  /** A typical value, offered in the message when something else was typed. */
+  example: number;
+}
 export interface BooleanField extends Entry { kind: 'boolean' }
 export interface TextField extends Entry {
   kind: 'text';
@@ -121,6 +131,8 @@ export interface ListEntry extends Entry {
   noun: string;
   /** One item in the editor ("Door 2"). */
   itemLabel?: string;
+  /** One item in messages, when `itemLabel` alone does not say what it is ("Exhaust piece 3", "Door 1, hinge 2"). */
+  itemTerm?: string;
   /** A new item's form values in the editor. */
   newItem?: Readonly<Record<string, string>>;
   /** The editor shows this list with its own component. */
@@ -271,6 +283,7 @@ export const planRegistry = {
         buildingType: {
           kind: 'choice',
           label: 'Building',
+          term: 'building type',
           help: 'The kind of building: a one- or two-family dwelling or townhouse (the default), or any other building. It decides which adopted code the findings cite.',
           choices: buildingTypes,
           choiceLabels: { dwelling: 'one- or two-family dwelling or townhouse', other: 'other building' },
@@ -372,7 +385,7 @@ export const planRegistry = {
           applies: { all: [condensateDrained, { path: 'dryer.condensateDrainTo', notIn: ['none'] }] },
         },
         ...applianceFields,
-        exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.', applies: ventedDryer },
+        exhaustCfm: { kind: 'number', unit: 'cfm', min: 'nonnegative', example: 150, label: 'Exhaust rate', help: 'Exhaust flow rate of the dryer, cubic feet per minute.', applies: ventedDryer },
         maxDuctLength: {
           kind: 'length',
           applies: ventedDryer,
@@ -400,7 +413,7 @@ export const planRegistry = {
       fields: {
         material: { kind: 'choice', label: 'Duct material', help: 'Material of the exhaust duct (not the transition duct).', choices: ductMaterials, choiceLabels: words(ductMaterials) },
         diameter: { kind: 'length', label: 'Duct diameter', help: 'Nominal diameter of the exhaust duct.' },
-        thickness: { kind: 'length', label: 'Duct wall thickness', help: 'Wall thickness of the exhaust duct.', hint: 'e.g. 0.0157 in (No. 28 gage).' },
+        thickness: { kind: 'length', thin: true, label: 'Duct wall thickness', help: 'Wall thickness of the exhaust duct.', hint: 'e.g. 0.0157 in (No. 28 gage).' },
         transition: {
           kind: 'group',
           help: 'The flexible transition duct from the dryer outlet to the exhaust duct.',
@@ -417,6 +430,8 @@ export const planRegistry = {
           max: MAX_EXHAUST_RUN_PIECES,
           noun: 'pieces in the exhaust route',
           itemLabel: 'Piece',
+          itemTerm: 'exhaust piece',
+          term: 'exhaust route',
           bespoke: 'exhaust-route-builder',
           item: {
             kind: 'group',
@@ -535,6 +550,7 @@ export const planRegistry = {
           kind: 'number',
           unit: 'cfm',
           min: 'nonnegative',
+          example: 150,
           label: 'Make-up air by other means',
           help: 'Make-up air supplied by other means, cubic feet per minute.',
           applies: ventedDryer,
@@ -550,7 +566,7 @@ export const planRegistry = {
           kind: 'group',
           help: 'The laundry branch circuit.',
           fields: {
-            amps: { kind: 'number', unit: 'A', min: 'positive', label: 'Laundry circuit rating', help: 'Rating of the laundry branch circuit, amperes.' },
+            amps: { kind: 'number', unit: 'A', min: 'positive', example: 20, label: 'Laundry circuit rating', help: 'Rating of the laundry branch circuit, amperes.' },
             dedicated: { kind: 'boolean', label: 'Laundry circuit serves only laundry outlets', help: 'The laundry circuit has no outlets outside the laundry area.' },
           },
         },
@@ -567,8 +583,8 @@ export const planRegistry = {
             help: 'A receptacle outlet for the laundry appliances.',
             fields: {
               serves: { kind: 'choice', label: 'Serves', help: 'The appliance(s) this receptacle serves.', choices: ['washer', 'dryer', 'both'] },
-              volts: { kind: 'number', unit: 'V', min: 'positive', label: 'Voltage', help: 'Nominal voltage of the receptacle.' },
-              amps: { kind: 'number', unit: 'A', min: 'positive', label: 'Rating', help: 'Rating of the receptacle and its circuit, amperes.' },
+              volts: { kind: 'number', unit: 'V', min: 'positive', example: 240, label: 'Voltage', help: 'Nominal voltage of the receptacle.' },
+              amps: { kind: 'number', unit: 'A', min: 'positive', example: 30, label: 'Rating', help: 'Rating of the receptacle and its circuit, amperes.' },
               wires: { kind: 'choice', label: 'Wires (dryer)', help: 'Conductors to a dryer receptacle, 3 or 4 wire.', choices: [3, 4] },
               gfci: { kind: 'boolean', label: 'GFCI protected', help: 'Ground-fault circuit-interrupter protection is provided.' },
               afci: { kind: 'boolean', label: 'AFCI protected', help: 'Arc-fault circuit-interrupter protection is provided.' },
@@ -645,6 +661,7 @@ export const planRegistry = {
       kind: 'list',
       section: 'doors',
       label: 'Enclosure doors',
+      term: 'doors',
       itemLabel: 'Door',
       help: 'The enclosure doors.',
       max: MAX_DOORS,
@@ -692,6 +709,8 @@ export const planRegistry = {
             hint: `Comma-separated, e.g. 3, 40, 77 (at most ${MAX_HINGES_PER_DOOR}); “none” for a door without hinges.`,
             max: MAX_HINGES_PER_DOOR,
             noun: 'hinge positions on a door',
+            term: 'hinge positions',
+            itemTerm: 'hinge',
             none: { answer: 'empty', meaning: 'A door without hinges.', word: 'none' },
             item: { kind: 'length', help: 'Distance of a hinge cup centre from the bottom edge of the door.' },
           },

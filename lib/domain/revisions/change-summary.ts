@@ -1,4 +1,5 @@
-import { labelForPath } from '@/lib/domain/plan';
+import { entryAt, labelForPath } from '@/lib/domain/plan';
+import { keyWords } from '@/lib/domain/units';
 
 export type PlanChange = { path: string; label: string; from: unknown; to: unknown };
 
@@ -44,17 +45,27 @@ export function diffPlans(prev: unknown, next: unknown): PlanChange[] {
   return out;
 }
 
-function show(v: unknown): string {
+/** A value as entered, in words: a group or list item reads as its fields' labels and values, never as JSON. */
+function show(v: unknown, path: string): string {
   if (v === undefined) return '—';
   if (v === null) return 'none';
   if (typeof v === 'string') return v;
-  return JSON.stringify(v);
+  if (typeof v === 'boolean') return v ? 'yes' : 'no';
+  if (Array.isArray(v)) return v.map((item, i) => show(item, `${path}.${i}`)).join(', ') || 'none';
+  if (isObject(v)) {
+    const parts = Object.entries(v).map(([key, value]) => {
+      const label = entryAt(`${path}.${key}`)?.entry.label ?? keyWords(key);
+      return `${label.charAt(0).toLowerCase()}${label.slice(1)} ${show(value, `${path}.${key}`)}`;
+    });
+    return parts.length > 0 ? `(${parts.join(', ')})` : '—';
+  }
+  return String(v);
 }
 
 /** A one-line summary for the revision list: "Enclosure width 54 → 56; 2 more changes". */
 export function summarizeChanges(changes: PlanChange[], max = 3): string {
   if (changes.length === 0) return 'No changes';
-  const parts = changes.slice(0, max).map((c) => `${c.label} ${show(c.from)} → ${show(c.to)}`);
+  const parts = changes.slice(0, max).map((c) => `${c.label} ${show(c.from, c.path)} → ${show(c.to, c.path)}`);
   const more = changes.length - max;
   return parts.join('; ') + (more > 0 ? `; ${more} more change${more === 1 ? '' : 's'}` : '');
 }

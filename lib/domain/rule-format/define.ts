@@ -131,6 +131,42 @@ const SOURCE_NAMES: Record<'manufacturer' | 'common-practice' | 'physical', stri
   physical: "physical fit (the plan's own sizes)",
 };
 
+/** What the admin must do when a local amendment's section is not recorded: for rule-set screens only. */
+export const LOCAL_SECTION_ADMIN_NOTE = 'Enter the local amendment’s section in the rule set parameters.';
+/** The same gap as an installer reads it: what to do about it on the job. */
+const LOCAL_SECTION_INSTALLER_NOTE = 'The local amendment’s section number is not on record here; the AHJ can say which section applies.';
+
+/*
+ * Sentences in a citation note that tell an admin what to fix in the rule set. Published rules store them in
+ * `citationNote` (rules carry no version), so findings split them out: the installer reads what to do instead.
+ */
+const ADMIN_SENTENCES: ReadonlyArray<{ admin: string; installer: string }> = [
+  { admin: LOCAL_SECTION_ADMIN_NOTE, installer: LOCAL_SECTION_INSTALLER_NOTE },
+];
+
+/** A citation note split into what the installer reads and what only admins see (null when there is none). */
+export function splitCitationNote(note: string | null): { installer: string | null; admin: string | null } {
+  if (!note) return { installer: note, admin: null };
+  let installer = note;
+  const admin: string[] = [];
+  for (const sentence of ADMIN_SENTENCES) {
+    if (!installer.includes(sentence.admin)) continue;
+    installer = installer.replace(sentence.admin, sentence.installer);
+    admin.push(sentence.admin);
+  }
+  return { installer, admin: admin.length > 0 ? admin.join(' ') : null };
+}
+
+/** The admin-only notes of a rule set's enabled rules (their own citation and each variant's), one per rule. */
+export function adminNotesFor(rules: ReadonlyArray<Pick<StoredRule, 'key' | 'title' | 'enabled' | 'citationNote' | 'citationVariants'>>): Array<{ ruleKey: string; title: string; note: string }> {
+  return rules.flatMap((rule) => {
+    if (!rule.enabled) return [];
+    const notes = [rule.citationNote, ...(rule.citationVariants?.variants ?? []).map((v) => v.citationNote)].map((n) => splitCitationNote(n).admin);
+    const note = [...new Set(notes.filter((n): n is string => n !== null))].join(' ');
+    return note ? [{ ruleKey: rule.key, title: rule.title, note }] : [];
+  });
+}
+
 /**
  * Picks the section number for the jurisdiction's adopted edition. An exact match keeps the
  * entry's confidence; otherwise the nearest edition's number is used, marked M with a note.
@@ -148,7 +184,7 @@ export function resolveCitation(
     return {
       citation: { code: 'local amendment', edition: params.editions.plumbing, section: typeof section === 'string' ? section : null },
       confidence: first.confidence,
-      citationNote: typeof section === 'string' ? null : 'Enter the local amendment’s section in the rule set parameters.',
+      citationNote: typeof section === 'string' ? null : LOCAL_SECTION_ADMIN_NOTE,
     };
   }
   const slot = first.source;

@@ -154,6 +154,14 @@ function parseLengthUncapped(input: unknown, units: UnitSystem, path: string): U
     return { ok: true, value: units === 'metric' ? mmToInches(inchPart) : inchPart };
   }
   const feet = feetText === undefined ? 0 : Number(feetText);
+  // "6 ft 14" is a slip of the pen, not 7' 2": say so rather than guess what was meant.
+  if (feetText !== undefined && hasInchPart && inchPart >= 12) {
+    const total = feetToInches(feet) + inchPart;
+    return fail(
+      path,
+      `${pathLabel(path)}: inches after the feet must be under 12 ('${input}'); if you meant ${formatLength(total, 'imperial')}, enter that or ${formatLength(total, 'imperial', 'inches')}.`,
+    );
+  }
   const inches = feet === 0 ? inchPart : feetToInches(feet) + inchPart;
   return checkNumber(inches, path, 'length');
 }
@@ -210,7 +218,11 @@ export function parseArea(input: unknown, units: UnitSystem, path: string): Unit
   return r;
 }
 
-export type LengthStyle = 'feet-inches' | 'inches' | 'decimal';
+/**
+ * `decimal` is for thin material (a duct wall): thousandths of an inch, tenths of a millimetre; `decimal-fine`
+ * one digit more, only where the rounding would make two different thicknesses read the same.
+ */
+export type LengthStyle = 'feet-inches' | 'inches' | 'decimal' | 'decimal-fine';
 
 function trimDecimal(value: number, places: number): string {
   return value.toFixed(places).replace(/\.?0+$/, '');
@@ -231,8 +243,8 @@ function inchesWithFraction(sixteenths: number, keepZero = false): string {
 
 /**
  * Formats canonical inches for display. Imperial: feet-inches to the nearest 1/16 in
- * (`2' 6-1/2"`, `7-1/4"` under a foot), plain inches (`30-1/2"`) or decimal inches for thin
- * material (`0.0157 in`). Metric: millimetres to 0.1 mm (`762 mm`).
+ * (`2' 6-1/2"`, `7-1/4"` under a foot), plain inches (`30-1/2"`) or thousandths of an inch for thin
+ * material (`0.016"`). Metric: millimetres to 0.1 mm (`762 mm`, `0.4 mm`).
  */
 export function formatLength(inches: number, units: UnitSystem, style: LengthStyle = 'feet-inches'): string {
   if (!Number.isFinite(inches)) return String(inches);
@@ -240,9 +252,9 @@ export function formatLength(inches: number, units: UnitSystem, style: LengthSty
   const magnitude = Math.abs(inches);
   if (units === 'metric') {
     const mm = inchesToMm(magnitude);
-    return `${sign}${trimDecimal(mm, style === 'decimal' ? 2 : 1)} mm`;
+    return `${sign}${trimDecimal(mm, style === 'decimal-fine' ? 2 : 1)} mm`;
   }
-  if (style === 'decimal') return `${sign}${trimDecimal(magnitude, 4)} in`;
+  if (style === 'decimal' || style === 'decimal-fine') return `${sign}${trimDecimal(magnitude, style === 'decimal' ? 3 : 4)}"`;
   const sixteenths = Math.round(magnitude * 16);
   if (style === 'inches' || sixteenths < 12 * 16) return `${sign}${inchesWithFraction(sixteenths)}"`;
   const feet = Math.floor(sixteenths / (12 * 16));

@@ -1,6 +1,7 @@
 import path from 'node:path';
 import { Document, Font, Image, Page, Path, Rect, StyleSheet, Svg, Text, View } from '@react-pdf/renderer';
 import { drawPlan, type PlanDrawings } from '@/lib/domain/drawing';
+import { labelForPath } from '@/lib/domain/plan';
 import type { Finding } from '@/lib/domain/engine';
 import { PdfDrawing } from '@/lib/platform/pdf/pdf-drawing';
 import type { ReportData } from '@/lib/domain/reports/report-data';
@@ -115,12 +116,12 @@ function DrawingPages({ drawings, code }: { drawings: PlanDrawings; code: string
           <View style={{ width: '50%' }}>
             <Text style={s.h3}>{elevation.title}</Text>
             <PdfDrawing drawing={elevation} maxWidthPt={250} maxHeightPt={250} />
-            {elevation.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {elevation.missing.join(', ')}</Text>}
+            {elevation.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {elevation.missing.map(labelForPath).join('; ')}</Text>}
           </View>
           <View style={{ width: '50%' }}>
             <Text style={s.h3}>{topView.title}</Text>
             <PdfDrawing drawing={topView} maxWidthPt={250} maxHeightPt={250} />
-            {topView.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {topView.missing.join(', ')}</Text>}
+            {topView.missing.length > 0 && <Text style={s.faint}>Not drawn, missing: {topView.missing.map(labelForPath).join('; ')}</Text>}
           </View>
         </View>
         <Text style={s.h3}>{schematic.title}</Text>
@@ -147,7 +148,7 @@ function DrawingPages({ drawings, code }: { drawings: PlanDrawings; code: string
                     </Text>
                   ))}
                   {h.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
-                  {h.missing.length > 0 && <Text style={s.faint}>Missing: {h.missing.join(', ')}</Text>}
+                  {h.missing.length > 0 && <Text style={s.faint}>Missing: {h.missing.map(labelForPath).join('; ')}</Text>}
                 </View>
               </View>
             </View>
@@ -247,7 +248,7 @@ export function ReportDocument({ data }: { data: ReportData }) {
                   <Text style={{ fontWeight: 600 }}>{f.title}</Text>
                   <Text style={s.muted}>{f.message}</Text>
                   {f.remedy ? <Text style={{ marginTop: 2 }}>Smallest fix: {f.remedy}</Text> : null}
-                  {f.missing.length > 0 ? <Text style={{ color: statusColour['needs-info'] }}>Missing: {f.missing.join(', ')}</Text> : null}
+                  {f.missing.length > 0 ? <Text style={{ color: statusColour['needs-info'] }}>Missing: {f.missing.map(labelForPath).join('; ')}</Text> : null}
                 </View>
                 <View style={{ width: '20%', paddingRight: 4 }}>
                   <Text style={s.mono}>{citation(f.citation)}</Text>

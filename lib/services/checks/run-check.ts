@@ -6,6 +6,7 @@ import { getProject } from '@/db/projects';
 import type { AppUser } from '@/lib/domain/roles';
 import { ConflictError, NotFoundError } from '@/lib/domain/errors';
 import { evaluateUnder, parsePlanOrThrow, publishedRuleSetOf } from '@/lib/services/evaluation';
+import { withoutAdminNotes } from '@/lib/domain/engine';
 
 /** Runs a check of a plan revision (the latest by default) against the jurisdiction's published rule set, and stores it. */
 export async function runCheck(db: DB, user: AppUser, projectId: string, revisionNumber?: number): Promise<StoredCheck> {
@@ -20,7 +21,8 @@ export async function runCheck(db: DB, user: AppUser, projectId: string, revisio
   // check uses today's unit parsing and never a stale form.
   const plan = parsePlanOrThrow(revision.plan);
   const started = performance.now();
-  const evaluation = await evaluateUnder(ruleSet, plan);
+  // A check is the installer's record: the rule-set admins' notes are not part of it.
+  const evaluation = withoutAdminNotes(await evaluateUnder(ruleSet, plan));
   const durationMs = performance.now() - started;
   return insertCheck(db, {
     user,

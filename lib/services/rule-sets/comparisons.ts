@@ -8,6 +8,7 @@ import { findPublishedRuleSet, findRuleSetById, type RuleSetWithRules } from '@/
 import { outcomeOf } from '@/lib/domain/checks/outcome';
 import type { Evaluation, EvaluationSummary } from '@/lib/domain/engine';
 import { NotFoundError } from '@/lib/domain/errors';
+import { adminNotesFor } from '@/lib/domain/rule-format';
 import { compareFindingSets, summarizeComparisons, type FindingDelta, type Outcome, type SubjectComparison } from '@/lib/domain/rule-sets/dry-run';
 import { evaluateForComparison } from '@/lib/services/evaluation';
 
@@ -30,6 +31,8 @@ export type DryRunResult = {
   published: { id: string; version: number } | null;
   subjects: SubjectComparison[];
   totals: ReturnType<typeof summarizeComparisons>;
+  /** What the draft's rules ask an admin to fix (never shown to installers). */
+  adminNotes: ReturnType<typeof adminNotesFor>;
 };
 
 /**
@@ -62,6 +65,7 @@ export async function runDryRun(db: DB, draftId: string, actorUserId: string): P
     published: baseline ? { id: baseline.id, version: baseline.version } : null,
     subjects,
     totals,
+    adminNotes: adminNotesFor(draft.rules),
   };
 }
 
@@ -81,7 +85,10 @@ export type ImpactItem = {
  * published version? The check's own stored plan is re-evaluated (it stays as it was; the
  * installer sees that newer rules exist and re-runs).
  */
-export async function computeImpact(db: DB, jurisdictionId: string): Promise<{ published: { id: string; version: number; changelog: string } | null; items: ImpactItem[] }> {
+export async function computeImpact(
+  db: DB,
+  jurisdictionId: string,
+): Promise<{ published: { id: string; version: number; changelog: string } | null; items: ImpactItem[]; adminNotes: ReturnType<typeof adminNotesFor> }> {
   const published = await findPublishedRuleSet(db, jurisdictionId);
   const items: ImpactItem[] = [];
   for (const project of await listLatestChecksInJurisdiction(db, jurisdictionId)) {
@@ -106,5 +113,9 @@ export async function computeImpact(db: DB, jurisdictionId: string): Promise<{ p
     const differs = changes.some((c) => c.statusChanged) || outcomeNow !== latestCheck.outcome || !!now.error;
     items.push({ ...base, state: differs ? 'would-change' : 'unchanged', latestCheck, outcomeNow, changes, error: now.error });
   }
-  return { published: published ? { id: published.id, version: published.version, changelog: published.changelog } : null, items };
+  return {
+    published: published ? { id: published.id, version: published.version, changelog: published.changelog } : null,
+    items,
+    adminNotes: published ? adminNotesFor(published.rules) : [],
+  };
 }

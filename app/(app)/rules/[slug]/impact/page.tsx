@@ -39,6 +39,14 @@ export default async function ImpactPage({ params, searchParams }: { params: Pro
           Version {impact.published.version} is published: “{impact.published.changelog}”
         </p>
       )}
+      {impact.adminNotes.length > 0 && (
+        <div className="card mb-4 p-4 text-sm" data-testid="impact-admin-notes">
+          <p className="font-semibold">To fix in the next version (installers do not see these notes)</p>
+          <ul className="mt-1 list-disc pl-5">
+            {impact.adminNotes.map((n) => <li key={n.ruleKey}>{n.title}: {n.note}</li>)}
+          </ul>
+        </div>
+      )}
       <p className="mb-4 max-w-prose text-sm text-ink-soft">
         Each project’s latest check is re-evaluated against published version {impact.published?.version ?? '—'}, from the plan it checked.
         The checks themselves stay as they were; their installers see that newer rules are published and can re-run.
