@@ -3,10 +3,10 @@ import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
 import { cache } from 'react';
 import { getDb } from '@/db';
-import { findTokenHolder } from '@/db/api-tokens';
 import { ForbiddenError, ServiceUnavailableError, UnauthorizedError } from '@/lib/domain/errors';
 import { bearerToken, hashApiToken, looksLikeApiToken } from '@/lib/platform/auth/api-token';
 import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
+import { tokenHolder } from '@/lib/platform/auth/token-holders';
 import { authOptions } from '@/lib/platform/auth/options';
 import { hasRole, type AppUser, type Role } from '@/lib/domain/roles';
 
@@ -63,10 +63,10 @@ export async function currentCaller(request: Request): Promise<Caller | null> {
   const token = bearerToken(request);
   if (token !== null) {
     if (!looksLikeApiToken(token)) throw new UnauthorizedError('The API token is malformed.');
-    const holder = await findTokenHolder(getDb(), hashApiToken(token));
+    const holder = await tokenHolder(getDb(), hashApiToken(token));
     if (!holder) throw new UnauthorizedError('The API token is unknown or revoked.');
     if (holder.isDeactivated) throw new UnauthorizedError('The account this API token belongs to has been deactivated.');
-    if (holder.isExpired) {
+    if (holder.expiresAt.getTime() <= Date.now()) {
       throw new UnauthorizedError(`The API token expired on ${holder.expiresAt.toISOString().slice(0, 10)}. Create a new one on the Account page.`);
     }
     return { via: 'api-token', user: holder.user };
