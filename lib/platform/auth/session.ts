@@ -42,7 +42,7 @@ function originHost(origin: string): string | null {
 
 export type Caller =
   | { via: 'session'; user: AppUser; sessionId: string }
-  | { via: 'api-token'; user: AppUser };
+  | { via: 'api-token'; user: AppUser; tokenId: string };
 
 const UNAVAILABLE = 'The database is not reachable right now; nothing was changed. Try again in a moment.';
 
@@ -69,7 +69,7 @@ export async function currentCaller(request: Request): Promise<Caller | null> {
     if (holder.expiresAt.getTime() <= Date.now()) {
       throw new UnauthorizedError(`The API token expired on ${holder.expiresAt.toISOString().slice(0, 10)}. Create a new one on the Account page.`);
     }
-    return { via: 'api-token', user: holder.user };
+    return { via: 'api-token', user: holder.user, tokenId: holder.tokenId };
   }
   const caller = await sessionCaller();
   if (!caller) return null;
@@ -84,10 +84,15 @@ export async function currentApiUser(request: Request): Promise<AppUser | null> 
 
 /** The one role check every route handler goes through. */
 export async function requireUser(request: Request, allowed?: readonly Role[]): Promise<AppUser> {
-  const user = await currentApiUser(request);
-  if (!user) throw new UnauthorizedError();
-  if (allowed && !hasRole(user, allowed)) throw new ForbiddenError();
-  return user;
+  return (await requireCaller(request, allowed)).user;
+}
+
+/** requireUser, also saying how the caller came (a token's limits count per token). */
+export async function requireCaller(request: Request, allowed?: readonly Role[]): Promise<Caller> {
+  const caller = await currentCaller(request);
+  if (!caller) throw new UnauthorizedError();
+  if (allowed && !hasRole(caller.user, allowed)) throw new ForbiddenError();
+  return caller;
 }
 
 /**
