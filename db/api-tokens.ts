@@ -102,30 +102,24 @@ export async function revokeApiToken(db: DB, userId: string, tokenId: string): P
   });
 }
 
-// Last-used times are kept to the minute: one write per token per minute, not one per request.
-const TOUCH_EVERY_MS = 60_000;
+export type TokenHolder = { user: AppUser; tokenId: string; expiresAt: Date; lastUsedAt: Date | null; isDeactivated: boolean };
 
-export type TokenHolder = { user: AppUser; tokenId: string; expiresAt: Date; isExpired: boolean; isDeactivated: boolean };
-
-/**
- * The user of a token that is not revoked, with the token's expiry (judged by the database's clock); null
- * for an unknown or revoked token. Refreshes a live token's last-used time when that is over a minute old.
- */
+/** The user of a token that is not revoked, with the token's expiry and last use; null for an unknown or revoked token. */
 export async function findTokenHolder(db: DB, tokenHash: string): Promise<TokenHolder | null> {
   const row = await db
     .selectFrom('api_tokens')
     .innerJoin('users', 'users.id', 'api_tokens.user_id')
     .select([
       'api_tokens.id as token_id', 'api_tokens.last_used_at', 'api_tokens.expires_at',
-      sql<boolean>`api_tokens.expires_at <= now()`.as('is_expired'),
       'users.id', 'users.email', 'users.name', 'users.role', 'users.organization_id', 'users.jurisdiction_id', 'users.is_owner', 'users.is_demo', 'users.deactivated_at',
     ])
     .where('api_tokens.token_hash', '=', tokenHash)
     .where('api_tokens.revoked_at', 'is', null)
     .executeTakeFirst();
   if (!row) return null;
-  if (!row.is_expired && (!row.last_used_at || Date.now() - new Date(row.last_used_at).getTime() > TOUCH_EVERY_MS)) {
-    await db.updateTable('api_tokens').set({ last_used_at: new Date() }).where('id', '=', row.token_id).execute();
-  }
-  return { user: toAppUser(row), tokenId: row.token_id, expiresAt: row.expires_at, isExpired: row.is_expired, isDeactivated: row.deactivated_at !== null };
+  return { user: toAppUser(row), tokenId: row.token_id, expiresAt: row.expires_at, lastUsedAt: row.last_used_at, isDeactivated: row.deactivated_at !== null };
+}
+
+export async function touchApiToken(db: DB, tokenId: string, at: Date): Promise<void> {
+  await db.updateTable('api_tokens').set({ last_used_at: at }).where('id', '=', tokenId).execute();
 }

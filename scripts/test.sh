@@ -70,7 +70,8 @@ export NOOKPASS_FAKES_SUFFIX=-test
 export NOOKPASS_INBOX_URL="http://127.0.0.1:$NOOKPASS_INBOX_PORT"
 
 say "Serving the built app on 127.0.0.1:$TEST_PORT…"
-node_modules/.bin/next start -H 127.0.0.1 -p "$TEST_PORT" > "$NP_DATA/test-app.log" 2>&1 &
+export NOOKPASS_APP_LOG="$NP_DATA/test-app.log"
+node_modules/.bin/next start -H 127.0.0.1 -p "$TEST_PORT" > "$NOOKPASS_APP_LOG" 2>&1 &
 APP_PID=$!
 for _ in $(seq 1 120); do
   if port_busy "$TEST_PORT"; then break; fi

@@ -1,6 +1,7 @@
 import 'server-only';
 import { createHash, randomUUID } from 'node:crypto';
 import { NextRequest } from 'next/server';
+import { currentRequestId, log, requestIdFor, withRequestId } from '@/lib/platform/log';
 import type { z } from 'zod';
 import {
   ConfirmationRequiredError,
@@ -151,21 +152,43 @@ export function errorResponse(err: unknown): Response {
   if (isDatabaseDown(err)) {
     return json({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);
   }
-  const requestId = randomUUID();
-  console.error(`[api] request ${requestId} failed:`, err instanceof DomainError ? err.message : err);
+  const requestId = currentRequestId() ?? randomUUID();
+  log.error({ err: err instanceof DomainError ? { message: err.message } : err, requestId }, 'request failed');
   return json({ error: 'Something went wrong on our side.', requestId }, 500);
+}
+
+/** Names the request in its answer: the X-Request-Id header always, and `requestId` in an error's JSON body. */
+async function stamped(response: Response, requestId: string): Promise<Response> {
+  const headers = new Headers(response.headers);
+  headers.set('x-request-id', requestId);
+  const type = headers.get('content-type') ?? '';
+  if (response.status >= 400 && type.includes('application/json')) {
+    const body = (await response.json()) as Record<string, unknown>;
+    return new Response(JSON.stringify({ ...body, requestId: body.requestId ?? requestId }), { status: response.status, statusText: response.statusText, headers });
+  }
+  return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
 }
 
 type Handler<C> = (request: Request, context: C) => Promise<Response>;
 
 /** Wraps a route handler so every thrown domain error becomes its status, in one place. */
 export function route<C = unknown>(handler: Handler<C>): Handler<C> {
-  return async (request, context) => {
-    try {
-      return await handler(request, context);
-    } catch (err) {
-      return errorResponse(err);
-    }
+  return (request, context) => {
+    const requestId = requestIdFor(request);
+    return withRequestId(requestId, async () => {
+      const started = performance.now();
+      let response: Response;
+      try {
+        response = await handler(request, context);
+      } catch (err) {
+        response = errorResponse(err);
+      }
+      const path = new URL(request.url).pathname;
+      const fields = { method: request.method, path, status: response.status, ms: Math.round((performance.now() - started) * 10) / 10 };
+      if (response.status >= 500) log.warn(fields, 'request answered with an error');
+      else log.info(fields, 'request');
+      return stamped(response, requestId);
+    });
   };
 }
 

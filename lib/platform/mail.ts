@@ -1,6 +1,7 @@
 import 'server-only';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { ServiceUnavailableError, ValidationError } from '@/lib/domain/errors';
+import { log } from '@/lib/platform/log';
 
 export function mailConfig() {
   return {
@@ -45,7 +46,7 @@ export async function sendMail(mail: OutgoingMail): Promise<{ messageId: string 
     return { messageId: info.messageId };
   } catch (err) {
     const e = err as Error & { responseCode?: number; response?: string; code?: string };
-    console.error('[mail]', e.message);
+    log.error({ err: e, code: e.code, responseCode: e.responseCode }, 'mail not sent');
     // A relay that answered and refused the address is a problem with the address, not an outage.
     if (e.responseCode && e.responseCode >= 500 && e.code === 'EENVELOPE') {
       throw new ValidationError([{ path: 'to', message: `The mail server refused ${mail.to}: ${e.response ?? e.message}` }]);

@@ -1,6 +1,7 @@
 import 'server-only';
 import { CreateBucketCommand, DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { ServiceUnavailableError } from '@/lib/domain/errors';
+import { log } from '@/lib/platform/log';
 
 // Endpoint, bucket and keys from the environment: the local fake by default, a hosted bucket in production.
 export function storageConfig() {
@@ -32,7 +33,7 @@ function client(): S3Client {
 }
 
 function unavailable(err: unknown): never {
-  console.error('[storage]', (err as Error)?.message ?? err);
+  log.error({ err }, 'file storage not reachable');
   throw new ServiceUnavailableError('File storage is not reachable right now; nothing was saved. Try again in a moment.');
 }
 

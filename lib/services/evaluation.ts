@@ -1,11 +1,10 @@
 import 'server-only';
 import type { DB } from '@/db';
-import { findJurisdictionWithPublished } from '@/db/jurisdiction-lookup';
 import type { RuleSetWithRules } from '@/db/rule-sets';
 import { evaluate, withoutAdminNotes, type Evaluation } from '@/lib/domain/engine';
 import { NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { parsePlan, type Plan } from '@/lib/domain/plan';
-import { loadImmutableRuleSet, loadPublishedRuleSet } from '@/lib/services/checks/rule-set-cache';
+import { jurisdictionWithPublished, loadImmutableRuleSet, loadPublishedRuleSet } from '@/lib/services/checks/rule-set-cache';
 
 /*
  * The one road from a plan to findings: parse the plan as entered, load a rule set version,
@@ -37,7 +36,7 @@ export function publishedRuleSetOf(db: DB, jurisdictionId: string): Promise<Rule
 /** Stateless evaluation for the API: parse → load the jurisdiction's published rule set → evaluate. Nothing is stored. */
 export async function evaluateForJurisdiction(db: DB, input: { jurisdiction: string; plan: unknown }): Promise<Evaluation> {
   const plan = parsePlanOrThrow(input.plan);
-  const jurisdiction = await findJurisdictionWithPublished(db, input.jurisdiction);
+  const jurisdiction = await jurisdictionWithPublished(db, input.jurisdiction);
   if (!jurisdiction) throw new NotFoundError(`No jurisdiction '${input.jurisdiction}'. GET /api/jurisdictions lists them.`);
   const ruleSet = jurisdiction.publishedRuleSetId ? await loadImmutableRuleSet(db, jurisdiction.publishedRuleSetId) : null;
   if (!ruleSet) throw new NotFoundError(`${jurisdiction.name} has no published rule set yet.`);

@@ -47,6 +47,24 @@ describe('POST /api/evaluations', () => {
     expect(dl(county.body).remedy).toMatch(/shorten/i);
   });
 
+  it('answers with the failing findings only when asked, the summary still counting every finding', async () => {
+    const full = await api('/api/evaluations', postJson({ jurisdiction: 'demo-county', plan: longExhaustFailPlan }, { token }));
+    const failing = await api('/api/evaluations', postJson({ jurisdiction: 'demo-county', plan: longExhaustFailPlan, findings: 'failing' }, { token }));
+    expect(failing.status).toBe(200);
+    const fails = full.body.findings.filter((f: { status: string }) => f.status === 'fail');
+    expect(fails.length).toBeGreaterThan(0);
+    expect(full.body.findings.length).toBeGreaterThan(fails.length);
+    expect(failing.body.findings).toEqual(fails);
+    expect(failing.body.summary).toEqual(full.body.summary);
+    // IRC 2018 M1502.4.5.1: 28 ft of straight duct plus three mitered 90° elbows (5 ft each, Table M1502.4.5.1)
+    // and a mitered 45° (2 ft 6 in) is 45 ft 6 in developed, over the 35 ft maximum.
+    expect(failing.body.findings.map((f: { ruleKey: string }) => f.ruleKey)).toContain('exhaust.developed-length');
+    const bad = await api('/api/evaluations', postJson({ jurisdiction: 'demo-county', plan: longExhaustFailPlan, findings: 'some' }, { token }));
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors[0]).toMatchObject({ path: 'findings' });
+    expect(bad.body.errors[0].message).toMatch(/"failing"/);
+  });
+
   it('applies the city’s washer-pan amendment and the UPC standpipe range', async () => {
     const noPan = { ...hallClosetPassPlan, plumbing: { ...hallClosetPassPlan.plumbing, drainPan: { present: false }, standpipeHeight: 36 } };
     const city = await api('/api/evaluations', postJson({ jurisdiction: 'demo-city', plan: noPan }, { token }));

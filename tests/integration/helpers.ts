@@ -152,11 +152,16 @@ export function testAddress(): string {
   return `2001:db8:${h.slice(0, 2).join(':')}::${h.slice(2).join(':')}`;
 }
 
-export async function api(path: string, init: RequestInit & { cookie?: string; token?: string } = {}) {
+export function api(path: string, init: RequestInit & { cookie?: string; token?: string } = {}) {
+  return apiAt(baseUrl, path, init);
+}
+
+/** `api` against another app server (the two-server test). */
+export async function apiAt(base: string, path: string, init: RequestInit & { cookie?: string; token?: string } = {}) {
   const headers = new Headers(init.headers);
   if (init.cookie) headers.set('cookie', init.cookie);
   if (init.token) headers.set('authorization', `Bearer ${init.token}`);
-  const res = await fetch(`${baseUrl}${path}`, { ...init, headers, redirect: 'manual' });
+  const res = await fetch(`${base}${path}`, { ...init, headers, redirect: 'manual' });
   const text = await res.text();
   let body: any = text;
   try {
@@ -165,6 +170,21 @@ export async function api(path: string, init: RequestInit & { cookie?: string; t
     /* not JSON */
   }
   return { status: res.status, body, headers: res.headers };
+}
+
+/** Signs out the way the sign-out page does (next-auth's signout with its CSRF token). */
+export async function signOut(cookie: string, base = baseUrl): Promise<number> {
+  const csrf = await fetch(`${base}/api/auth/csrf`, { headers: { cookie } });
+  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+  const csrfCookie = csrf.headers.getSetCookie().map((c) => c.split(';')[0]);
+  const res = await fetch(`${base}/api/auth/signout`, {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: [cookie, ...csrfCookie].join('; ') },
+    body: new URLSearchParams({ csrfToken, callbackUrl: '/sign-in', json: 'true' }),
+  });
+  await res.arrayBuffer();
+  return res.status;
 }
 
 export function postJson(body: unknown, extra: RequestInit & { cookie?: string; token?: string } = {}) {

@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { sql } from 'kysely';
 import { afterAll, describe, expect, it } from 'vitest';
-import { api, appDb, baseUrl, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, baseUrl, postJson, signIn, signOut, testAddress } from './helpers';
 
 const db = appDb();
 afterAll(async () => {
@@ -20,21 +20,6 @@ async function freshUser(prefix: string): Promise<{ email: string; id: string }>
     .returning('id')
     .executeTakeFirstOrThrow();
   return { email, id: row.id };
-}
-
-/** Signs out the way the sign-out page does (next-auth's signout with its CSRF token). */
-async function signOut(cookie: string): Promise<number> {
-  const csrf = await fetch(`${baseUrl}/api/auth/csrf`, { headers: { cookie } });
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const csrfCookie = csrf.headers.getSetCookie().map((c) => c.split(';')[0]);
-  const res = await fetch(`${baseUrl}/api/auth/signout`, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'content-type': 'application/x-www-form-urlencoded', cookie: [cookie, ...csrfCookie].join('; ') },
-    body: new URLSearchParams({ csrfToken, callbackUrl: '/sign-in', json: 'true' }),
-  });
-  await res.arrayBuffer();
-  return res.status;
 }
 
 const newProject = { name: 'After sign-out (test)', siteAddress: '1 Session Way', jurisdiction: 'demo-county' };

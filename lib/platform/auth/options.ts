@@ -10,6 +10,7 @@ import { PasswordCheckBusyError } from '@/lib/platform/auth/password';
 import { auditSignIn, checkCredentials, DeactivatedAccountError, MAX_EMAIL_LENGTH, MAX_PASSWORD_LENGTH, signInSucceeded } from '@/lib/platform/auth/sign-in';
 import { SIGN_IN_BUSY, SIGN_IN_DEACTIVATED } from '@/lib/platform/auth/sign-in-messages';
 import { SESSION_LIFETIME_SECONDS, SessionEndedError, endSession, remainingSeconds, requireLiveSession, startSession } from '@/lib/platform/auth/sessions';
+import { log } from '@/lib/platform/log';
 
 /** Expected ends of a session are not errors worth a log line: a signed-out or expired cookie came back. */
 function isEndedSession(metadata: unknown): boolean {
@@ -28,10 +29,10 @@ export const authOptions: NextAuthOptions = {
   logger: {
     error(code, metadata) {
       if (isEndedSession(metadata)) return;
-      console.error(`[next-auth][error][${code}]`, metadata);
+      log.error({ code, metadata }, 'sign-in library error');
     },
     warn(code) {
-      console.warn(`[next-auth][warn][${code}]`);
+      log.warn({ code }, 'sign-in library warning');
     },
     debug() {},
   },
@@ -83,7 +84,7 @@ export const authOptions: NextAuthOptions = {
       } catch (err) {
         if (err instanceof SessionEndedError) throw err;
         // The database could not say: that is an outage (503), not a reason to sign anyone out.
-        console.error('[auth] session lookup failed:', (err as Error)?.message ?? err);
+        log.error({ err }, 'session lookup failed');
         return { ...token, user: undefined, unavailable: true };
       }
     },

@@ -3,10 +3,10 @@ import { getServerSession } from 'next-auth';
 import { redirect } from 'next/navigation';
 import { cache } from 'react';
 import { getDb } from '@/db';
-import { findTokenHolder } from '@/db/api-tokens';
 import { ForbiddenError, ServiceUnavailableError, UnauthorizedError } from '@/lib/domain/errors';
 import { bearerToken, hashApiToken, looksLikeApiToken } from '@/lib/platform/auth/api-token';
 import { safeCallbackPath } from '@/lib/platform/auth/callback-url';
+import { tokenHolder } from '@/lib/platform/auth/token-holders';
 import { authOptions } from '@/lib/platform/auth/options';
 import { hasRole, type AppUser, type Role } from '@/lib/domain/roles';
 
@@ -42,7 +42,7 @@ function originHost(origin: string): string | null {
 
 export type Caller =
   | { via: 'session'; user: AppUser; sessionId: string }
-  | { via: 'api-token'; user: AppUser };
+  | { via: 'api-token'; user: AppUser; tokenId: string };
 
 const UNAVAILABLE = 'The database is not reachable right now; nothing was changed. Try again in a moment.';
 
@@ -63,13 +63,13 @@ export async function currentCaller(request: Request): Promise<Caller | null> {
   const token = bearerToken(request);
   if (token !== null) {
     if (!looksLikeApiToken(token)) throw new UnauthorizedError('The API token is malformed.');
-    const holder = await findTokenHolder(getDb(), hashApiToken(token));
+    const holder = await tokenHolder(getDb(), hashApiToken(token));
     if (!holder) throw new UnauthorizedError('The API token is unknown or revoked.');
     if (holder.isDeactivated) throw new UnauthorizedError('The account this API token belongs to has been deactivated.');
-    if (holder.isExpired) {
+    if (holder.expiresAt.getTime() <= Date.now()) {
       throw new UnauthorizedError(`The API token expired on ${holder.expiresAt.toISOString().slice(0, 10)}. Create a new one on the Account page.`);
     }
-    return { via: 'api-token', user: holder.user };
+    return { via: 'api-token', user: holder.user, tokenId: holder.tokenId };
   }
   const caller = await sessionCaller();
   if (!caller) return null;
@@ -84,10 +84,15 @@ export async function currentApiUser(request: Request): Promise<AppUser | null> 
 
 /** The one role check every route handler goes through. */
 export async function requireUser(request: Request, allowed?: readonly Role[]): Promise<AppUser> {
-  const user = await currentApiUser(request);
-  if (!user) throw new UnauthorizedError();
-  if (allowed && !hasRole(user, allowed)) throw new ForbiddenError();
-  return user;
+  return (await requireCaller(request, allowed)).user;
+}
+
+/** requireUser, also saying how the caller came (a token's limits count per token). */
+export async function requireCaller(request: Request, allowed?: readonly Role[]): Promise<Caller> {
+  const caller = await currentCaller(request);
+  if (!caller) throw new UnauthorizedError();
+  if (allowed && !hasRole(caller.user, allowed)) throw new ForbiddenError();
+  return caller;
 }
 
 /**

@@ -12,6 +12,7 @@ import { hashOneTimeToken, looksLikeOneTimeToken, newOneTimeToken } from '@/lib/
 import { PASSWORD_RESET_LIFETIME_SECONDS, sendPasswordResetMail } from '@/lib/services/accounts/account-mail';
 import { countPasswordResetRequest } from '@/lib/services/accounts/limits';
 import type { TokenLinkState } from '@/lib/services/accounts/email-confirmation';
+import { log } from '@/lib/platform/log';
 
 /** The one answer to every reset request, whether or not the address has an account. */
 export const RESET_REQUESTED_BODY = {
@@ -50,7 +51,7 @@ export async function requestPasswordReset(db: DB, email: string, ctx: { address
       try {
         await sendPasswordResetMail(account.user, token);
       } catch (err) {
-        console.error('[password-reset] e-mail not sent:', (err as Error).message);
+        log.error({ err }, 'password reset e-mail not sent');
       }
     },
   };

@@ -10,6 +10,7 @@ import { hashPassword } from '@/lib/platform/auth/password';
 import { newOneTimeToken } from '@/lib/platform/auth/one-time-token';
 import { CONFIRMATION_LIFETIME_SECONDS, sendWelcomeMail } from '@/lib/services/accounts/account-mail';
 import { countSignUp } from '@/lib/services/accounts/limits';
+import { log } from '@/lib/platform/log';
 
 const EMAIL_TAKEN = 'This e-mail address already has a NookPass account: sign in, or reset the password from the sign-in page.';
 const COMPANY_TAKEN = 'A company with this name is already on NookPass. If you work there, ask its owner to invite you; otherwise add what sets yours apart (a town, a trade).';
@@ -62,7 +63,7 @@ export async function signUpCompany(db: DB, input: SignUpInput, ctx: { address: 
     await sendWelcomeMail(created.user, input.company, token);
   } catch (err) {
     welcomeMailSent = false;
-    console.error('[sign-up] welcome e-mail not sent:', (err as Error).message);
+    log.error({ err }, 'welcome e-mail not sent');
   }
   return { ...created, welcomeMailSent };
 }

@@ -7,6 +7,7 @@ import type { AppUser } from '@/lib/domain/roles';
 import { sendMail } from '@/lib/platform/mail';
 import { loadInspection } from '@/lib/services/reports/inspection';
 import { publicBaseUrl } from '@/lib/services/reports/issue';
+import { log } from '@/lib/platform/log';
 
 /** An inspector records an outcome on a report; the installers who sent it are told by e-mail (the outcome stands if mail is down). */
 export async function recordInspectionOutcome(db: DB, user: AppUser, input: { reportId: string; review: ReviewInput }) {
@@ -36,7 +37,7 @@ export async function recordInspectionOutcome(db: DB, user: AppUser, input: { re
       });
       mailed++;
     } catch (err) {
-      console.error('[review] outcome e-mail not sent:', (err as Error).message);
+      log.error({ err }, 'outcome e-mail not sent');
     }
   }
   return { review, mailed };

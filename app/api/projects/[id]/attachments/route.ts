@@ -8,6 +8,7 @@ import { json, route } from '@/lib/platform/http';
 import { readMultipartUpload } from '@/lib/platform/multipart';
 import { deleteObject, putObject } from '@/lib/platform/storage';
 import { checkUpload, MAX_UPLOAD_BYTES } from '@/lib/platform/uploads';
+import { countUpload } from '@/lib/services/usage-limits';
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -22,6 +23,7 @@ export const POST = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
   const db = getDb();
   const project = await getProject(db, user, (await params).id);
+  await countUpload(user.id);
   const { file, fields } = await readMultipartUpload(request, {
     fileField: 'file',
     maxFileBytes: MAX_UPLOAD_BYTES,
