@@ -3,7 +3,8 @@
 import { useState } from 'react';
 import { useFormContext } from 'react-hook-form';
 import useSWR from 'swr';
-import { applianceKindLabels, type ApplianceModel } from '@/lib/domain/appliances/model';
+import { applianceKindLabels } from '@/lib/domain/appliances/kinds';
+import type { ApplianceModel } from '@/lib/domain/appliances/model';
 import { filledValues } from '@/lib/domain/appliances/fill';
 import type { UnitSystem } from '@/lib/domain/units';
 import { swrFetcher } from '@/lib/platform/client/fetch-json';
