@@ -256,7 +256,7 @@ export function PlanEditor({
   submit,
   sectionStatus = { source: 'none', failBySection: {} },
   live = null,
-  planOnScreen,
+  planOnScreenRef,
 }: {
   projectId: string | null;
   initialPlan: PlanInput | null;
@@ -271,7 +271,7 @@ export function PlanEditor({
   /** Where the live check reads its rules; without it the editor shows no live panel. */
   live?: LiveSource | null;
   /** Set to a reader of the plan as the form shows it now: null (with the fields' messages shown) while it is not valid. */
-  planOnScreen?: MutableRefObject<(() => Promise<PlanInput | null>) | null>;
+  planOnScreenRef?: MutableRefObject<(() => Promise<PlanInput | null>) | null>;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
@@ -286,12 +286,12 @@ export function PlanEditor({
   const [openId, setOpenId] = useState<EditorSection['id'] | null>(editorSections[0]?.id ?? null);
 
   useEffect(() => {
-    if (!planOnScreen) return;
-    planOnScreen.current = async () => ((await form.trigger()) ? formToPlan(form.getValues()) : null);
+    if (!planOnScreenRef) return;
+    planOnScreenRef.current = async () => ((await form.trigger()) ? formToPlan(form.getValues()) : null);
     return () => {
-      planOnScreen.current = null;
+      planOnScreenRef.current = null;
     };
-  }, [planOnScreen, form]);
+  }, [planOnScreenRef, form]);
 
   // A link to a section or a field (the jump list, the error summary, a shared address) opens its section.
   useEffect(() => {

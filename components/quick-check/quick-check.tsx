@@ -23,7 +23,7 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [saveMessage, setSaveMessage] = useState<string | null>(null);
   const chosen = jurisdictions.find((j) => j.slug === slug);
-  const planOnScreen = useRef<(() => Promise<PlanInput | null>) | null>(null);
+  const planOnScreenRef = useRef<(() => Promise<PlanInput | null>) | null>(null);
 
   async function evaluate(plan: PlanInput): Promise<string> {
     const res = await fetchJson<Omit<Evaluation, 'facts'>>('/api/evaluations', { method: 'POST', json: { jurisdiction: slug, plan } });
@@ -38,7 +38,7 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
     setErrors([]);
     setSaveMessage(null);
     // The project keeps the plan as the form shows it now, edits made after the last check included.
-    const plan = planOnScreen.current ? await planOnScreen.current() : result.plan;
+    const plan = planOnScreenRef.current ? await planOnScreenRef.current() : result.plan;
     if (!plan) {
       setSaveMessage('Not saved: fix the plan fields marked above first.');
       return;
@@ -68,7 +68,7 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
         </select>
       </div>
 
-      <PlanEditor projectId={null} initialPlan={null} baseRevision={null} params={chosen?.parameters ?? jurisdictions[0].parameters} submit={{ label: 'Check plan', run: evaluate }} planOnScreen={planOnScreen} />
+      <PlanEditor projectId={null} initialPlan={null} baseRevision={null} params={chosen?.parameters ?? jurisdictions[0].parameters} submit={{ label: 'Check plan', run: evaluate }} planOnScreenRef={planOnScreenRef} />
 
       {result && (
         <section className="card p-5" aria-labelledby="qc-findings" data-testid="quick-check-result">
