@@ -10,7 +10,7 @@ import { StatusMark } from '@/components/ui/status-badge';
 import { formToPlan, type FormValues } from '@/components/plan-editor/form-values';
 import { REVEAL_FIELD_EVENT, type LiveCheckState } from '@/components/live-check/live-check-context';
 import { DoorLeavesProposal, SizesWorkedOut } from '@/components/live-check/sizes-worked-out';
-import { focusPathsFor, formatLength, labelForPath, lengthFormText, loadRuleSet, runExtras, runLive, type LiveExtras, type LiveResult } from '@/components/live-check/live-engine';
+import { areaFormText, focusPathsFor, formatArea, formatLength, labelForPath, lengthFormText, loadRuleSet, runExtras, runLive, type LiveExtras, type LiveResult } from '@/components/live-check/live-engine';
 
 type Outcome = LiveResult | { errors: Array<{ path: string; message: string }> };
 
@@ -63,9 +63,26 @@ const LiveDrawings = memo(function LiveDrawings({ extras }: { extras: LiveExtras
 });
 const MemoSizes = memo(SizesWorkedOut);
 
+const yesNo = (v: boolean) => (v ? 'yes' : 'no');
+
+/** What applying a fix does, in the plan's units: the button's words and the note kept for undo. */
+function describeFix(fix: PlanFix, units: UnitSystem): { action: string; change: string } {
+  const field = fix.label.toLowerCase();
+  switch (fix.kind) {
+    case 'length':
+      return { action: `Set ${field} to ${formatLength(fix.toIn, units)}`, change: `${fix.label}: ${formatLength(fix.fromIn, units)} → ${formatLength(fix.toIn, units)}` };
+    case 'area':
+      return { action: `Set ${field} to ${formatArea(fix.toSqIn, units)}`, change: `${fix.label}: ${formatArea(fix.fromSqIn, units)} → ${formatArea(fix.toSqIn, units)}` };
+    case 'boolean':
+      return { action: `Set ${field} to ${yesNo(fix.to)}`, change: `${fix.label}: ${yesNo(fix.from)} → ${yesNo(fix.to)}` };
+    case 'remove-item':
+      return { action: `Remove ${field}`, change: `${labelForPath(fix.path)}: ${field} taken out` };
+  }
+}
+
 const ORDER: Record<Finding['status'], number> = { fail: 0, caution: 1, 'needs-info': 2, pass: 3, 'not-applicable': 4 };
 
-function FindingItem({ finding, ruleSet, fix, units, onApply }: { finding: Finding; ruleSet: RuleSetForEvaluation; fix?: PlanFix; units: UnitSystem; onApply: (fix: PlanFix) => void }) {
+function FindingItem({ finding, ruleSet, fixes = [], units, onApply }: { finding: Finding; ruleSet: RuleSetForEvaluation; fixes?: PlanFix[]; units: UnitSystem; onApply: (fix: PlanFix) => void }) {
   return (
     <li className="rounded-md border border-rule bg-white p-3" data-testid="live-finding" data-rule={finding.ruleKey} data-status={finding.status}>
       <button type="button" className="flex w-full items-start gap-2 text-left" onClick={() => jumpTo(focusPathsFor(ruleSet, finding))}>
@@ -76,12 +93,14 @@ function FindingItem({ finding, ruleSet, fix, units, onApply }: { finding: Findi
         </span>
       </button>
       {finding.remedy && <p className="mt-2 pl-6 text-sm"><span className="font-semibold">Fix: </span>{finding.remedy}</p>}
-      {fix && (
-        <div className="mt-2 pl-6">
-          <button type="button" className="btn-secondary min-h-[44px] px-3 py-1 text-sm" onClick={() => onApply(fix)} data-testid="apply-fix">
-            Set {fix.label.toLowerCase()} to {formatLength(fix.toIn, units)}
-            {fix.clears.length > 1 ? ` (clears ${fix.clears.length} findings)` : ''}
-          </button>
+      {fixes.length > 0 && (
+        <div className="mt-2 flex flex-wrap gap-2 pl-6">
+          {fixes.map((fix) => (
+            <button key={`${fix.kind}:${fix.path}`} type="button" className="btn-secondary min-h-[44px] px-3 py-1 text-sm" onClick={() => onApply(fix)} data-testid="apply-fix" data-fix-kind={fix.kind}>
+              {describeFix(fix, units).action}
+              {fix.clears.length > 1 ? ` (clears ${fix.clears.length} findings)` : ''}
+            </button>
+          ))}
         </div>
       )}
     </li>
@@ -166,7 +185,12 @@ function LiveCheckBody({ slug, version, onState }: { slug: string; version: numb
   }
 
   function applyFix(fix: PlanFix) {
-    applyChanges(`${fix.label}: ${formatLength(fix.fromIn, units)} → ${formatLength(fix.toIn, units)}`, [{ path: fix.path, after: lengthFormText(fix.toIn, units) }]);
+    const after =
+      fix.kind === 'length' ? lengthFormText(fix.toIn, units)
+      : fix.kind === 'area' ? areaFormText(fix.toSqIn, units)
+      : fix.kind === 'boolean' ? yesNo(fix.to)
+      : ((form.getValues(fix.path) as unknown[]) ?? []).filter((_, i) => i !== fix.index);
+    applyChanges(describeFix(fix, units).change, [{ path: fix.path, after }]);
     const id = fieldId(fix.path);
     requestAnimationFrame(() => document.getElementById(id)?.scrollIntoView({ block: 'center', behavior: 'smooth' }));
   }
@@ -191,8 +215,14 @@ function LiveCheckBody({ slug, version, onState }: { slug: string; version: numb
   }
 
   const { evaluation, waiting } = outcome;
-  const fixFor = new Map<string, PlanFix>();
-  for (const fix of extras?.fixes ?? []) for (const key of fix.clears) if (!fixFor.has(key)) fixFor.set(key, fix);
+  // Per finding, the first fix of each kind (shorten a piece, or take an elbow out), so the choices stay few.
+  const fixFor = new Map<string, PlanFix[]>();
+  for (const fix of extras?.fixes ?? []) {
+    for (const key of fix.clears) {
+      const list = fixFor.get(key) ?? [];
+      if (!list.some((f) => f.kind === fix.kind)) fixFor.set(key, [...list, fix]);
+    }
+  }
   const sorted = [...evaluation.findings].sort((a, b) => ORDER[a.status] - ORDER[b.status]);
   const failing = sorted.filter((f) => f.status === 'fail' || f.status === 'caution');
   const needsInfo = sorted.filter((f) => f.status === 'needs-info');
@@ -230,7 +260,7 @@ function LiveCheckBody({ slug, version, onState }: { slug: string; version: numb
 
       {failing.length > 0 ? (
         <ol className="mt-3 space-y-2" aria-label="Failing findings">
-          {failing.map((f) => <FindingItem key={f.ruleKey} finding={f} ruleSet={ruleSet} fix={fixFor.get(f.ruleKey)} units={units} onApply={applyFix} />)}
+          {failing.map((f) => <FindingItem key={f.ruleKey} finding={f} ruleSet={ruleSet} fixes={fixFor.get(f.ruleKey)} units={units} onApply={applyFix} />)}
         </ol>
       ) : (
         <p className="mt-3 text-sm text-status-pass">Nothing fails or needs caution in what the plan gives so far.</p>

@@ -9,8 +9,8 @@ import { conditionFacts, type StoredCondition } from '@/lib/domain/rule-format';
 import { sizeEnclosure, type EnclosureSizing } from '@/lib/domain/sizing';
 import type { SectionLiveStatus } from '@/components/live-check/live-check-context';
 
-export { proposeDoorLeaves, currentInside, lengthFormText, MAX_PROPOSED_LEAVES } from '@/lib/domain/sizing';
-export { formatLength, parseLength } from '@/lib/domain/units';
+export { proposeDoorLeaves, currentInside, areaFormText, lengthFormText, MAX_PROPOSED_LEAVES } from '@/lib/domain/sizing';
+export { formatArea, formatLength, parseLength } from '@/lib/domain/units';
 
 const ruleSets = new Map<string, Promise<RuleSetForEvaluation>>();
 

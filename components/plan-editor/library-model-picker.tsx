@@ -3,8 +3,9 @@
 import { useState } from 'react';
 import { useFormContext } from 'react-hook-form';
 import useSWR from 'swr';
-import { applianceKindLabels, type ApplianceModel } from '@/lib/domain/appliances/model';
-import { filledValues } from '@/lib/domain/appliances/fill';
+import { applianceKindLabels } from '@/lib/domain/appliances/kinds';
+import type { ApplianceModel } from '@/lib/domain/appliances/model';
+import { filledValues, type ReceptacleSlot } from '@/lib/domain/appliances/fill';
 import type { UnitSystem } from '@/lib/domain/units';
 import { swrFetcher } from '@/lib/platform/client/fetch-json';
 
@@ -21,7 +22,8 @@ export function LibraryModelPicker({ slot }: { slot: 'washer' | 'dryer' }) {
     const model = models.find((m) => m.id === chosen);
     if (!model) return;
     const units = (getValues('units') as UnitSystem) || 'imperial';
-    for (const { path, value } of filledValues(model, slot, units)) setValue(path, value, { shouldDirty: true, shouldValidate: false });
+    const receptacles = (getValues('electrical.receptacles') as ReceptacleSlot[] | undefined) ?? [];
+    for (const { path, value } of filledValues(model, slot, units, receptacles)) setValue(path, value, { shouldDirty: true, shouldValidate: false });
     setDone(`Filled from ${model.label}. Check the figures against the maker's installation instructions.`);
   }
 

@@ -1,7 +1,7 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useContext, useEffect, useMemo, useState, type ReactNode } from 'react';
+import { useContext, useEffect, useMemo, useState, type MutableRefObject, type ReactNode } from 'react';
 import { FormProvider, useFieldArray, useForm, useFormContext, useWatch, type FieldErrors, type Resolver } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import type { RuleSetParameters } from '@/lib/domain/params';
@@ -256,6 +256,7 @@ export function PlanEditor({
   submit,
   sectionStatus = { source: 'none', failBySection: {} },
   live = null,
+  planOnScreenRef,
 }: {
   projectId: string | null;
   initialPlan: PlanInput | null;
@@ -269,6 +270,8 @@ export function PlanEditor({
   sectionStatus?: SectionStatus;
   /** Where the live check reads its rules; without it the editor shows no live panel. */
   live?: LiveSource | null;
+  /** Set to a reader of the plan as the form shows it now: null (with the fields' messages shown) while it is not valid. */
+  planOnScreenRef?: MutableRefObject<(() => Promise<PlanInput | null>) | null>;
 }) {
   const router = useRouter();
   const defaultValues = useMemo(() => planToForm(initialPlan), [initialPlan]);
@@ -281,6 +284,14 @@ export function PlanEditor({
   const failWord = submit ? 'Not checked' : 'Not saved';
   // On a phone one section is open at a time; the first until the installer picks another.
   const [openId, setOpenId] = useState<EditorSection['id'] | null>(editorSections[0]?.id ?? null);
+
+  useEffect(() => {
+    if (!planOnScreenRef) return;
+    planOnScreenRef.current = async () => ((await form.trigger()) ? formToPlan(form.getValues()) : null);
+    return () => {
+      planOnScreenRef.current = null;
+    };
+  }, [planOnScreenRef, form]);
 
   // A link to a section or a field (the jump list, the error summary, a shared address) opens its section.
   useEffect(() => {

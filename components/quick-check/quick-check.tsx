@@ -1,7 +1,7 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { FindingsList } from '@/components/checks/findings-list';
 import { SummaryCounts } from '@/components/checks/summary-counts';
 import { PlanEditor } from '@/components/plan-editor/plan-editor';
@@ -23,6 +23,7 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [saveMessage, setSaveMessage] = useState<string | null>(null);
   const chosen = jurisdictions.find((j) => j.slug === slug);
+  const planOnScreenRef = useRef<(() => Promise<PlanInput | null>) | null>(null);
 
   async function evaluate(plan: PlanInput): Promise<string> {
     const res = await fetchJson<Omit<Evaluation, 'facts'>>('/api/evaluations', { method: 'POST', json: { jurisdiction: slug, plan } });
@@ -36,10 +37,16 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
     if (!result) return;
     setErrors([]);
     setSaveMessage(null);
+    // The project keeps the plan as the form shows it now, edits made after the last check included.
+    const plan = planOnScreenRef.current ? await planOnScreenRef.current() : result.plan;
+    if (!plan) {
+      setSaveMessage('Not saved: fix the plan fields marked above first.');
+      return;
+    }
     try {
       const created = await fetchJson<{ id: string }>('/api/quick-checks', {
         method: 'POST',
-        json: { ...project, jurisdiction: result.jurisdiction, plan: result.plan },
+        json: { ...project, jurisdiction: result.jurisdiction, plan },
       });
       router.push(`/projects/${created.id}`);
     } catch (err) {
@@ -61,7 +68,7 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
         </select>
       </div>
 
-      <PlanEditor projectId={null} initialPlan={null} baseRevision={null} params={chosen?.parameters ?? jurisdictions[0].parameters} submit={{ label: 'Check plan', run: evaluate }} />
+      <PlanEditor projectId={null} initialPlan={null} baseRevision={null} params={chosen?.parameters ?? jurisdictions[0].parameters} submit={{ label: 'Check plan', run: evaluate }} planOnScreenRef={planOnScreenRef} />
 
       {result && (
         <section className="card p-5" aria-labelledby="qc-findings" data-testid="quick-check-result">
@@ -75,7 +82,7 @@ export function QuickCheck({ jurisdictions }: { jurisdictions: Option[] }) {
       {result && (
         <form onSubmit={save} noValidate className="card p-5" aria-labelledby="qc-save">
           <h2 id="qc-save" className="text-lg font-bold">Save as a project</h2>
-          <p className="mt-1 text-sm text-ink-soft">Keeps the plan as last checked as the new project’s first revision.</p>
+          <p className="mt-1 text-sm text-ink-soft">Keeps the plan as it is above, edits since the last check included, as the new project’s first revision.</p>
           <div className="mt-3 grid gap-4 sm:grid-cols-2">
             {(['name', 'siteAddress'] as const).map((key) => (
               <div key={key}>

@@ -115,3 +115,28 @@ for (const viewport of [{ name: 'desktop', width: 1280, height: 900 }, { name: '
     expect(seen).toEqual(shown);
   });
 }
+
+test('a too-long exhaust route offers to take an elbow out, and the change can be undone', async ({ page }) => {
+  test.setTimeout(120_000);
+  await signInAs(page, 'installer@nookpass.demo');
+  const id = await projectWithPlan(page);
+  await page.goto(`/projects/${id}/plan`);
+  await expect(live(page)).toHaveAttribute('data-live-state', 'ready', { timeout: 30_000 });
+
+  // IRC 2018 M1502.4.5.1: 35 ft developed length; Table M1502.4.5.1: mitered 90° elbow 5 ft, 6-in smooth 90° 1 ft 9 in.
+  // 2 ft + 25 ft + 1 ft 6 in straight + 6 ft 9 in of elbows = 35 ft 3 in.
+  await page.locator('#f-exhaust-run-2-straight').fill('25 ft');
+  const finding = liveFinding(page, 'exhaust.developed-length');
+  await expect(finding).toHaveAttribute('data-status', 'fail');
+  const remove = finding.locator('[data-testid="apply-fix"][data-fix-kind="remove-item"]');
+  await expect(remove).toHaveText('Remove piece 2 (90° elbow)');
+  await remove.click();
+  await expect(page.getByTestId('route-item')).toHaveCount(4);
+  await expect(finding).toHaveAttribute('data-status', 'pass');
+  await expect(live(page).getByTestId('applied-change')).toContainText('piece 2 (90° elbow) taken out');
+
+  await live(page).getByRole('button', { name: 'Undo' }).click();
+  await expect(page.getByTestId('route-item')).toHaveCount(5);
+  await expect(page.locator('#f-exhaust-run-2-straight')).toHaveValue('25 ft');
+  await expect(finding).toHaveAttribute('data-status', 'fail');
+});

@@ -86,6 +86,24 @@ describe('filling a plan from a model', () => {
     expect(metric['dryer.closetVent.top']).toBe('309.7'); // 48 sq in × 6.4516 cm² (NIST SP 811, exact)
   });
 
+  it('writes the model’s rating into the receptacles that serve its slot, and only those', () => {
+    // 240 V 30 A: a 14-30 dryer receptacle's rating (NEMA WD 6); 120 V 20 A: the laundry circuit (NEC 2020 210.11(C)(2)).
+    const dryer = { ...model, volts: 240, amps: 30 };
+    const receptacles = [{ serves: 'washer' }, { serves: 'dryer' }, { serves: 'both' }, null];
+    const filled = Object.fromEntries(filledValues(dryer, 'dryer', 'imperial', receptacles).map((v) => [v.path, v.value]));
+    expect(filled).toMatchObject({ 'electrical.receptacles.1.volts': '240', 'electrical.receptacles.1.amps': '30' });
+    expect(Object.keys(filled).filter((p) => p.startsWith('electrical.'))).toEqual(['electrical.receptacles.1.volts', 'electrical.receptacles.1.amps']);
+
+    const washer = { ...model, kind: 'washer' as const, volts: 120, amps: 20 };
+    const forWasher = filledValues(washer, 'washer', 'metric', receptacles).filter((v) => v.path.startsWith('electrical.'));
+    expect(forWasher).toEqual([{ path: 'electrical.receptacles.0.volts', value: '120' }, { path: 'electrical.receptacles.0.amps', value: '20' }]);
+
+    // A combination unit also rates the receptacle that serves both; a model without a rating leaves receptacles alone.
+    const combo = filledValues({ ...washer, kind: 'washer-dryer' as const }, 'washer', 'imperial', receptacles).map((v) => v.path);
+    expect(combo).toContain('electrical.receptacles.2.volts');
+    expect(filledValues({ ...dryer, volts: null, amps: null }, 'dryer', 'imperial', receptacles).some((v) => v.path.startsWith('electrical.'))).toBe(false);
+  });
+
   it('fills a washer slot without a dryer’s figures', () => {
     const paths = filledValues(model, 'washer', 'imperial').map((v) => v.path);
     expect(paths).toContain('washer.width');

@@ -21,12 +21,26 @@ function areaText(sqIn: number | null, units: UnitSystem): string {
   return units === 'metric' ? trim(sqInToCm2(sqIn), 1) : trim(sqIn, 2);
 }
 
+/** A receptacle as the editor holds it: what it serves decides whether a model's rating goes there. */
+export interface ReceptacleSlot {
+  serves?: unknown;
+}
+
 /**
  * The editor values a library model fills into the washer or dryer slot of a plan, in the plan's units.
  * Figures the model lacks are cleared, so nothing of a previously picked model lingers; the installer can
  * still edit every value. Fields the plan does not have (yet) are skipped.
+ *
+ * The model's electrical rating goes to the receptacles that serve this slot (a combination unit's also to
+ * those serving both). A receptacle is there whatever model is picked, so a model without a rating leaves its
+ * volts and amps as they are.
  */
-export function filledValues(model: Pick<ApplianceModel, keyof ApplianceModel>, slot: 'washer' | 'dryer', units: UnitSystem): FilledValue[] {
+export function filledValues(
+  model: Pick<ApplianceModel, keyof ApplianceModel>,
+  slot: 'washer' | 'dryer',
+  units: UnitSystem,
+  receptacles: ReadonlyArray<ReceptacleSlot | null | undefined> = [],
+): FilledValue[] {
   const L = (v: number | null) => lengthText(v, units);
   const values: FilledValue[] = [
     { path: `${slot}.model.id`, value: model.id },
@@ -52,5 +66,11 @@ export function filledValues(model: Pick<ApplianceModel, keyof ApplianceModel>, 
       { path: 'dryer.closetVent.bottom', value: areaText(model.closetVentBottomSqIn, units) },
     );
   }
+  receptacles.forEach((r, i) => {
+    const serves = r?.serves;
+    if (serves !== slot && !(serves === 'both' && model.kind === 'washer-dryer')) return;
+    if (model.volts !== null) values.push({ path: `electrical.receptacles.${i}.volts`, value: trim(model.volts, 2) });
+    if (model.amps !== null) values.push({ path: `electrical.receptacles.${i}.amps`, value: trim(model.amps, 2) });
+  });
   return values.filter((v) => v.path.startsWith('_has.') || entryAt(v.path) !== undefined);
 }

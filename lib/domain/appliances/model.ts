@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { parseArea, parseLength } from '@/lib/domain/units';
+import { applianceKindLabels, applianceKinds, dryerTypes, fuels, type ApplianceKind } from '@/lib/domain/appliances/kinds';
 
 /*
  * A company's appliance model, as its installers keep it in the library. One list of fields describes it:
@@ -7,16 +8,7 @@ import { parseArea, parseLength } from '@/lib/domain/units';
  * Sizes are canonical inches and areas square inches; input also takes text with units ("686 mm", "27 in").
  */
 
-export const applianceKinds = ['washer', 'dryer', 'washer-dryer'] as const;
-export type ApplianceKind = (typeof applianceKinds)[number];
-export const applianceKindLabels: Record<ApplianceKind, string> = {
-  washer: 'washer',
-  dryer: 'dryer',
-  'washer-dryer': 'washer-dryer combination',
-};
-export const fuels = ['electric', 'gas'] as const;
-/** The same values as a plan's `dryer.type`. */
-export const dryerTypes = ['vented', 'condensing', 'heat-pump'] as const;
+export { applianceKindLabels, applianceKinds, dryerTypes, fuels, type ApplianceKind };
 
 /** Most models a company keeps, and most rows one CSV file brings in (common practice, no published source). */
 export const MAX_APPLIANCE_MODELS = 2000;

@@ -1,4 +1,4 @@
-import { inchesToMm, mmToInches, type UnitSystem } from '@/lib/domain/units';
+import { cm2ToSqIn, inchesToMm, mmToInches, sqInToCm2, type UnitSystem } from '@/lib/domain/units';
 
 // Below a millionth of an inch, float noise from unit conversion, not a real shortfall.
 const NOISE = 1e-6;
@@ -19,4 +19,21 @@ export function roundDownToMeasure(inches: number, units: UnitSystem): number {
 export function lengthFormText(inches: number, units: UnitSystem): string {
   if (units === 'metric') return String(Math.round(inchesToMm(inches)));
   return String(Math.round(inches * 16) / 16);
+}
+
+/** The next area up the installer can cut or buy: a whole square inch, or a whole square centimetre on a metric plan. */
+export function roundUpAreaToMeasure(sqIn: number, units: UnitSystem): number {
+  if (units === 'metric') return cm2ToSqIn(Math.ceil(sqInToCm2(sqIn) - NOISE));
+  return Math.ceil(sqIn - NOISE);
+}
+
+export function roundDownAreaToMeasure(sqIn: number, units: UnitSystem): number {
+  if (units === 'metric') return cm2ToSqIn(Math.floor(sqInToCm2(sqIn) + NOISE));
+  return Math.floor(sqIn + NOISE);
+}
+
+/** The form's text for a canonical area in the plan's units: square inches to 0.01, or whole square centimetres. */
+export function areaFormText(sqIn: number, units: UnitSystem): string {
+  if (units === 'metric') return String(Math.round(sqInToCm2(sqIn)));
+  return String(Math.round(sqIn * 100) / 100);
 }
