@@ -2,7 +2,7 @@
 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { projectInputSchema, type ProjectInput } from '@/lib/domain/projects/schema';
@@ -21,6 +21,10 @@ export function ProjectForm({
 }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
+  // After a successful save the page is still changing; the button stays busy so a second press cannot
+  // create the project twice. The ref also catches a press landing before React re-renders.
+  const [leaving, setLeaving] = useState(false);
+  const inFlight = useRef(false);
   const {
     register,
     handleSubmit,
@@ -34,20 +38,25 @@ export function ProjectForm({
   });
 
   async function onSubmit(values: ProjectInput) {
+    if (inFlight.current) return;
+    inFlight.current = true;
     setFormError(null);
     try {
       const saved = await fetchJson<{ id: string }>(project ? `/api/projects/${project.id}` : '/api/projects', {
         method: project ? 'PATCH' : 'POST',
         json: values,
       });
+      setLeaving(true);
       router.push(`/projects/${saved.id}`);
       router.refresh();
     } catch (err) {
+      inFlight.current = false;
       if (err instanceof ApiError && err.errors.length) {
         for (const e of err.errors) setError(e.path as keyof ProjectInput, { message: e.message });
       } else setFormError((err as Error).message);
     }
   }
+  const busy = isSubmitting || leaving;
 
   async function toggleArchive() {
     if (!project) return;
@@ -95,7 +104,9 @@ export function ProjectForm({
       {field('notes', 'Notes (optional)', <textarea {...register('notes')} {...aria('notes')} rows={3} className="field-input" />)}
       {formError && <p role="alert" className="rounded-md bg-status-fail/10 px-3 py-2 text-sm text-status-fail">{formError}</p>}
       <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>{project ? 'Save project' : 'Create project'}</button>
+        <button type="submit" className="btn-primary" disabled={busy} aria-busy={busy} data-testid="project-submit">
+          {busy ? (project ? 'Saving…' : 'Creating…') : project ? 'Save project' : 'Create project'}
+        </button>
         {project && (
           <button type="button" className="btn-secondary" onClick={toggleArchive}>
             {project.archived ? 'Restore project' : 'Archive project'}
