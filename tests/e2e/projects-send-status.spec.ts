@@ -111,13 +111,30 @@ test('the send form asks before sending failing findings and says when the addre
   expect(axe.violations.map((v) => v.id)).toEqual([]);
 });
 
-test('a jurisdiction nobody inspects in NookPass says so before the send', async ({ page }) => {
-  test.setTimeout(120_000);
+test('a jurisdiction nobody inspects in NookPass, or without an inspector address, says so before the send', async ({ page, browser }) => {
+  test.setTimeout(150_000);
   await signInAs(page, 'installer@nookpass.demo');
   const { projectId, check } = await newProjectWithCheck(page, `City send ${tag()} (e2e)`, 'demo-city', hallClosetPassPlan);
   await page.goto(`/projects/${projectId}/checks/${check.id}`);
   await expect(page.getByTestId('no-inspector-account')).toContainText('Demo City has no inspector working in NookPass yet');
   await expect(page.getByLabel(/Inspector.s e-mail/)).toHaveAttribute('aria-describedby', /send-no-inspector/);
+
+  // Without an address on file: said before anything is typed, and the button does not promise an inspector.
+  const actx = await browser.newContext();
+  const admin = await actx.newPage();
+  await signInAs(admin, 'admin@nookpass.demo');
+  const before = (await (await admin.request.get('/api/jurisdictions/demo-city')).json()).inspectorEmail as string | null;
+  try {
+    expect((await admin.request.patch('/api/jurisdictions/demo-city', { data: { inspectorEmail: '' } })).status()).toBe(200);
+    await page.reload();
+    await expect(page.getByTestId('no-inspector-address')).toContainText('Demo City has no inspector address on file');
+    await expect(page.getByTestId('no-inspector-address')).toContainText('will not reach an inspector’s queue');
+    await expect(page.getByLabel(/Inspector.s e-mail/)).toHaveValue('');
+    await expect(page.getByRole('button', { name: 'Send by e-mail' })).toBeVisible();
+  } finally {
+    expect((await admin.request.patch('/api/jurisdictions/demo-city', { data: { inspectorEmail: before ?? '' } })).status()).toBe(200);
+    await actx.close();
+  }
 });
 
 test('Create project stays busy until the new project opens, and one press makes one project', async ({ page }) => {
