@@ -25,6 +25,7 @@ export function ProjectForm({
   // create the project twice. The ref also catches a press landing before React re-renders.
   const [leaving, setLeaving] = useState(false);
   const inFlight = useRef(false);
+  const leavingRef = useRef(false);
   const {
     register,
     handleSubmit,
@@ -38,19 +39,17 @@ export function ProjectForm({
   });
 
   async function onSubmit(values: ProjectInput) {
-    if (inFlight.current) return;
-    inFlight.current = true;
     setFormError(null);
     try {
       const saved = await fetchJson<{ id: string }>(project ? `/api/projects/${project.id}` : '/api/projects', {
         method: project ? 'PATCH' : 'POST',
         json: values,
       });
+      leavingRef.current = true;
       setLeaving(true);
       router.push(`/projects/${saved.id}`);
       router.refresh();
     } catch (err) {
-      inFlight.current = false;
       if (err instanceof ApiError && err.errors.length) {
         for (const e of err.errors) setError(e.path as keyof ProjectInput, { message: e.message });
       } else setFormError((err as Error).message);
@@ -84,7 +83,19 @@ export function ProjectForm({
   });
 
   return (
-    <form onSubmit={handleSubmit(onSubmit)} className="card max-w-2xl space-y-5 p-6" noValidate>
+    <form
+      onSubmit={(event) => {
+        if (inFlight.current) {
+          event.preventDefault();
+          return;
+        }
+        inFlight.current = true;
+        // Released when the save fails or the form is invalid; kept while the new page opens.
+        void handleSubmit(onSubmit)(event).finally(() => {
+          if (!leavingRef.current) inFlight.current = false;
+        });
+      }}
+      className="card max-w-2xl space-y-5 p-6" noValidate>
       {field('name', 'Project name', <input {...register('name')} {...aria('name')} className="field-input" />)}
       {field('siteAddress', 'Site address', <input {...register('siteAddress')} {...aria('siteAddress')} className="field-input" autoComplete="street-address" />)}
       {field(
