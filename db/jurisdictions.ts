@@ -139,3 +139,16 @@ export async function listJurisdictionOverview(db: DB): Promise<JurisdictionOver
     };
   });
 }
+
+/** Has the jurisdiction an active inspector account in NookPass (someone who reads its queue)? */
+export async function jurisdictionHasInspectors(db: DB, jurisdictionId: string): Promise<boolean> {
+  const row = await db
+    .selectFrom('users')
+    .select('id')
+    .where('role', '=', 'inspector')
+    .where('jurisdiction_id', '=', jurisdictionId)
+    .where('deactivated_at', 'is', null)
+    .limit(1)
+    .executeTakeFirst();
+  return !!row;
+}

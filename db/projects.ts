@@ -2,7 +2,9 @@ import { sql } from 'kysely';
 import { isUuid } from '@/lib/domain/ids';
 import type { DB } from '@/db/index';
 import { writeAudit } from '@/db/audit';
-import type { CheckOutcome } from '@/db/types';
+import { receivedByInspector } from '@/db/reports';
+import type { CheckOutcome, ReviewOutcome } from '@/db/types';
+import type { EvaluationSummary } from '@/lib/domain/engine';
 import type { ProjectInput, ProjectListQuery, ProjectUpdateInput } from '@/lib/domain/projects/schema';
 import type { AppUser } from '@/lib/domain/roles';
 import { ForbiddenError, NotFoundError, ValidationError } from '@/lib/domain/errors';
@@ -20,8 +22,21 @@ export type Project = {
   archivedAt: Date | null;
   createdAt: Date;
   updatedAt: Date;
-  latestCheck: { id: string; outcome: CheckOutcome; summary: unknown; createdAt: Date } | null;
+  latestCheck: { id: string; outcome: CheckOutcome; summary: EvaluationSummary; createdAt: Date } | null;
   latestRevision: number | null;
+  inspection: ProjectInspection;
+};
+
+/**
+ * Where the project stands with the inspector: the latest recorded outcome of the report last sent to the
+ * jurisdiction's inspector address, `awaiting-inspector` while that report has none, `not-sent` when no report
+ * has reached the inspector (downloads and copies to other addresses do not).
+ */
+export type ProjectInspection = {
+  status: 'not-sent' | 'awaiting-inspector' | ReviewOutcome;
+  reportCode: string | null;
+  sentAt: Date | null;
+  reviewedAt: Date | null;
 };
 
 function baseQuery(db: DB) {
@@ -45,11 +60,39 @@ function baseQuery(db: DB) {
         eb.selectFrom('plan_revisions as r').select((e) => e.fn.max('r.number').as('latest_revision')).whereRef('r.project_id', '=', 'p.id').as('lr'),
       (join) => join.onTrue(),
     )
+    // The report last sent to the inspector and its latest outcome, in the same query (no per-row lookups).
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom('report_sends as s')
+          .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
+          .innerJoin('reports as rr', 'rr.id', 's.report_id')
+          .select(['s.report_id as sent_report_id', 'rr.code as sent_report_code', 's.created_at as sent_at'])
+          .whereRef('s.project_id', '=', 'p.id')
+          .where('s.status', '=', 'sent')
+          .where(receivedByInspector('s', 'sj'))
+          .orderBy('s.created_at', 'desc')
+          .limit(1)
+          .as('ls'),
+      (join) => join.onTrue(),
+    )
+    .leftJoinLateral(
+      (eb) =>
+        eb
+          .selectFrom('inspection_reviews as v')
+          .select(['v.outcome as review_outcome', 'v.created_at as reviewed_at'])
+          .whereRef('v.report_id', '=', 'ls.sent_report_id')
+          .orderBy('v.created_at', 'desc')
+          .limit(1)
+          .as('lv'),
+      (join) => join.onTrue(),
+    )
     .select([
       'p.id', 'p.organization_id', 'o.name as organization_name', 'p.name', 'p.site_address', 'p.permit_number', 'p.notes',
       'p.is_demo', 'p.archived_at', 'p.created_at', 'p.updated_at',
       'j.id as jurisdiction_id', 'j.slug as jurisdiction_slug', 'j.name as jurisdiction_name',
       'lc.check_id', 'lc.outcome', 'lc.summary', 'lc.checked_at', 'lr.latest_revision',
+      'ls.sent_report_code', 'ls.sent_at', 'lv.review_outcome', 'lv.reviewed_at',
     ]);
 }
 
@@ -69,9 +112,24 @@ function toProject(r: Row): Project {
     archivedAt: r.archived_at,
     createdAt: r.created_at,
     updatedAt: r.updated_at,
-    latestCheck: r.check_id ? { id: r.check_id, outcome: r.outcome as CheckOutcome, summary: r.summary, createdAt: r.checked_at as Date } : null,
+    latestCheck: r.check_id
+      ? { id: r.check_id, outcome: r.outcome as CheckOutcome, summary: summaryCounts(r.summary), createdAt: r.checked_at as Date }
+      : null,
     latestRevision: r.latest_revision == null ? null : Number(r.latest_revision),
+    inspection: {
+      status: r.review_outcome ?? (r.sent_report_code ? 'awaiting-inspector' : 'not-sent'),
+      reportCode: r.sent_report_code ?? null,
+      sentAt: r.sent_at ?? null,
+      reviewedAt: r.reviewed_at ?? null,
+    },
   };
+}
+
+// The summary's shape has never changed since checks were first stored; a missing count reads as none.
+function summaryCounts(stored: unknown): EvaluationSummary {
+  const s = (stored ?? {}) as Partial<Record<keyof EvaluationSummary, unknown>>;
+  const n = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : 0);
+  return { pass: n(s.pass), fail: n(s.fail), caution: n(s.caution), needsInfo: n(s.needsInfo), notApplicable: n(s.notApplicable) };
 }
 
 /** Who may see a project: its own company's installers and admins. Others get a 404, not a hint that it exists. */

@@ -2,7 +2,7 @@
 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { projectInputSchema, type ProjectInput } from '@/lib/domain/projects/schema';
@@ -21,6 +21,11 @@ export function ProjectForm({
 }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
+  // After a successful save the page is still changing; the button stays busy so a second press cannot
+  // create the project twice. The ref also catches a press landing before React re-renders.
+  const [leaving, setLeaving] = useState(false);
+  const inFlight = useRef(false);
+  const leavingRef = useRef(false);
   const {
     register,
     handleSubmit,
@@ -40,6 +45,8 @@ export function ProjectForm({
         method: project ? 'PATCH' : 'POST',
         json: values,
       });
+      leavingRef.current = true;
+      setLeaving(true);
       router.push(`/projects/${saved.id}`);
       router.refresh();
     } catch (err) {
@@ -48,6 +55,7 @@ export function ProjectForm({
       } else setFormError((err as Error).message);
     }
   }
+  const busy = isSubmitting || leaving;
 
   async function toggleArchive() {
     if (!project) return;
@@ -75,7 +83,19 @@ export function ProjectForm({
   });
 
   return (
-    <form onSubmit={handleSubmit(onSubmit)} className="card max-w-2xl space-y-5 p-6" noValidate>
+    <form
+      onSubmit={(event) => {
+        if (inFlight.current) {
+          event.preventDefault();
+          return;
+        }
+        inFlight.current = true;
+        // Released when the save fails or the form is invalid; kept while the new page opens.
+        void handleSubmit(onSubmit)(event).finally(() => {
+          if (!leavingRef.current) inFlight.current = false;
+        });
+      }}
+      className="card max-w-2xl space-y-5 p-6" noValidate>
       {field('name', 'Project name', <input {...register('name')} {...aria('name')} className="field-input" />)}
       {field('siteAddress', 'Site address', <input {...register('siteAddress')} {...aria('siteAddress')} className="field-input" autoComplete="street-address" />)}
       {field(
@@ -95,7 +115,9 @@ export function ProjectForm({
       {field('notes', 'Notes (optional)', <textarea {...register('notes')} {...aria('notes')} rows={3} className="field-input" />)}
       {formError && <p role="alert" className="rounded-md bg-status-fail/10 px-3 py-2 text-sm text-status-fail">{formError}</p>}
       <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>{project ? 'Save project' : 'Create project'}</button>
+        <button type="submit" className="btn-primary" disabled={busy} aria-busy={busy} data-testid="project-submit">
+          {busy ? (project ? 'Saving…' : 'Creating…') : project ? 'Save project' : 'Create project'}
+        </button>
         {project && (
           <button type="button" className="btn-secondary" onClick={toggleArchive}>
             {project.archived ? 'Restore project' : 'Archive project'}

@@ -11,7 +11,12 @@ type Item = {
   name: string;
   siteAddress: string;
   jurisdiction: { slug: string; name: string };
-  latestCheck: { outcome: 'pass' | 'fail' | 'incomplete'; createdAt: string } | null;
+  latestCheck: {
+    outcome: 'pass' | 'fail' | 'incomplete';
+    summary: { fail: number; needsInfo: number; caution: number; pass: number };
+    createdAt: string;
+  } | null;
+  inspection: { status: 'not-sent' | 'awaiting-inspector' | 'approved' | 'corrections-needed'; reportCode: string | null };
   updatedAt: string;
   archivedAt: string | null;
   isDemo: boolean;
@@ -19,11 +24,44 @@ type Item = {
 type Page = { items: Item[]; total: number; page: number; pageSize: number };
 type Sort = 'updated' | 'name' | 'jurisdiction' | 'created';
 
-function Outcome({ check }: { check: Item['latestCheck'] }) {
-  if (!check) return <span className="text-sm text-ink-faint">Not checked yet</span>;
-  if (check.outcome === 'pass') return <StatusBadge status="pass" label="Passes" />;
-  if (check.outcome === 'fail') return <StatusBadge status="fail" label="Has failures" />;
-  return <StatusBadge status="needs-info" label="Incomplete" />;
+// "Passes" only when nothing fails and nothing needs information; cautions are said, never hidden.
+function CheckResult({ check }: { check: Item['latestCheck'] }) {
+  if (!check) return <span className="text-sm text-ink-soft">Not checked yet</span>;
+  const s = check.summary;
+  const badge =
+    s.fail > 0 ? <StatusBadge status="fail" label="Has failures" />
+    : s.needsInfo > 0 ? <StatusBadge status="needs-info" label="Needs information" />
+    : s.caution > 0 ? <StatusBadge status="caution" label="Passes, with cautions" />
+    : <StatusBadge status="pass" label="Passes" />;
+  return (
+    <span className="flex flex-col gap-0.5">
+      {badge}
+      <span className="text-xs text-ink-soft" data-testid="check-counts">
+        {s.fail} fail · {s.needsInfo} need{s.needsInfo === 1 ? 's' : ''} information · {s.caution} caution · {s.pass} pass
+      </span>
+    </span>
+  );
+}
+
+const inspectionText: Record<Item['inspection']['status'], string> = {
+  'not-sent': 'Not sent to the inspector',
+  'awaiting-inspector': 'Awaiting the inspector',
+  approved: 'Approved by the inspector',
+  'corrections-needed': 'Inspector asked for corrections',
+};
+
+function Inspection({ inspection }: { inspection: Item['inspection'] }) {
+  const text = inspectionText[inspection.status];
+  const tone =
+    inspection.status === 'approved' ? 'text-status-pass'
+    : inspection.status === 'corrections-needed' ? 'text-status-fail'
+    : 'text-ink-soft';
+  return (
+    <span className="flex flex-col gap-0.5" data-testid="inspection" data-inspection={inspection.status}>
+      <span className={`text-sm font-semibold ${tone}`}>{text}</span>
+      {inspection.reportCode && <span className="font-mono text-xs text-ink-soft">Report {inspection.reportCode}</span>}
+    </span>
+  );
 }
 
 export function ProjectsTable() {
@@ -55,7 +93,7 @@ export function ProjectsTable() {
   }
 
   const header = (column: Sort, label: string) => (
-    <th scope="col" className="px-4 py-3" aria-sort={sort === column ? (dir === 'asc' ? 'ascending' : 'descending') : 'none'}>
+    <th scope="col" className={`px-4 py-3 ${column === 'name' ? '' : 'hidden md:table-cell'}`} aria-sort={sort === column ? (dir === 'asc' ? 'ascending' : 'descending') : 'none'}>
       <button type="button" onClick={() => sortBy(column)} className="inline-flex items-center gap-1 font-semibold uppercase tracking-wide">
         {label}
         <span aria-hidden="true">{sort === column ? (dir === 'asc' ? '▲' : '▼') : '↕'}</span>
@@ -101,9 +139,10 @@ export function ProjectsTable() {
             <thead className="bg-paper-deep text-left text-xs text-ink-soft">
               <tr>
                 {header('name', 'Project')}
-                <th scope="col" className="px-4 py-3 font-semibold uppercase tracking-wide">Site address</th>
+                <th scope="col" className="hidden px-4 py-3 font-semibold uppercase tracking-wide md:table-cell">Site address</th>
                 {header('jurisdiction', 'Jurisdiction')}
-                <th scope="col" className="px-4 py-3 font-semibold uppercase tracking-wide">Latest check</th>
+                <th scope="col" className="hidden px-4 py-3 font-semibold uppercase tracking-wide md:table-cell">Latest check</th>
+                <th scope="col" className="hidden px-4 py-3 font-semibold uppercase tracking-wide md:table-cell">Inspection</th>
                 {header('updated', 'Updated')}
               </tr>
             </thead>
@@ -114,11 +153,20 @@ export function ProjectsTable() {
                     <Link href={`/projects/${p.id}`} className="font-semibold text-ink underline-offset-2 hover:underline">{p.name}</Link>
                     {p.isDemo && <span className="ml-2 rounded bg-brass-soft px-1.5 text-xs">demo</span>}
                     {p.archivedAt && <span className="ml-2 rounded bg-paper-deep px-1.5 text-xs">archived</span>}
+                    {/* On narrow screens the other columns fold into lines under the name. */}
+                    <div className="mt-1 space-y-2 md:hidden" data-testid="project-row-narrow">
+                      <p className="text-ink-soft">{p.siteAddress} · {p.jurisdiction.name}</p>
+                      <div className="flex flex-wrap gap-x-6 gap-y-2">
+                        <CheckResult check={p.latestCheck} />
+                        <Inspection inspection={p.inspection} />
+                      </div>
+                    </div>
                   </td>
-                  <td className="px-4 py-3 text-ink-soft">{p.siteAddress}</td>
-                  <td className="px-4 py-3">{p.jurisdiction.name}</td>
-                  <td className="px-4 py-3"><Outcome check={p.latestCheck} /></td>
-                  <td className="px-4 py-3 text-ink-soft"><time dateTime={p.updatedAt}>{new Date(p.updatedAt).toLocaleDateString()}</time></td>
+                  <td className="hidden px-4 py-3 text-ink-soft md:table-cell">{p.siteAddress}</td>
+                  <td className="hidden px-4 py-3 md:table-cell">{p.jurisdiction.name}</td>
+                  <td className="hidden px-4 py-3 md:table-cell"><CheckResult check={p.latestCheck} /></td>
+                  <td className="hidden px-4 py-3 md:table-cell"><Inspection inspection={p.inspection} /></td>
+                  <td className="hidden px-4 py-3 text-ink-soft md:table-cell"><time dateTime={p.updatedAt}>{new Date(p.updatedAt).toLocaleDateString()}</time></td>
                 </tr>
               ))}
             </tbody>

@@ -31,6 +31,10 @@ export class ConfirmationRequiredError extends ConflictError {
   constructor(
     public readonly path: string,
     message: string,
+    /** A stable word for what needs confirming, so a client can tell two confirmations apart. */
+    public readonly reason?: string,
+    /** Figures the client shows with the question (e.g. how many findings fail). */
+    public readonly details?: Record<string, string | number | boolean | null>,
   ) {
     super(message);
   }

@@ -142,7 +142,16 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
   if (err instanceof NotFoundError) return json({ error: err.message }, 404);
   if (err instanceof ConfirmationRequiredError) {
-    return json({ error: err.message, errors: [{ path: err.path, message: err.message }], needsConfirmation: true }, 409);
+    return json(
+      {
+        error: err.message,
+        errors: [{ path: err.path, message: err.message }],
+        needsConfirmation: true,
+        ...(err.reason ? { reason: err.reason } : {}),
+        ...(err.details ?? {}),
+      },
+      409,
+    );
   }
   if (err instanceof ConflictError) return json({ error: err.message }, 409);
   if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);

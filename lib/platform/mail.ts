@@ -34,6 +34,8 @@ function transport(): Transporter {
 
 export type OutgoingMail = {
   to: string;
+  /** Where the recipient's reply goes (RFC 5322 §3.6.2), e.g. the installer who sent a report. */
+  replyTo?: string | { name: string; address: string };
   subject: string;
   text: string;
   attachments?: { filename: string; content: Buffer; contentType: string }[];

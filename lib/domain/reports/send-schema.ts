@@ -9,5 +9,6 @@ export const sendSchema = z.strictObject({
     .describe('Defaults to the jurisdiction’s inspector e-mail.'),
   note: z.string().max(NOTE_MAX_CHARS, `Keep the note to ${NOTE_MAX_CHARS.toLocaleString('en-US')} characters.`).optional(),
   confirm: z.boolean().optional().describe('Send to an address that is neither the inspector’s nor one the company used before.'),
+  confirmFailingFindings: z.boolean().optional().describe('Send a report whose check has failing findings.'),
 });
 export type SendInput = z.infer<typeof sendSchema>;

@@ -19,6 +19,7 @@ async function listMessages(dir: string) {
       id: file.replace(/\.eml$/, ''),
       from: parsed.from?.text ?? '',
       to: Array.isArray(parsed.to) ? parsed.to.map((t) => t.text).join(', ') : (parsed.to?.text ?? ''),
+      replyTo: parsed.replyTo?.text ?? '',
       subject: parsed.subject ?? '',
       date: parsed.date?.toISOString() ?? null,
       text: parsed.text ?? '',

@@ -23,8 +23,10 @@ async function inspectorAddress(db: DB, jurisdictionId: string): Promise<{ name:
 /**
  * Issues a report for the check and e-mails it. The jurisdiction's inspector address, and addresses the
  * company has sent to before, go without asking; any other address needs `confirm: true`. Only a send to
- * the inspector address puts the report in the jurisdiction's inspector queue. Sends count against the
- * company's hourly limit before anything is issued.
+ * the inspector address puts the report in the jurisdiction's inspector queue. A check with failing findings
+ * needs `confirmFailingFindings: true`, asked before the address so a send that needs both asks in a fixed
+ * order. Sends count against the company's hourly limit before anything is issued. Replies go to the
+ * installer who sent the report.
  */
 export async function sendReport(db: DB, user: AppUser, checkId: string, input: SendInput) {
   await assertMaySendToInspectors(db, user);
@@ -34,11 +36,22 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
   const jur = await inspectorAddress(db, before.jurisdiction.id);
   const to = (input.to ?? jur.inspectorEmail ?? '').trim();
   if (!to) throw new ValidationError([{ path: 'to', message: `${jur.name} has no inspector e-mail on file; enter the address.` }]);
+  const failing = check.summary.fail;
+  if (failing > 0 && !input.confirmFailingFindings) {
+    throw new ConfirmationRequiredError(
+      'confirmFailingFindings',
+      `This check has ${failing} failing finding${failing === 1 ? '' : 's'}; the inspector will see ${failing === 1 ? 'it' : 'them'} in the report. ` +
+        'Fixing the plan and running a new check first is usually quicker than a correction notice. To send it as it is, send again with confirmFailingFindings: true.',
+      'failing-findings',
+      { failing },
+    );
+  }
   if (!sameAddress(to, jur.inspectorEmail) && !input.confirm && !(await companyHasSentTo(db, before.organizationId, to))) {
     throw new ConfirmationRequiredError(
       'to',
       `${to} is not ${jur.name}’s inspector address${jur.inspectorEmail ? ` (${jur.inspectorEmail})` : ''} and your company has not sent a report there before. ` +
         'Check the address; to send anyway, send again with confirm: true. Only reports sent to the inspector address reach the inspector’s queue in NookPass.',
+      'unfamiliar-address',
     );
   }
   await countReportSend(before.organizationId);
@@ -64,6 +77,7 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
   try {
     const { messageId } = await sendMail({
       to,
+      replyTo: user.name ? { name: user.name, address: user.email } : user.email,
       subject: `Check report ${report.code} — ${project.name}`,
       text,
       attachments: [{ filename: reportFilename(project, report.code), content: pdf, contentType: 'application/pdf' }],

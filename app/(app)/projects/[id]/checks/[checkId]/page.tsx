@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
-import { findJurisdictionById } from '@/db/jurisdictions';
+import { findJurisdictionById, jurisdictionHasInspectors } from '@/db/jurisdictions';
 import { isEmailConfirmed } from '@/db/accounts';
 import { findCheck, previousCheck } from '@/db/checks';
 import { citationText } from '@/lib/domain/vocabulary';
@@ -28,6 +28,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
   const changes = prev ? compareFindings(prev.findings, check.findings) : [];
   const newer = published && published.version > check.ruleSet.version;
   const inspectorEmail = (await findJurisdictionById(db, project.jurisdiction.id))?.inspectorEmail ?? null;
+  const hasInspectors = user.role === 'installer' && (await jurisdictionHasInspectors(db, project.jurisdiction.id));
   const unconfirmedEmail = user.role === 'installer' && !(await isEmailConfirmed(db, user.id)) ? user.email : null;
   const cited = [...new Set(check.findings.filter((f) => f.status !== 'not-applicable').map((f) => citationText(f.citation)))];
 
@@ -69,7 +70,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
 
       {/* The findings come first: at the job site the installer opens the check to see what fails. */}
       <div className="mt-6" data-testid="check-report-actions">
-        <ReportActions checkId={check.id} inspectorEmail={inspectorEmail} canSend={user.role === 'installer'} unconfirmedEmail={unconfirmedEmail} />
+        <ReportActions checkId={check.id} inspectorEmail={inspectorEmail} jurisdictionName={project.jurisdiction.name} failing={check.summary.fail} hasInspectors={hasInspectors} canSend={user.role === 'installer'} unconfirmedEmail={unconfirmedEmail} />
       </div>
 
       {prev && (
