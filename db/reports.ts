@@ -5,6 +5,7 @@ import type { ReviewOutcome } from '@/db/types';
 import type { EvaluationSummary } from '@/lib/domain/engine';
 import { isUuid } from '@/lib/domain/ids';
 import { normalizeReportCode } from '@/lib/domain/reports/code';
+import { INSPECTIONS_PAGE_SIZE, likePattern, type InspectionOutcomeFilter } from '@/lib/domain/reports/inspection-filter';
 import { readReportSnapshot, type ReportSnapshot } from '@/lib/domain/reports/snapshot';
 import { readStoredReport, REPORT_SCHEMA_VERSION } from '@/lib/domain/reports/stored';
 
@@ -213,7 +214,7 @@ export async function listReviewsForProject(db: DB, projectId: string) {
     .innerJoin('reports as r', 'r.id', 'v.report_id')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
     .leftJoin('users as u', 'u.id', 'v.created_by')
-    .select(['v.id', 'v.outcome', 'v.comment', 'v.finding_comments', 'v.created_at', 'r.code', 'r.id as report_id', 'u.name as inspector_name'])
+    .select(['v.id', 'v.outcome', 'v.comment', 'v.finding_comments', 'v.created_at', 'r.code', 'r.id as report_id', 'r.check_id', 'u.name as inspector_name'])
     .where('c.project_id', '=', projectId)
     .orderBy('v.created_at', 'desc')
     .execute();
@@ -223,10 +224,11 @@ export type InspectionListItem = {
   reportId: string;
   code: string;
   sentAt: Date;
-  /** false: issued before reports kept what they said; name, address and company are today's. */
+  /** false: issued before reports kept what they said; name, address, permit and company are today's. */
   asIssued: boolean;
   projectName: string;
   siteAddress: string;
+  permitNumber: string | null;
   organizationName: string;
   summary: EvaluationSummary;
   checkOutcome: string;
@@ -234,50 +236,105 @@ export type InspectionListItem = {
   reviewedAt: Date | null;
 };
 
-/** Reports sent to one jurisdiction, newest send first, with their latest review, as they were issued. */
-export async function listInspections(db: DB, jurisdictionId: string | null): Promise<InspectionListItem[]> {
-  let q = db
+export type InspectionSearch = {
+  /** null: every jurisdiction (administrators). */
+  jurisdictionId: string | null;
+  q?: string;
+  outcome?: InspectionOutcomeFilter;
+  /** Whole days in UTC, both ends included (YYYY-MM-DD). */
+  from?: string;
+  to?: string;
+  page?: number;
+  pageSize?: number;
+};
+
+// What the report said when issued; reports from before snapshots fall back to the project as it is today.
+// A snapshot's permit number stands even when it was blank at issue.
+const asIssuedName = sql<string>`coalesce(r.snapshot->'project'->>'name', p.name)`;
+const asIssuedAddress = sql<string>`coalesce(r.snapshot->'project'->>'siteAddress', p.site_address)`;
+const asIssuedPermit = sql<string | null>`case when r.snapshot is null then p.permit_number else r.snapshot->'project'->>'permitNumber' end`;
+const asIssuedCompany = sql<string>`coalesce(r.snapshot->'company'->>'name', o.name)`;
+
+function inspectionQuery(db: DB, s: InspectionSearch) {
+  // The newest send of each report that reached the inspector's address; copies to anyone else are not in the queue.
+  let sends = db
     .selectFrom('report_sends as s')
-    .innerJoin('reports as r', 'r.id', 's.report_id')
-    .innerJoin('projects as p', 'p.id', 's.project_id')
+    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
+    .select(['s.report_id', 's.project_id', 's.created_at as sent_at'])
+    .where('s.status', '=', 'sent')
+    .where(receivedByInspector('s', 'sj'))
+    .distinctOn('s.report_id')
+    .orderBy('s.report_id')
+    .orderBy('s.created_at', 'desc');
+  if (s.jurisdictionId) sends = sends.where('s.jurisdiction_id', '=', s.jurisdictionId);
+  let q = db
+    .selectFrom(sends.as('ls'))
+    .innerJoin('reports as r', 'r.id', 'ls.report_id')
+    .innerJoin('projects as p', 'p.id', 'ls.project_id')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoin('checks as c', 'c.id', 'r.check_id')
-    .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
     .leftJoinLateral(
       (eb) =>
         eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'r.id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
       (join) => join.onTrue(),
-    )
-    .select([
-      'r.id as report_id', 'r.code', 'r.snapshot', 's.created_at as sent_at', 'p.name as project_name', 'p.site_address', 'o.name as organization_name',
-      'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
-    ])
-    .where('s.status', '=', 'sent')
-    // Only what reached the inspector's address is in the queue; copies to anyone else are not.
-    .where(receivedByInspector('s', 'sj'))
-    .distinctOn('r.id')
-    .orderBy('r.id')
-    .orderBy('s.created_at', 'desc');
-  if (jurisdictionId) q = q.where('s.jurisdiction_id', '=', jurisdictionId);
-  const rows = await q.execute();
-  return rows
-    .map((r): InspectionListItem => {
-      const snap = readReportSnapshot(r.snapshot);
-      return {
-        reportId: r.report_id,
-        code: r.code,
-        sentAt: r.sent_at,
-        asIssued: !!snap,
-        projectName: snap?.project.name ?? r.project_name,
-        siteAddress: snap?.project.siteAddress ?? r.site_address,
-        organizationName: snap?.company.name ?? r.organization_name,
-        summary: snap?.check.summary ?? (r.summary as EvaluationSummary),
-        checkOutcome: snap?.check.outcome ?? r.check_outcome,
-        reviewOutcome: r.review_outcome ?? null,
-        reviewedAt: r.reviewed_at ?? null,
-      };
-    })
-    .sort((a, b) => +b.sentAt - +a.sentAt);
+    );
+  if (s.q) {
+    const pattern = likePattern(s.q);
+    // Codes are read out and retyped with spaces or without dashes.
+    const codeSymbols = s.q.replace(/[\s\u2010-\u2015-]+/g, '');
+    q = q.where((eb) =>
+      eb.or([
+        eb('r.code', 'ilike', pattern),
+        eb(asIssuedName, 'ilike', pattern),
+        eb(asIssuedAddress, 'ilike', pattern),
+        eb(asIssuedPermit, 'ilike', pattern),
+        eb(asIssuedCompany, 'ilike', pattern),
+        ...(codeSymbols ? [eb(sql<string>`replace(r.code, '-', '')`, 'ilike', likePattern(codeSymbols))] : []),
+      ]),
+    );
+  }
+  if (s.outcome === 'awaiting') q = q.where('lv.outcome', 'is', null);
+  else if (s.outcome) q = q.where('lv.outcome', '=', s.outcome);
+  if (s.from) q = q.where('ls.sent_at', '>=', new Date(`${s.from}T00:00:00Z`));
+  if (s.to) q = q.where('ls.sent_at', '<', new Date(Date.parse(`${s.to}T00:00:00Z`) + 86_400_000));
+  return q;
+}
+
+/** Reports sent to a jurisdiction's inspectors, newest send first, with their latest outcome, as they were issued; one page. */
+export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ items: InspectionListItem[]; total: number; page: number; pageSize: number }> {
+  const pageSize = Math.min(Math.max(s.pageSize ?? INSPECTIONS_PAGE_SIZE, 1), 100);
+  const page = Math.max(s.page ?? 1, 1);
+  const [rows, count] = await Promise.all([
+    inspectionQuery(db, s)
+      .select([
+        'r.id as report_id', 'r.code', 'r.snapshot', 'ls.sent_at', 'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
+        asIssuedName.as('project_name'), asIssuedAddress.as('site_address'), asIssuedPermit.as('permit_number'), asIssuedCompany.as('organization_name'),
+      ])
+      .orderBy('ls.sent_at', 'desc')
+      .orderBy('r.id')
+      .limit(pageSize)
+      .offset((page - 1) * pageSize)
+      .execute(),
+    inspectionQuery(db, s).select((eb) => eb.fn.countAll<string>().as('n')).executeTakeFirstOrThrow(),
+  ]);
+  const items = rows.map((r): InspectionListItem => {
+    const snap = readReportSnapshot(r.snapshot);
+    return {
+      reportId: r.report_id,
+      code: r.code,
+      sentAt: r.sent_at,
+      asIssued: !!snap,
+      projectName: r.project_name,
+      siteAddress: r.site_address,
+      permitNumber: r.permit_number,
+      organizationName: r.organization_name,
+      summary: snap?.check.summary ?? (r.summary as EvaluationSummary),
+      checkOutcome: snap?.check.outcome ?? r.check_outcome,
+      reviewOutcome: r.review_outcome ?? null,
+      reviewedAt: r.reviewed_at ?? null,
+    };
+  });
+  return { items, total: Number(count.n), page, pageSize };
 }
 
 /** Did the report reach this jurisdiction's inspector address (and so its inspectors)? */
@@ -347,3 +404,29 @@ export async function listReviewsOfReport(db: DB, reportId: string) {
     .execute();
 }
 
+
+export type FindingCommentRow = {
+  ruleKey: string;
+  comment: string;
+  inspectorName: string | null;
+  outcome: ReviewOutcome;
+  reportCode: string;
+  createdAt: Date;
+};
+
+/** Every inspector's comment on a finding of this check, from the outcomes recorded on its reports, oldest first. */
+export async function listFindingCommentsOfCheck(db: DB, checkId: string): Promise<FindingCommentRow[]> {
+  const rows = await db
+    .selectFrom('inspection_reviews as v')
+    .innerJoin('reports as r', 'r.id', 'v.report_id')
+    .leftJoin('users as u', 'u.id', 'v.created_by')
+    .select(['v.finding_comments', 'v.outcome', 'v.created_at', 'r.code', 'u.name as inspector_name'])
+    .where('r.check_id', '=', checkId)
+    .orderBy('v.created_at')
+    .execute();
+  return rows.flatMap((r) =>
+    Object.entries(r.finding_comments as Record<string, string>)
+      .filter(([, comment]) => typeof comment === 'string' && comment.length > 0)
+      .map(([ruleKey, comment]) => ({ ruleKey, comment, inspectorName: r.inspector_name, outcome: r.outcome, reportCode: r.code, createdAt: r.created_at })),
+  );
+}

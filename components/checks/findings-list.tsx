@@ -5,6 +5,8 @@ import type { Finding } from '@/lib/domain/engine';
 import { StatusBadge, type Status } from '@/components/ui/status-badge';
 import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/domain/vocabulary';
 import { amendmentCitationText, checkedOnFor, citationStatusText } from '@/lib/domain/rule-sets/citation-checks';
+import type { FindingCommentsByKey } from '@/lib/domain/reports/finding-comments';
+import { FindingComments } from '@/components/checks/finding-comments';
 
 type Filter = 'all' | 'problems' | 'fail';
 
@@ -15,11 +17,12 @@ const filterLabel: Record<Filter, string> = { all: 'All findings', problems: 'Fa
  * then says whether the jurisdiction checked it against its adopted code, instead of the source
  * confidence admins and installers see.
  */
-export function FindingsList({ findings, changedKeys, citationChecks }: { findings: Finding[]; changedKeys?: string[]; citationChecks?: Record<string, { citation: string; checkedOn: string }> }) {
+export function FindingsList({ findings, changedKeys, citationChecks, comments }: { findings: Finding[]; changedKeys?: string[]; citationChecks?: Record<string, { citation: string; checkedOn: string }>; comments?: FindingCommentsByKey }) {
   const [filter, setFilter] = useState<Filter>(findings.some((f) => f.status === 'fail') ? 'problems' : 'all');
   const changed = useMemo(() => new Set(changedKeys ?? []), [changedKeys]);
   const shown = findings.filter((f) =>
-    filter === 'all' ? true : filter === 'fail' ? f.status === 'fail' : ['fail', 'caution', 'needs-info'].includes(f.status),
+    // A finding an inspector commented on stays in view under every filter, even when it passed.
+    filter === 'all' || !!comments?.[f.ruleKey]?.length ? true : filter === 'fail' ? f.status === 'fail' : ['fail', 'caution', 'needs-info'].includes(f.status),
   );
   const byArea = areaOrder
     .map((area) => ({ area, items: shown.filter((f) => f.area === area) }))
@@ -43,7 +46,7 @@ export function FindingsList({ findings, changedKeys, citationChecks }: { findin
             <h3 id={`area-${area}`} className="mb-2 text-lg font-bold">{areaTitles[area] ?? area}</h3>
             <ul className="space-y-3">
               {items.map((f) => (
-                <li key={f.ruleKey} className={`card p-4 ${f.status === 'fail' ? 'border-l-4 border-l-status-fail' : ''}`} data-testid="finding" data-rule={f.ruleKey} data-status={f.status}>
+                <li key={f.ruleKey} id={`finding-${f.ruleKey}`} className={`card p-4 ${f.status === 'fail' ? 'border-l-4 border-l-status-fail' : ''}`} data-testid="finding" data-rule={f.ruleKey} data-status={f.status}>
                   <div className="flex flex-wrap items-start justify-between gap-2">
                     <div>
                       <StatusBadge status={f.status as Status} />
@@ -75,6 +78,7 @@ export function FindingsList({ findings, changedKeys, citationChecks }: { findin
                     </p>
                   )}
                   {f.citationNote && <p className="mt-1 text-xs text-ink-faint">{f.citationNote}</p>}
+                  <FindingComments comments={comments?.[f.ruleKey]} />
                 </li>
               ))}
             </ul>

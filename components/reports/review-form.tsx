@@ -5,6 +5,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { reviewSchema, type ReviewInput } from '@/lib/domain/reports/review-schema';
+import { FindingCommentInputs, findingCommentField } from '@/components/reports/finding-comment-inputs';
 
 type F = { ruleKey: string; title: string; status: string };
 
@@ -12,21 +13,22 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
   const router = useRouter();
   const [done, setDone] = useState<string | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
-  // Rule keys contain dots, which the form library reads as nesting; field names encode them.
   type Values = { outcome?: ReviewInput['outcome']; comment: string; fc: Record<string, string> };
-  const encode = (key: string) => key.replace(/\./g, '__');
+  const encode = findingCommentField;
   const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<Values>({
     defaultValues: { comment: '', fc: {} },
   });
-  const flagged = findings.filter((f) => f.status !== 'pass' && f.status !== 'not-applicable');
+
+  // A comment the API refused sits under its own finding's box.
+  const fieldOfPath = (path: string) => (path === 'outcome' ? 'outcome' : path.startsWith('findingComments.') ? `fc.${encode(path.slice('findingComments.'.length))}` : 'comment');
 
   async function onSubmit(form: Values) {
     setFormError(null);
-    const findingComments = Object.fromEntries(flagged.map((f) => [f.ruleKey, form.fc?.[encode(f.ruleKey)] ?? '']).filter(([, c]) => c.trim()));
+    const findingComments = Object.fromEntries(findings.map((f) => [f.ruleKey, form.fc?.[encode(f.ruleKey)] ?? '']).filter(([, c]) => c.trim()));
     // The same schema the API parses, checked here first so the message sits next to its field.
     const parsed = reviewSchema.safeParse({ outcome: form.outcome, comment: form.comment, findingComments });
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) setError((issue.path[0] === 'outcome' ? 'outcome' : 'comment') as never, { message: issue.message });
+      for (const issue of parsed.error.issues) setError(fieldOfPath(issue.path.map(String).join('.')) as never, { message: issue.message });
       return;
     }
     const values = parsed.data;
@@ -35,7 +37,7 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
       setDone(`Outcome recorded${res.mailed ? ' and the installer was e-mailed' : ''}.`);
       router.refresh();
     } catch (err) {
-      if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError((e.path === 'outcome' ? 'outcome' : 'comment') as never, { message: e.message });
+      if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError(fieldOfPath(e.path) as never, { message: e.message });
       else setFormError((err as Error).message);
     }
   }
@@ -55,19 +57,7 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
         <textarea id="review-comment" rows={3} className="field-input" {...register('comment')} aria-describedby={errors.comment ? 'review-comment-error' : undefined} />
         {errors.comment && <p id="review-comment-error" className="field-error" role="alert">{errors.comment.message}</p>}
       </div>
-      {flagged.length > 0 && (
-        <details open>
-          <summary className="cursor-pointer text-sm font-semibold">Comments on findings ({flagged.length} not passing)</summary>
-          <div className="mt-3 space-y-3">
-            {flagged.map((f) => (
-              <div key={f.ruleKey}>
-                <label htmlFor={`fc-${f.ruleKey}`} className="text-sm">{f.title} <span className="text-ink-faint">({f.status})</span></label>
-                <input id={`fc-${f.ruleKey}`} className="field-input" {...register(`fc.${encode(f.ruleKey)}` as const)} />
-              </div>
-            ))}
-          </div>
-        </details>
-      )}
+      <FindingCommentInputs findings={findings} register={register} errors={errors} />
       {formError && <p role="alert" className="text-sm text-status-fail">{formError}</p>}
       {done && <p role="status" className="text-sm font-semibold text-status-pass">{done}</p>}
       <button type="submit" className="btn-primary" disabled={isSubmitting}>Record outcome</button>

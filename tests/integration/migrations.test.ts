@@ -1,7 +1,7 @@
 import { sql, type Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createMigrator, migrateToLatest } from '@/db/migrator';
-import { listInspections, publicReportFacts } from '@/db/reports';
+import { publicReportFacts, searchInspections } from '@/db/reports';
 import { createScratchDb } from './helpers';
 
 let scratch: Awaited<ReturnType<typeof createScratchDb>>;
@@ -147,11 +147,13 @@ describe('reports issued before snapshots were kept', () => {
   });
 
   it('stay readable: the verification facts and the queue fall back to the current project and say so', async () => {
-    await legacy.db.updateTable('projects').set({ name: 'Renamed after issue' }).where('id', '=', projectId).execute();
+    await legacy.db.updateTable('projects').set({ name: 'Renamed after issue', permit_number: 'LEG-2026-0007' }).where('id', '=', projectId).execute();
     const facts = await publicReportFacts(legacy.db, code);
     expect(facts).toMatchObject({ code, asIssued: false, projectName: 'Renamed after issue', pageCount: 3, summary: { fail: 2 } });
-    const queue = await listInspections(legacy.db, jurisdictionId);
-    expect(queue.find((r) => r.code === code)).toMatchObject({ asIssued: false, projectName: 'Renamed after issue' });
+    const queue = (await searchInspections(legacy.db, { jurisdictionId })).items;
+    expect(queue.find((r) => r.code === code)).toMatchObject({ asIssued: false, projectName: 'Renamed after issue', siteAddress: '1 Old Road', permitNumber: 'LEG-2026-0007' });
+    // Searching reads the same fallback: today's permit number finds the report that kept no snapshot.
+    expect((await searchInspections(legacy.db, { jurisdictionId, q: 'leg-2026-0007' })).items.map((r) => r.code)).toEqual([code]);
     // Sends from before recorded no recipient kind: the inspector's address of today decides, in any case.
     expect(queue.map((r) => r.code)).not.toContain(otherCode);
   });

@@ -71,10 +71,10 @@ describe('an issued report after its project changed', () => {
   });
 
   it('shows the issued values in the inspector queue and on the inspection page', async () => {
-    const queue = await api('/api/inspections', { cookie: inspector });
+    const queue = await api(`/api/inspections?q=${code}`, { cookie: inspector });
     const row = queue.body.inspections.find((i: { code: string }) => i.code === code);
     expect(row).toMatchObject({ projectName: issued.name, siteAddress: issued.siteAddress, organizationName: companyName, asIssued: true });
-    const list = text(await (await fetch(`${baseUrl}/inspections`, { headers: { cookie: inspector } })).text());
+    const list = text(await (await fetch(`${baseUrl}/inspections?q=${code}`, { headers: { cookie: inspector } })).text());
     expect(list).toContain(issued.name);
     expect(list).not.toContain(later.name);
     const detail = await api(`/api/inspections/${reportId}`, { cookie: inspector });

@@ -513,8 +513,8 @@ describe('pages answer each caller as the matrix says', () => {
 
 describe('lists stay within the caller’s scope', () => {
   it('shows the sent report to the county inspector only, and the project to its own company only', async () => {
-    const county = await api('/api/inspections', { cookie: cookies.insp });
-    const city = await api('/api/inspections', { cookie: cookies.oinsp });
+    const county = await api(`/api/inspections?q=${ids.reportCode}`, { cookie: cookies.insp });
+    const city = await api(`/api/inspections?q=${ids.reportCode}`, { cookie: cookies.oinsp });
     expect(county.body.inspections.map((i: { code: string }) => i.code)).toContain(ids.reportCode);
     expect(city.body.inspections.map((i: { code: string }) => i.code)).not.toContain(ids.reportCode);
     const mine = await api('/api/projects?q=Matrix%20closet', { cookie: cookies.owner });

@@ -28,7 +28,7 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   return {
     report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount, asIssued: !!snap },
     project,
-    check: { findings: check.findings, summary: check.summary, createdAt: check.createdAt },
+    check: { id: check.id, findings: check.findings, summary: check.summary, createdAt: check.createdAt },
     // The version is published and its marks append-only, so these dates cannot move after the report.
     citationChecks: await citationCheckedDates(db, check.ruleSet.id),
     attachments,

@@ -10,6 +10,7 @@ import { SafetyNotice } from '@/components/ui/safety-notice';
 import { requirePageUser } from '@/lib/platform/auth/session';
 import { NotFoundError } from '@/lib/domain/errors';
 import { loadInspection } from '@/lib/services/reports/inspection';
+import { findingCommentsOfCheck } from '@/lib/services/reports/finding-comments';
 
 export const metadata: Metadata = { title: 'Inspection' };
 
@@ -24,6 +25,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
     throw err;
   }
   const { report, project, check, attachments, reviews, citationChecks } = data;
+  const comments = await findingCommentsOfCheck(getDb(), check.id);
   return (
     <>
       <PageHeader kicker={`${project.jurisdictionName} · report ${report.code}`} title={project.name}>
@@ -42,7 +44,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
       <SummaryCounts summary={check.summary} />
       <div className="mt-4"><SafetyNotice compact /></div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
-        <section aria-label="Findings"><FindingsList findings={check.findings} citationChecks={citationChecks} /></section>
+        <section aria-label="Findings"><FindingsList findings={check.findings} citationChecks={citationChecks} comments={comments} /></section>
         <aside className="space-y-6">
           {user.role === 'inspector' && <ReviewForm reportId={report.id} findings={check.findings.map((f) => ({ ruleKey: f.ruleKey, title: f.title, status: f.status }))} />}
           {reviews.length > 0 && (

@@ -11,6 +11,7 @@ import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
+import { findingTitlesOfChecks } from '@/lib/services/reports/finding-comments';
 
 export const metadata: Metadata = { title: 'Project' };
 
@@ -24,6 +25,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
     listProjectSends(db, id),
     listReviewsForProject(db, id),
   ]);
+  const findingTitles = await findingTitlesOfChecks(db, reviews.filter((r) => Object.keys(r.finding_comments as object).length > 0).map((r) => r.check_id));
   const latest = checks[0];
   const newerRules = latest && published && latest.ruleSet.version < published.version;
   const canRun = user.role === 'installer' && revisions.length > 0 && !!published;
@@ -82,7 +84,9 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                     <span className="ml-2 text-ink-soft">{r.inspector_name ?? 'Inspector'} · report {r.code} · {new Date(r.created_at).toLocaleString()}</span>
                     {r.comment && <p className="mt-1">{r.comment}</p>}
                     {Object.entries(r.finding_comments as Record<string, string>).map(([k, c]) => (
-                      <p key={k} className="mt-1 text-ink-soft"><span className="font-mono text-xs">{k}</span>: {c}</p>
+                      <p key={k} className="mt-1 text-ink-soft" data-testid="outcome-finding-comment">
+                        <Link className="font-semibold text-ink underline underline-offset-2" href={`/projects/${project.id}/checks/${r.check_id}#finding-${k}`}>{findingTitles[r.check_id]?.[k] ?? k}</Link>: {c}
+                      </p>
                     ))}
                   </li>
                 ))}

@@ -15,6 +15,7 @@ import { SafetyNotice } from '@/components/ui/safety-notice';
 import { statusLabel } from '@/components/ui/status-badge';
 import { compareFindings } from '@/lib/domain/checks/compare';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
+import { findingCommentsOfCheck } from '@/lib/services/reports/finding-comments';
 
 export const metadata: Metadata = { title: 'Check' };
 
@@ -24,7 +25,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
   const db = getDb();
   const check = await findCheck(db, user, checkId);
   if (!check || check.projectId !== project.id) notFound();
-  const prev = await previousCheck(db, check);
+  const [prev, comments] = await Promise.all([previousCheck(db, check), findingCommentsOfCheck(db, check.id)]);
   const changes = prev ? compareFindings(prev.findings, check.findings) : [];
   const newer = published && published.version > check.ruleSet.version;
   const inspectorEmail = (await findJurisdictionById(db, project.jurisdiction.id))?.inspectorEmail ?? null;
@@ -65,7 +66,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
 
       <section className="mt-6" aria-labelledby="findings-h" data-testid="check-findings">
         <h2 id="findings-h" className="sr-only">Findings</h2>
-        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} />
+        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} comments={comments} />
       </section>
 
       {/* The findings come first: at the job site the installer opens the check to see what fails. */}
