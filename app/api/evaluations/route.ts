@@ -1,18 +1,13 @@
-import { z } from 'zod';
 import { getDb } from '@/db';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, parseBody, route } from '@/lib/platform/http';
 import { evaluateForJurisdiction } from '@/lib/services/evaluation';
-
-const bodySchema = z.strictObject({
-  jurisdiction: z.string().min(1, 'Give the jurisdiction slug, e.g. "demo-county".'),
-  plan: z.unknown(),
-});
+import { evaluationRequestSchema } from '@/lib/domain/api/requests';
 
 // Stateless: evaluates a plan against a jurisdiction's published rules and stores nothing.
 export const POST = route(async (request) => {
   await requireUser(request);
-  const body = await parseBody(request, bodySchema);
+  const body = await parseBody(request, evaluationRequestSchema);
   const result = await evaluateForJurisdiction(getDb(), body);
   return json({ ruleSet: result.ruleSet, summary: result.summary, findings: result.findings });
 });
