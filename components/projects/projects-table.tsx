@@ -4,6 +4,7 @@ import Link from 'next/link';
 import { useEffect, useState } from 'react';
 import useSWR from 'swr';
 import { swrFetcher } from '@/lib/platform/client/fetch-json';
+import { ProjectsCsvLink } from '@/components/projects/projects-csv-link';
 import { StatusBadge } from '@/components/ui/status-badge';
 
 type Item = {
@@ -121,6 +122,7 @@ export function ProjectsTable() {
           <input type="checkbox" checked={archived} onChange={(e) => { setArchived(e.target.checked); setPage(1); }} className="h-4 w-4" />
           Show archived
         </label>
+        <ProjectsCsvLink q={q} sort={sort} dir={dir} archived={archived ? 'all' : '0'} />
       </div>
 
       {error && <p role="alert" className="rounded-md bg-status-fail/10 px-4 py-3 text-sm text-status-fail">Projects could not be loaded: {(error as Error).message}</p>}

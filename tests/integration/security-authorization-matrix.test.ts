@@ -100,6 +100,7 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/health':                             { path: () => '/api/health', expect: a(200, 200, 200, 200, 200, 200) },
   'GET /api/ping':                               { path: () => '/api/ping', expect: a(200, 200, 200, 200, 200, 200) },
   'GET /api/schema/plan':                        { path: () => '/api/schema/plan', expect: a(200, 200, 200, 200, 200, 200) },
+  'GET /api/openapi.json':                       { path: () => '/api/openapi.json', expect: a(200, 200, 200, 200, 200, 200) },
   // next-auth's own endpoints answer everyone; the session is empty for anon.
   'GET /api/auth/[...nextauth]':                 { path: () => '/api/auth/session', expect: a(200, 200, 200, 200, 200, 200) },
   // A sign-out POST without next-auth's CSRF token is sent back to the confirmation page, signing nobody out.
@@ -115,6 +116,7 @@ const apiMatrix: Record<string, ApiRow> = {
   'POST /api/sessions/revoke-others':           { path: () => '/api/sessions/revoke-others', expect: a(401, 200, 200, 200, 200, 200), ownAccounts: true },
   'POST /api/evaluations':                       { path: () => '/api/evaluations', send: { json: () => ({ jurisdiction: 'demo-county', plan: hallClosetPassPlan }) }, expect: a(401, 200, 200, 200, 200, 200) },
   'GET /api/projects':                           { path: () => '/api/projects', expect: a(401, 200, 200, 403, 403, 200) },
+  'GET /api/projects.csv':                       { path: () => '/api/projects.csv', expect: a(401, 200, 200, 403, 403, 200) },
   'POST /api/projects':                          { path: () => '/api/projects', send: { json: () => ({ name: 'Matrix project (test)', siteAddress: '1 Matrix Way', jurisdiction: 'demo-county' }) }, expect: a(401, 201, 201, 403, 403, 403) },
   'GET /api/projects/[id]':                      { path: (i) => `/api/projects/${i.projectId}`, expect: a(401, 200, 404, 403, 403, 200) },
   'PATCH /api/projects/[id]':                    { path: (i) => `/api/projects/${i.projectId}`, send: { json: () => ({ notes: 'Checked by the authorization matrix.' }) }, expect: a(401, 200, 404, 403, 403, 200) },
@@ -140,6 +142,7 @@ const apiMatrix: Record<string, ApiRow> = {
   'PATCH /api/attachments/[id]':                 { path: (i) => `/api/attachments/${i.attachmentId}`, send: { json: () => ({ caption: 'Matrix caption' }) }, expect: a(401, 200, 404, 403, 403, 403) },
   'DELETE /api/attachments/[id]':                { path: (i) => `/api/attachments/${i.attachmentToDeleteId}`, expect: a(401, 200, 404, 403, 403, 403) },
   'GET /api/checks/[id]':                        { path: (i) => `/api/checks/${i.checkId}`, expect: a(401, 200, 404, 403, 403, 200) },
+  'GET /api/checks/[id]/findings.csv':           { path: (i) => `/api/checks/${i.checkId}/findings.csv`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/checks/[id]/report':                { path: (i) => `/api/checks/${i.checkId}/report`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/checks/[id]/send':                  { path: (i) => `/api/checks/${i.checkId}/send`, send: { json: () => ({ note: 'Sent by the authorization matrix.' }) }, expect: a(401, 201, 404, 403, 403, 403) },
   // Public on purpose: whoever holds the paper can confirm it.

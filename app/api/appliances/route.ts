@@ -1,16 +1,14 @@
 import { getDb } from '@/db';
-import { applianceInputSchema, applianceListQuerySchema } from '@/lib/domain/appliances/model';
+import { applianceInputSchema } from '@/lib/domain/appliances/model';
 import { ValidationError } from '@/lib/domain/errors';
 import { requireUser } from '@/lib/platform/auth/session';
 import { json, parseBody, route, zodErrors } from '@/lib/platform/http';
 import { createAppliance, listAppliances } from '@/lib/services/appliances';
-import { z } from 'zod';
-
-const querySchema = applianceListQuerySchema.extend({ slot: z.enum(['washer', 'dryer']).optional() });
+import { applianceListRequestQuerySchema } from '@/lib/domain/api/requests';
 
 export const GET = route(async (request) => {
   const user = await requireUser(request, ['installer']);
-  const q = querySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
+  const q = applianceListRequestQuerySchema.safeParse(Object.fromEntries(new URL(request.url).searchParams));
   if (!q.success) throw new ValidationError(zodErrors(q.error));
   return json({ items: await listAppliances(getDb(), user, q.data) });
 });

@@ -1,5 +1,4 @@
 import { create as contentDisposition } from 'content-disposition';
-import { z } from 'zod';
 import { getDb } from '@/db';
 import { attachmentSentToJurisdiction, displayKey, findAttachment, markAttachmentDeleted, updateCaption, withoutMetadataKey, type Attachment } from '@/db/attachments';
 import { getProject } from '@/db/projects';
@@ -9,6 +8,7 @@ import { NotFoundError } from '@/lib/domain/errors';
 import { json, parseBody, route } from '@/lib/platform/http';
 import { deleteObject, findObject, putObject } from '@/lib/platform/storage';
 import { stripPhotoMetadata } from '@/lib/platform/uploads';
+import { attachmentUpdateSchema } from '@/lib/domain/api/requests';
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -71,12 +71,10 @@ export const GET = route<Ctx>(async (request, { params }) => {
   });
 });
 
-const patchSchema = z.strictObject({ caption: z.string().trim().max(300, 'Keep the caption under 300 characters.') });
-
 export const PATCH = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
   const { a } = await load(user, (await params).id, true);
-  const { caption } = await parseBody(request, patchSchema);
+  const { caption } = await parseBody(request, attachmentUpdateSchema);
   await updateCaption(getDb(), a.id, caption, user.id);
   return json({ id: a.id, caption });
 });

@@ -1,16 +1,11 @@
-import { z } from 'zod';
-import { positiveIntSchema } from '@/lib/domain/integers';
 import { getDb } from '@/db';
 import { listChecks } from '@/db/checks';
 import { requireUser } from '@/lib/platform/auth/session';
 import { runCheck } from '@/lib/services/checks/run-check';
 import { json, parseBody, route } from '@/lib/platform/http';
+import { checkRunRequestSchema } from '@/lib/domain/api/requests';
 
 type Ctx = { params: Promise<{ id: string }> };
-
-const runSchema = z.strictObject({
-  revision: positiveIntSchema('The plan revision').optional().describe('Plan revision to check; the latest when left out.'),
-});
 
 export const GET = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer', 'admin']);
@@ -19,6 +14,6 @@ export const GET = route<Ctx>(async (request, { params }) => {
 
 export const POST = route<Ctx>(async (request, { params }) => {
   const user = await requireUser(request, ['installer']);
-  const { revision } = await parseBody(request, runSchema);
+  const { revision } = await parseBody(request, checkRunRequestSchema);
   return json(await runCheck(getDb(), user, (await params).id, revision), 201);
 });

@@ -48,6 +48,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
         <div className="no-print flex gap-2">
           <Link href={`/projects/${project.id}/plan`} className="btn-secondary">Edit plan</Link>
           <Link href={`/projects/${project.id}/drawing`} className="btn-secondary">Drawing</Link>
+          <a href={`/api/checks/${check.id}/findings.csv`} download className="btn-secondary">Findings as CSV</a>
           {user.role === 'installer' && <RunCheckButton projectId={project.id} label="Run again" />}
         </div>
       </div>
