@@ -33,7 +33,7 @@ function errorResponses(entry: OperationEntry, hasPathParams: boolean): ZodOpenA
   if (hasPathParams || entry.notFound) out['404'] = jsonError(entry.notFound ?? 'Not found, or it belongs to another company.');
   if (entry.conflict) out['409'] = jsonError(entry.conflict, fieldErrors.partial({ errors: true }).extend({ needsConfirmation: z.boolean().optional() }));
   if (entry.body) out['413'] = jsonError('The body is over its limit (JSON 512 KiB).');
-  if (entry.rateLimited) out['429'] = { ...jsonError(`Too many requests: ${entry.rateLimited}`), headers: { 'Retry-After': { schema: retryAfter, required: true } } };
+  if (entry.rateLimited) out['429'] = { ...jsonError(`Too many requests: ${entry.rateLimited}`), headers: z.object({ 'Retry-After': retryAfter }) };
   return out;
 }
 

@@ -94,14 +94,14 @@ export const apiRoutes: Record<string, RouteEntry> = {
   'auth/[...nextauth]/route.ts': { undocumented: 'Browser sign-in, handled by the authentication library; integrators use API tokens.' },
   'checks/[id]/route.ts': { get: { summary: 'One check with its findings', access: installersAndAdmins, ok: ok200('The check as stored.') } },
   'checks/[id]/findings.csv/route.ts': { get: { summary: "A check's findings as CSV", access: installersAndAdmins, ok: csv('Rule, section cited, status, message and remedy of each finding.') } },
-  'checks/[id]/report/route.ts': { post: { summary: 'Issue the report of a check (PDF)', access: installersAndAdmins, ok: { status: 200, description: 'The report; X-Report-Code and X-Report-Sha256 name it.', contentType: 'application/pdf' } } },
+  'checks/[id]/report/route.ts': { post: { summary: 'Issue the report of a check (PDF)', access: installersAndAdmins, ok: { status: 200, description: 'The report; X-Report-Code and X-Report-Sha256 name it.', contentType: 'application/pdf' }, rateLimited: 'Reports issued per person an hour (120).' } },
   'checks/[id]/send/route.ts': {
     post: { summary: "E-mail a check's report to the inspector", access: installers, body: json(sendSchema), ok: ok201('The send as recorded.'), rateLimited: 'Report e-mails per company an hour.', conflict: 'Confirmation needed (failing findings) or the address is not confirmed.' },
   },
   'email-confirmations/route.ts': { post: { summary: 'Send the e-mail confirmation again', access: 'signed-in', ok: { status: 202, description: 'Queued.' }, rateLimited: 'Confirmation e-mails an hour.' } },
   'email-confirmations/[token]/route.ts': { post: { summary: 'Confirm an e-mail address', access: 'public', ok: ok200('Confirmed.'), conflict: 'The link expired or was used.' } },
   'evaluations/route.ts': {
-    post: { summary: 'Check a plan against a jurisdiction (stores nothing)', access: 'signed-in', body: json(evaluationRequestSchema.extend({ plan: planDoc })), ok: ok200('Rule set, summary and findings.'), notFound: 'No published rule set for the jurisdiction.' },
+    post: { summary: 'Check a plan against a jurisdiction (stores nothing)', access: 'signed-in', body: json(evaluationRequestSchema.extend({ plan: planDoc })), ok: ok200('Rule set, summary and findings.'), notFound: 'No published rule set for the jurisdiction.', rateLimited: 'Evaluations a minute per API token (1,200) and per person (2,400).' },
   },
   'health/route.ts': { get: { summary: 'Whether the app and its database answer', access: 'public', ok: ok200('Up (503 when the database is down).') } },
   'inspections/route.ts': { get: { summary: "The inspector's reports to review", access: inspectorsAndAdmins, ok: ok200('Inspections.') } },
@@ -149,7 +149,7 @@ export const apiRoutes: Record<string, RouteEntry> = {
   },
   'projects/[id]/attachments/route.ts': {
     get: { summary: "A project's attachments", access: installersAndAdmins, ok: ok200('Attachments.') },
-    post: { summary: 'Upload photos or documents', access: installers, body: { raw: 'multipart/form-data', description: 'Files in the field "file" (15 MB each), optional "caption".' }, ok: ok201('What was stored.') },
+    post: { summary: 'Upload photos or documents', access: installers, body: { raw: 'multipart/form-data', description: 'Files in the field "file" (15 MB each), optional "caption".' }, ok: ok201('What was stored.'), rateLimited: 'Uploads per person an hour (300).' },
   },
   'projects/[id]/checks/route.ts': {
     get: { summary: "A project's checks", access: installersAndAdmins, ok: ok200('Checks, newest first.') },
