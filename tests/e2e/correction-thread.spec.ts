@@ -1,9 +1,11 @@
 import AxeBuilder from '@axe-core/playwright';
-import { expect, test, type Page } from '@playwright/test';
+import { expect as baseExpect, test, type Page } from '@playwright/test';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
 import { signInAs } from './helpers';
 
 const shots = 'test-results/e2e/screens';
+// Each step renders a page or issues a report (a PDF render); on a shared machine under the dev server that takes a while.
+const expect = baseExpect.configure({ timeout: 60_000 });
 // WCAG 2.2 level AA, as axe-core tags its rules.
 const WCAG_22_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
 
@@ -20,7 +22,7 @@ async function expectAccessible(page: Page, what: string) {
 }
 
 test('an installer sends a report with a caution, the inspector asks for corrections, the installer answers with a new check, the inspector sees what changed and approves', async ({ page, browser }) => {
-  test.setTimeout(300_000);
+  test.setTimeout(600_000);
   await signInAs(page, 'installer2@nookpass.demo');
   // Our own project under a unique name, so other tests' projects and reports do not matter.
   const name = `E2E thread ${Date.now()} (test)`;
