@@ -174,7 +174,7 @@ export async function companyHasSentTo(db: DB, organizationId: string, email: st
 
 export async function recordSend(
   db: DB,
-  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string },
+  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string; note?: string | null },
 ) {
   return db.transaction().execute(async (trx) => {
     const row = await trx
@@ -188,6 +188,7 @@ export async function recordSend(
         status: s.status,
         error: s.error,
         message_id: s.messageId,
+        note: s.note?.trim() || null,
         created_by: s.actorId,
       })
       .returningAll()
@@ -349,21 +350,6 @@ export async function reportSentToJurisdiction(db: DB, reportId: string, jurisdi
     .where(receivedByInspector('s', 'sj'))
     .executeTakeFirst();
   return !!row;
-}
-
-export async function insertReview(
-  db: DB,
-  r: { reportId: string; inspectorId: string; outcome: ReviewOutcome; comment: string; findingComments: Record<string, string> },
-) {
-  return db.transaction().execute(async (trx) => {
-    const row = await trx
-      .insertInto('inspection_reviews')
-      .values({ report_id: r.reportId, created_by: r.inspectorId, outcome: r.outcome, comment: r.comment, finding_comments: JSON.stringify(r.findingComments) })
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    await writeAudit(trx, { actorUserId: r.inspectorId, action: `review.${r.outcome}`, entityType: 'report', entityId: r.reportId, details: { comment: r.comment } });
-    return row;
-  });
 }
 
 /** E-mail addresses of the people who sent this report to the inspector (they hear the outcome). */

@@ -264,6 +264,8 @@ export interface ReportSendsTable {
   message_id: string | null;
   /** Sent to the jurisdiction's inspector address; null only for sends recorded before this was kept. */
   to_inspector: ColumnType<boolean | null, boolean | undefined, never>;
+  /** The installer's note sent with the report; null when none was written or for sends recorded before it was kept. */
+  note: ColumnType<string | null, string | null | undefined, never>;
   created_by: string | null;
   created_at: CreatedAt;
 }
@@ -277,6 +279,25 @@ export interface InspectionReviewsTable {
   outcome: ReviewOutcome;
   comment: Generated<string>;
   finding_comments: Json<Record<string, string>>;
+  /** The outcome this one revises (same report); each outcome is revised at most once. */
+  revises_id: ColumnType<string | null, string | null | undefined, never>;
+  /** The installer's answer this outcome was recorded on; null for the first outcome on the report. */
+  answer_id: ColumnType<string | null, string | null | undefined, never>;
+  created_at: CreatedAt;
+}
+
+/** The installer's answer to "corrections needed": a newer check of the project, its report, and a note. */
+export interface CorrectionAnswersTable {
+  id: Generated<string>;
+  /** The report the inspector reviewed first: the thread lives on it. */
+  report_id: string;
+  /** The "corrections needed" outcome answered (one answer each). */
+  review_id: string;
+  check_id: string;
+  /** The report issued for the answering check. */
+  answer_report_id: string;
+  note: string;
+  created_by: string | null;
   created_at: CreatedAt;
 }
 
@@ -334,6 +355,7 @@ export interface Database {
   reports: ReportsTable;
   report_sends: ReportSendsTable;
   inspection_reviews: InspectionReviewsTable;
+  correction_answers: CorrectionAnswersTable;
   rate_limits: RateLimitsTable;
   appliance_models: ApplianceModelsTable;
 }

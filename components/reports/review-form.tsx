@@ -9,14 +9,24 @@ import { FindingCommentInputs, findingCommentField } from '@/components/reports/
 
 type F = { ruleKey: string; title: string; status: string };
 
-export function ReviewForm({ reportId, findings }: { reportId: string; findings: F[] }) {
+/** `revises`: the standing outcome this form revises, whose values it starts from. */
+export function ReviewForm({ reportId, findings, revises, onCancel, onDone }: {
+  reportId: string;
+  findings: F[];
+  revises?: { id: string; outcome: ReviewInput['outcome']; comment: string; findingComments: Record<string, string> };
+  onCancel?: () => void;
+  /** Told the confirmation once saved, for a parent that replaces the form with the recorded outcome. */
+  onDone?: (message: string) => void;
+}) {
   const router = useRouter();
   const [done, setDone] = useState<string | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
   type Values = { outcome?: ReviewInput['outcome']; comment: string; fc: Record<string, string> };
   const encode = findingCommentField;
   const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<Values>({
-    defaultValues: { comment: '', fc: {} },
+    defaultValues: revises
+      ? { outcome: revises.outcome, comment: revises.comment, fc: Object.fromEntries(Object.entries(revises.findingComments).map(([k, c]) => [encode(k), c])) }
+      : { comment: '', fc: {} },
   });
 
   // A comment the API refused sits under its own finding's box.
@@ -26,7 +36,7 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
     setFormError(null);
     const findingComments = Object.fromEntries(findings.map((f) => [f.ruleKey, form.fc?.[encode(f.ruleKey)] ?? '']).filter(([, c]) => c.trim()));
     // The same schema the API parses, checked here first so the message sits next to its field.
-    const parsed = reviewSchema.safeParse({ outcome: form.outcome, comment: form.comment, findingComments });
+    const parsed = reviewSchema.safeParse({ outcome: form.outcome, comment: form.comment, findingComments, ...(revises ? { revises: revises.id } : {}) });
     if (!parsed.success) {
       for (const issue of parsed.error.issues) setError(fieldOfPath(issue.path.map(String).join('.')) as never, { message: issue.message });
       return;
@@ -34,7 +44,9 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
     const values = parsed.data;
     try {
       const res = await fetchJson<{ mailed: number }>(`/api/inspections/${reportId}/review`, { method: 'POST', json: values });
-      setDone(`Outcome recorded${res.mailed ? ' and the installer was e-mailed' : ''}.`);
+      const message = `${revises ? 'Outcome revised' : 'Outcome recorded'}${res.mailed ? ' and the installer was e-mailed' : ''}.`;
+      if (onDone) onDone(message);
+      else setDone(message);
       router.refresh();
     } catch (err) {
       if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError(fieldOfPath(e.path) as never, { message: e.message });
@@ -43,7 +55,7 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
   }
 
   return (
-    <form onSubmit={handleSubmit(onSubmit)} noValidate className="card space-y-4 p-5" aria-label="Record the inspection outcome">
+    <form onSubmit={handleSubmit(onSubmit)} noValidate className="card space-y-4 p-5" aria-label={revises ? 'Revise the inspection outcome' : 'Record the inspection outcome'}>
       <fieldset>
         <legend className="field-label">Outcome</legend>
         <div className="mt-2 flex flex-wrap gap-4">
@@ -60,7 +72,10 @@ export function ReviewForm({ reportId, findings }: { reportId: string; findings:
       <FindingCommentInputs findings={findings} register={register} errors={errors} />
       {formError && <p role="alert" className="text-sm text-status-fail">{formError}</p>}
       {done && <p role="status" className="text-sm font-semibold text-status-pass">{done}</p>}
-      <button type="submit" className="btn-primary" disabled={isSubmitting}>Record outcome</button>
+      <div className="flex flex-wrap gap-3">
+        <button type="submit" className="btn-primary" disabled={isSubmitting}>{revises ? 'Save revised outcome' : 'Record outcome'}</button>
+        {onCancel && <button type="button" className="btn-secondary" onClick={onCancel}>Cancel</button>}
+      </div>
     </form>
   );
 }

@@ -149,6 +149,9 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/reports/[code]':                     { path: (i) => `/api/reports/${i.reportCode}`, expect: a(200, 200, 200, 200, 200, 200) },
   'POST /api/reports/[code]/verify':             { path: (i) => `/api/reports/${i.reportCode}/verify`, send: { bytes: () => new TextEncoder().encode('%PDF-1.4 not the report') }, expect: a(200, 200, 200, 200, 200, 200) },
   'GET /api/reports/[code]/pdf':                 { path: (i) => `/api/reports/${i.reportCode}/pdf`, expect: a(401, 200, 404, 200, 404, 200) },
+  'GET /api/reports/[code]/answers':             { path: (i) => `/api/reports/${i.reportCode}/answers`, expect: a(401, 200, 404, 200, 404, 200) },
+  // No outcome asks for corrections on the matrix report, so the owner's answer is a 409 (and changes nothing).
+  'POST /api/reports/[code]/answers':            { path: (i) => `/api/reports/${i.reportCode}/answers`, send: { json: (i) => ({ checkId: i.checkId, note: 'Matrix answer.' }) }, expect: a(401, 409, 404, 403, 403, 403) },
   'GET /api/inspections':                        { path: () => '/api/inspections', expect: a(401, 403, 403, 200, 200, 200) },
   'GET /api/inspections/[reportId]':             { path: (i) => `/api/inspections/${i.reportId}`, expect: a(401, 403, 403, 200, 404, 200) },
   'POST /api/inspections/[reportId]/review':     { path: (i) => `/api/inspections/${i.reportId}/review`, send: { json: () => ({ outcome: 'approved', comment: 'Matrix review.' }) }, expect: a(401, 403, 403, 201, 404, 403) },

@@ -15,6 +15,9 @@ export const reviewSchema = z
       .record(z.string().min(1, 'A finding key is empty.').max(MAX_FINDING_KEY_LENGTH, `A finding key has at most ${MAX_FINDING_KEY_LENGTH} characters.`), z.string().trim().max(2000, 'Keep each comment under 2000 characters.'))
       .refine((r) => Object.keys(r).length <= MAX_FINDING_COMMENTS, `Comment on at most ${MAX_FINDING_COMMENTS} findings.`)
       .default({}),
+    // Recording over a standing outcome must say so: either flag, or the id of the outcome replaced.
+    revise: z.boolean('revise is true or false.').optional().describe('Revise the outcome already recorded.'),
+    revises: z.uuid('revises is the id of the outcome being revised.').optional(),
   })
   .refine((r) => r.outcome === 'approved' || r.comment.length > 0 || Object.values(r.findingComments).some((c) => c.length > 0), {
     message: 'Say what needs correcting: a general comment or a comment on a finding.',

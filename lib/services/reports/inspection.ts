@@ -7,11 +7,17 @@ import { findReportById, findReportHeading, listReviewsOfReport } from '@/db/rep
 import type { AppUser } from '@/lib/domain/roles';
 import { NotFoundError } from '@/lib/domain/errors';
 import { assertCanReadReport } from '@/lib/services/reports/access';
+import { findThreadRoot, readThread } from '@/lib/services/reports/thread';
 
-/** One report as the inspector sees it: the check's findings, photos it included, and earlier outcomes. */
+/**
+ * One report as the inspector sees it: the findings under review (the latest answer's check, or the
+ * report's own), photos it included, and the thread of outcomes and answers. A report issued for an
+ * answer opens as the report whose thread it answers.
+ */
 export async function loadInspection(db: DB, user: AppUser, reportId: string) {
-  const report = await findReportById(db, reportId);
-  if (!report) throw new NotFoundError('No such report for your jurisdiction.');
+  const found = await findReportById(db, reportId);
+  if (!found) throw new NotFoundError('No such report for your jurisdiction.');
+  const report = await findThreadRoot(db, found.id);
   const { projectId } = await assertCanReadReport(db, user, report);
   const check = await findCheckById(db, report.checkId);
   if (!check) throw new NotFoundError('The check of this report is missing.');
@@ -25,12 +31,17 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   const included = new Set(report.attachmentIds);
   const attachments = (await listAttachments(db, projectId)).filter((a) => included.has(a.id)).map(({ storageKey: _s, thumbnailKey: _t, ...a }) => a);
   const reviews = await listReviewsOfReport(db, report.id);
+  const thread = await readThread(db, report);
+  const underReview = thread.underReview;
   return {
     report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount, asIssued: !!snap },
     project,
-    check: { id: check.id, findings: check.findings, summary: check.summary, createdAt: check.createdAt },
+    // What the next outcome is about: after an answer, the answering check.
+    check: { id: underReview.id, findings: underReview.findings, summary: underReview.summary, createdAt: underReview.createdAt },
+    reportedCheck: { id: check.id, summary: check.summary, createdAt: check.createdAt },
+    thread: { state: thread.state, entries: thread.entries, answerId: thread.answerId },
     // The version is published and its marks append-only, so these dates cannot move after the report.
-    citationChecks: await citationCheckedDates(db, check.ruleSet.id),
+    citationChecks: await citationCheckedDates(db, underReview.ruleSet.id),
     attachments,
     reviews,
   };

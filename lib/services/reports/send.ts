@@ -73,7 +73,7 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
     '',
     'The locally adopted code, the AHJ and licensed trades govern; this report does not replace the inspection.',
   ].join('\n');
-  const record = { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, toInspector, actorId: user.id };
+  const record = { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, toInspector, actorId: user.id, note: input.note ?? null };
   try {
     const { messageId } = await sendMail({
       to,

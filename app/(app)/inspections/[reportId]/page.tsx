@@ -4,7 +4,8 @@ import { notFound } from 'next/navigation';
 import { getDb } from '@/db';
 import { FindingsList } from '@/components/checks/findings-list';
 import { SummaryCounts } from '@/components/checks/summary-counts';
-import { ReviewForm } from '@/components/reports/review-form';
+import { OutcomePanel } from '@/components/reports/outcome-panel';
+import { ThreadSection } from '@/components/reports/thread-section';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { requirePageUser } from '@/lib/platform/auth/session';
@@ -24,7 +25,12 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
     if (err instanceof NotFoundError) notFound();
     throw err;
   }
-  const { report, project, check, attachments, reviews, citationChecks } = data;
+  const { report, project, check, attachments, thread, citationChecks } = data;
+  const standing = thread.state.kind === 'awaiting-outcome' ? null : thread.state.current;
+  // The installer's latest word: the note of the latest answer, or the one sent with the report.
+  const lastNote = [...thread.entries].reverse().find((e) => (e.kind === 'answer' || e.kind === 'sent') && e.note);
+  const installerNote = lastNote && (lastNote.kind === 'answer' ? { text: lastNote.note, by: lastNote.installerName } : lastNote.kind === 'sent' && lastNote.note ? { text: lastNote.note, by: lastNote.by } : null);
+  const findingTitles = Object.fromEntries(check.findings.map((f) => [f.ruleKey, f.title]));
   const comments = await findingCommentsOfCheck(getDb(), check.id);
   return (
     <>
@@ -41,25 +47,26 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
           issued PDF is the record of what the report said.
         </p>
       )}
+      {thread.answerId && (
+        <p className="mb-2 text-sm font-semibold" data-testid="under-review">
+          Findings of the installer’s answering check of {check.createdAt.toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' })}; the report as first sent is {report.code}.
+        </p>
+      )}
       <SummaryCounts summary={check.summary} />
       <div className="mt-4"><SafetyNotice compact /></div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
         <section aria-label="Findings"><FindingsList findings={check.findings} citationChecks={citationChecks} comments={comments} /></section>
         <aside className="space-y-6">
-          {user.role === 'inspector' && <ReviewForm reportId={report.id} findings={check.findings.map((f) => ({ ruleKey: f.ruleKey, title: f.title, status: f.status }))} />}
-          {reviews.length > 0 && (
-            <section className="card p-5 text-sm" aria-labelledby="rev-h">
-              <h2 id="rev-h" className="font-bold">Outcomes recorded</h2>
-              <ul className="mt-2 space-y-2">
-                {reviews.map((r) => (
-                  <li key={r.id}>
-                    <span className="font-semibold">{r.outcome === 'approved' ? 'Approved' : 'Corrections needed'}</span> · {r.inspector_name} · {new Date(r.created_at).toLocaleString()}
-                    {r.comment && <p className="text-ink-soft">{r.comment}</p>}
-                  </li>
-                ))}
-              </ul>
-            </section>
+          {user.role === 'inspector' && (
+            <OutcomePanel
+              reportId={report.id}
+              findings={check.findings.map((f) => ({ ruleKey: f.ruleKey, title: f.title, status: f.status }))}
+              standing={standing && { id: standing.id, outcome: standing.outcome, comment: standing.comment, findingComments: standing.findingComments, inspectorName: standing.inspectorName, createdAt: standing.createdAt.toISOString() }}
+              installerNote={installerNote || null}
+              onAnswer={!!thread.answerId}
+            />
           )}
+          <ThreadSection entries={thread.entries} findingTitles={findingTitles} headingId="thread-h" />
           {attachments.length > 0 && (
             <section className="card p-5 text-sm" aria-labelledby="att-h">
               <h2 id="att-h" className="font-bold">Photos and documents in the report</h2>

@@ -6,12 +6,13 @@ import { listPlanRevisions } from '@/db/plan-revisions';
 import { RunCheckButton } from '@/components/checks/run-check-button';
 import { AttachmentsPanel } from '@/components/projects/attachments-panel';
 import { DuplicateProjectButton } from '@/components/projects/duplicate-project-button';
-import { listProjectSends, listReviewsForProject } from '@/db/reports';
+import { listProjectSends } from '@/db/reports';
+import { ProjectThreads } from '@/components/reports/project-threads';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
-import { findingTitlesOfChecks } from '@/lib/services/reports/finding-comments';
+import { loadProjectThreads } from '@/lib/services/reports/thread';
 
 export const metadata: Metadata = { title: 'Project' };
 
@@ -19,13 +20,12 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
   const { id } = await params;
   const { user, project, published } = await loadProjectPage(id, `/projects/${id}`);
   const db = getDb();
-  const [checks, revisions, sends, reviews] = await Promise.all([
+  const [checks, revisions, sends, threads] = await Promise.all([
     listChecks(db, user, id),
     listPlanRevisions(db, user, id),
     listProjectSends(db, id),
-    listReviewsForProject(db, id),
+    loadProjectThreads(db, user, id),
   ]);
-  const findingTitles = await findingTitlesOfChecks(db, reviews.filter((r) => Object.keys(r.finding_comments as object).length > 0).map((r) => r.check_id));
   const latest = checks[0];
   const newerRules = latest && published && latest.ruleSet.version < published.version;
   const canRun = user.role === 'installer' && revisions.length > 0 && !!published;
@@ -74,24 +74,13 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
               </table>
             )}
           </section>
-          {reviews.length > 0 && (
-            <section className="card p-5" aria-labelledby="outcome-h" data-testid="inspection-outcomes">
-              <h2 id="outcome-h" className="text-lg font-bold">Inspection outcomes</h2>
-              <ul className="mt-3 space-y-3 text-sm">
-                {reviews.map((r) => (
-                  <li key={r.id}>
-                    {r.outcome === 'approved' ? <StatusBadge status="pass" label="Approved" /> : <StatusBadge status="fail" label="Corrections needed" />}
-                    <span className="ml-2 text-ink-soft">{r.inspector_name ?? 'Inspector'} · report {r.code} · {new Date(r.created_at).toLocaleString()}</span>
-                    {r.comment && <p className="mt-1">{r.comment}</p>}
-                    {Object.entries(r.finding_comments as Record<string, string>).map(([k, c]) => (
-                      <p key={k} className="mt-1 text-ink-soft" data-testid="outcome-finding-comment">
-                        <Link className="font-semibold text-ink underline underline-offset-2" href={`/projects/${project.id}/checks/${r.check_id}#finding-${k}`}>{findingTitles[r.check_id]?.[k] ?? k}</Link>: {c}
-                      </p>
-                    ))}
-                  </li>
-                ))}
-              </ul>
-            </section>
+          {threads.length > 0 && (
+            <ProjectThreads
+              projectId={project.id}
+              threads={threads}
+              canAnswer={user.role === 'installer'}
+              latestCheck={latest ? { id: latest.id, createdAt: latest.createdAt, counts: `${latest.summary.fail} fail · ${latest.summary.caution} caution · ${latest.summary.needsInfo} info · ${latest.summary.pass} pass` } : null}
+            />
           )}
           <AttachmentsPanel projectId={project.id} canEdit={user.role === 'installer'} />
           {sends.length > 0 && (
