@@ -8,6 +8,7 @@ import type { Editions } from '@/lib/domain/editions';
 import { z } from 'zod';
 import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
+import { BusyButton } from '@/components/busy-button';
 
 type Values = {
   slug: string;
@@ -47,6 +48,9 @@ export function JurisdictionForm({
   const editing = !!jurisdiction;
   const [formError, setFormError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
+  // After a create succeeds the page is still here until the draft page loads: the button stays busy,
+  // or a second press would try the same short name again.
+  const [leaving, setLeaving] = useState(false);
   const { register, handleSubmit, setError, formState: { errors, isSubmitting } } = useForm<Values>({
     resolver: zodResolver((editing ? editFormSchema : jurisdictionCreateSchema) as never),
     defaultValues: jurisdiction
@@ -65,6 +69,7 @@ export function JurisdictionForm({
         router.refresh();
       } else {
         const created = await fetchJson<{ jurisdiction: { slug: string }; draft: { version: number } }>('/api/jurisdictions', { method: 'POST', json: values });
+        setLeaving(true);
         router.push(`/rules/${created.jurisdiction.slug}/versions/${created.draft.version}`);
       }
     } catch (err) {
@@ -139,7 +144,9 @@ export function JurisdictionForm({
         )}
       {formError && <p role="alert" className="rounded-md bg-status-fail/10 px-3 py-2 text-sm text-status-fail">{formError}</p>}
       {saved && <p role="status" className="text-sm text-status-pass">Saved.</p>}
-      <button type="submit" className="btn-primary" disabled={isSubmitting}>{editing ? 'Save jurisdiction' : 'Create jurisdiction and first draft'}</button>
+      <BusyButton type="submit" className="btn-primary" busy={isSubmitting || leaving} busyText={editing ? 'Saving…' : leaving ? 'Opening the first draft…' : 'Creating…'}>
+        {editing ? 'Save jurisdiction' : 'Create jurisdiction and first draft'}
+      </BusyButton>
     </form>
   );
 }

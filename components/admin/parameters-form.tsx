@@ -8,8 +8,9 @@ import { ApiError } from '@/lib/platform/client/fetch-json';
 import { ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { formatLength } from '@/lib/domain/units';
 import { defaultParameters } from '@/lib/domain/params/defaults';
-import { parameterValueText } from '@/lib/domain/params/amendments';
-import { sameJson } from '@/lib/domain/rule-sets/stable-json';
+import { parameterValueText } from '@/lib/domain/params/describe';
+import { hingeChartColumns, parameterGroupLabels, parameterInputUnit, parameterLabel, describeParameter, PARAMETER_DECIMALS, sameParameterValue } from '@/lib/domain/params/describe';
+import { BusyButton } from '@/components/busy-button';
 
 type Amending = { model: RuleSetParameters | null; citations: Record<string, string>; setCitation: (path: string, text: string) => void; readOnly: boolean };
 const AmendingContext = createContext<Amending>({ model: null, citations: {}, setCitation: () => {}, readOnly: true });
@@ -31,7 +32,7 @@ function AmendmentCitation({ control, path }: { control: Control<Values>; path: 
   const value = useWatch({ control, name: path });
   if (!model) return null;
   const modelValue = readPath(model, path);
-  if (modelValue === undefined || sameJson(value, modelValue)) return null;
+  if (modelValue === undefined || sameParameterValue(value, modelValue)) return null;
   const id = `${idFor(path)}-amendment`;
   return (
     <div className="mt-1 rounded-md bg-paper-deep px-2 py-1" data-testid={`amendment-${path}`}>
@@ -41,6 +42,24 @@ function AmendmentCitation({ control, path }: { control: Control<Values>; path: 
       <input id={id} className="field-input max-w-md" value={citations[path] ?? ''} disabled={readOnly} maxLength={200} onChange={(e) => setCitation(path, e.target.value)} placeholder="e.g. Ord. 12-34 §2" />
     </div>
   );
+}
+
+const isPlainObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Figures as the form shows them: a converted 1000 mm reads 39.3701, not 39.3700787402. */
+function shownFigures(value: unknown): unknown {
+  if (typeof value === 'number') return Number(value.toFixed(PARAMETER_DECIMALS));
+  if (Array.isArray(value)) return value.map(shownFigures);
+  if (isPlainObject(value)) return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, shownFigures(v)]));
+  return value;
+}
+
+/** Back to the stored figures wherever the admin left a value as shown, so saving changes nothing unasked. */
+function withStoredFigures(value: unknown, stored: unknown): unknown {
+  if (typeof value === 'number' && typeof stored === 'number') return sameParameterValue(value, stored) ? stored : value;
+  if (Array.isArray(value)) return value.map((v, i) => withStoredFigures(v, Array.isArray(stored) ? stored[i] : undefined));
+  if (isPlainObject(value)) return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, withStoredFigures(v, isPlainObject(stored) ? stored[k] : undefined)]));
+  return value;
 }
 
 // Generated once from the zod schema: a parameter added there appears here with its description as label.
@@ -77,8 +96,8 @@ function Leaf({ field, path, register, errors, control, readOnly }: { field: Exc
     input = (
       <div className="flex items-center">
         <input type="number" step="any" inputMode="decimal" min={field.min ?? undefined} className="field-input max-w-[10rem]" {...aria} {...register(path, { setValueAs: toNumber(field.nullable) })} />
-        {field.unit && <span className="ml-2 text-sm text-ink-soft">{field.unit}</span>}
-        {field.unit === 'in' && <LengthHint control={control} path={path} />}
+        {parameterInputUnit(path) && <span className="ml-2 text-sm text-ink-soft">{parameterInputUnit(path)}</span>}
+        {describeParameter(path)?.unit === 'length' && <LengthHint control={control} path={path} />}
       </div>
     );
   } else if (field.kind === 'boolean') {
@@ -86,7 +105,7 @@ function Leaf({ field, path, register, errors, control, readOnly }: { field: Exc
   } else if (field.kind === 'enum') {
     input = (
       <select className="field-input max-w-md" {...aria} {...register(path)}>
-        {field.options.map((o) => <option key={o} value={o}>{o}</option>)}
+        {field.options.map((o) => <option key={o} value={o}>{describeParameter(path)?.choices?.[o] ?? o}</option>)}
       </select>
     );
   } else {
@@ -95,8 +114,8 @@ function Leaf({ field, path, register, errors, control, readOnly }: { field: Exc
   return (
     <div>
       <label htmlFor={id} className="field-label font-normal">
-        {field.label}
-        {field.kind !== 'boolean' && 'nullable' in field && field.nullable && <span className="text-ink-faint"> (leave empty for none)</span>}
+        {parameterLabel(path)}
+        {field.kind !== 'boolean' && 'nullable' in field && field.nullable && <span className="text-ink-faint"> (leave empty: not set)</span>}
       </label>
       {input}
       {message && <p id={`${id}-error`} role="alert" className="field-error">{message}</p>}
@@ -110,9 +129,9 @@ function Rows({ field, control, register, errors, readOnly }: { field: Extract<F
   const message = errorAt(errors, field.path);
   return (
     <fieldset className="rounded-md border border-rule p-3">
-      <legend className="px-1 text-sm font-semibold">{field.label}</legend>
+      <legend className="px-1 text-sm font-semibold">{parameterLabel(field.path)}</legend>
       <table className="text-sm">
-        <thead><tr>{field.row.map((c) => <th key={c.path} className="pr-3 text-left font-normal text-ink-soft">{c.label}</th>)}<th /></tr></thead>
+        <thead><tr>{field.row.map((c) => <th key={c.path} scope="col" className="pr-3 text-left font-normal text-ink-soft">{hingeChartColumns[c.path]?.label ?? c.label}{hingeChartColumns[c.path]?.unit === 'length' ? ' (in)' : ''}</th>)}<th /></tr></thead>
         <tbody>
           {fields.map((row, i) => (
             <tr key={row.id}>
@@ -121,7 +140,7 @@ function Rows({ field, control, register, errors, readOnly }: { field: Extract<F
                 const cellError = errorAt(errors, path);
                 return (
                   <td key={c.path} className="pr-3 align-top">
-                    <input type="number" step="any" aria-label={`${c.label}, row ${i + 1}`} id={idFor(path)} disabled={readOnly} className="field-input w-28" aria-invalid={cellError ? true : undefined} {...register(path, { setValueAs: toNumber(false) })} />
+                    <input type="number" step="any" aria-label={`${hingeChartColumns[c.path]?.label ?? c.label}, row ${i + 1}`} id={idFor(path)} disabled={readOnly} className="field-input w-28" aria-invalid={cellError ? true : undefined} {...register(path, { setValueAs: toNumber(false) })} />
                     {cellError && <p role="alert" className="field-error">{cellError}</p>}
                   </td>
                 );
@@ -146,11 +165,11 @@ function Group({ fields, columns = false, ...rest }: { fields: FormField[]; colu
           // Shown, not edited: the editions belong to the jurisdiction and stay in the form's values as loaded.
           return (
             <fieldset key={f.path} className="space-y-2 border-t border-rule pt-4">
-              <legend className="text-base font-bold">{f.label}</legend>
+              <legend className="text-base font-bold">{parameterGroupLabels[f.path] ?? f.label}</legend>
               <p className="text-xs text-ink-faint">From the jurisdiction. To change them, edit the jurisdiction and start a draft from the baseline.</p>
               <dl className="grid grid-cols-2 gap-x-4 text-sm sm:grid-cols-3">
                 {f.children.map((c) => (
-                  <div key={c.path}><dt className="text-ink-faint">{c.path.split('.').pop()}</dt><dd data-testid={`edition-${c.path}`}>{String(readPath(rest.values, c.path) ?? '')}</dd></div>
+                  <div key={c.path}><dt className="text-ink-faint">{parameterLabel(c.path)}</dt><dd data-testid={`edition-${c.path}`}>{String(readPath(rest.values, c.path) ?? '')}</dd></div>
                 ))}
               </dl>
             </fieldset>
@@ -161,7 +180,7 @@ function Group({ fields, columns = false, ...rest }: { fields: FormField[]; colu
         if (f.kind === 'group') {
           return (
             <fieldset key={f.path} className="space-y-3 border-t border-rule pt-4 md:col-span-2">
-              <legend className="text-base font-bold">{f.label}</legend>
+              <legend className="text-base font-bold">{parameterGroupLabels[f.path] ?? f.label}</legend>
               <Group fields={f.children} columns {...rest} />
             </fieldset>
           );
@@ -184,7 +203,7 @@ export function ParametersForm({ parameters, readOnly = false, onSave }: { param
   const amending = useMemo<Amending>(() => ({ model, citations, readOnly, setCitation: (path, text) => setCitations((c) => ({ ...c, [path]: text })) }), [model, citations, readOnly]);
   const { register, control, handleSubmit, setError, formState: { errors, isSubmitting, isDirty }, reset } = useForm<Values>({
     resolver: zodResolver(ruleSetParametersSchema as never),
-    defaultValues: parameters as unknown as Values,
+    defaultValues: shownFigures(parameters) as Values,
   });
 
   async function submit(values: Values) {
@@ -193,9 +212,9 @@ export function ParametersForm({ parameters, readOnly = false, onSave }: { param
     try {
       // Only the citations of values still changed are kept: a value set back to the model needs none.
       const amendments = Object.entries(citations)
-        .filter(([path, text]) => text.trim() !== '' && model && !sameJson(readPath(values, path), readPath(model, path)))
+        .filter(([path, text]) => text.trim() !== '' && model && !sameParameterValue(readPath(values, path), readPath(model, path)))
         .map(([parameter, citation]) => ({ parameter, citation: citation.trim() }));
-      await onSave({ ...(values as unknown as RuleSetParameters), amendments });
+      await onSave({ ...(withStoredFigures(values, parameters) as RuleSetParameters), amendments });
       reset(values);
       setStatus({ kind: 'ok', text: 'Parameters saved to the draft.' });
     } catch (err) {
@@ -213,7 +232,7 @@ export function ParametersForm({ parameters, readOnly = false, onSave }: { param
       </AmendingContext.Provider>
       {!readOnly && (
         <div className="sticky bottom-0 mt-4 flex flex-wrap items-center gap-3 border-t border-rule bg-white py-3">
-          <button type="submit" className="btn-primary" disabled={isSubmitting}>Save parameters</button>
+          <BusyButton type="submit" className="btn-primary" busy={isSubmitting} busyText="Saving parameters…">Save parameters</BusyButton>
           <span className="text-sm text-ink-soft" data-testid="parameters-state">{isDirty ? 'Unsaved changes' : 'No unsaved changes'}</span>
           {status && <span role={status.kind === 'error' ? 'alert' : 'status'} className={status.kind === 'error' ? 'text-sm text-status-fail' : 'text-sm text-status-pass'} data-testid="parameters-status">{status.text}</span>}
         </div>

@@ -1,5 +1,6 @@
 'use client';
 
+import { BusyButton } from '@/components/busy-button';
 import { useState } from 'react';
 import { useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { blankRule, parseRuleInput, ruleToInput, type RuleFormValues } from '@/lib/domain/rule-sets/rule-input';
@@ -126,7 +127,7 @@ export function RuleEditor({
       <datalist id="known-facts">{factCatalog.map((fact) => <option key={fact.name} value={fact.name} />)}</datalist>
       {status && <p role="alert" className="text-sm text-status-fail" data-testid="rule-status">{status}</p>}
       <div className="flex gap-2">
-        <button type="submit" className="btn-primary" disabled={isSubmitting}>{isNew ? 'Add rule' : 'Save rule'}</button>
+        <BusyButton type="submit" className="btn-primary" busy={isSubmitting} busyText="Saving rule…">{isNew ? 'Add rule' : 'Save rule'}</BusyButton>
         <button type="button" className="btn-secondary" onClick={onCancel}>Cancel</button>
       </div>
     </form>

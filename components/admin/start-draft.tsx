@@ -3,6 +3,7 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { fetchJson } from '@/lib/platform/client/fetch-json';
+import { BusyButton } from '@/components/busy-button';
 
 /** Starts the jurisdiction's draft: a full copy of the published version, or the model-code baseline for its editions. */
 export function StartDraft({ slug, hasPublished }: { slug: string; hasPublished: boolean }) {
@@ -22,8 +23,8 @@ export function StartDraft({ slug, hasPublished }: { slug: string; hasPublished:
   }
   return (
     <div className="flex flex-wrap items-center gap-2">
-      {hasPublished && <button type="button" className="btn-primary" disabled={busy} onClick={() => start('published')}>Start a draft from the published version</button>}
-      <button type="button" className="btn-secondary" disabled={busy} onClick={() => start('baseline')}>Start from the model-code baseline</button>
+      {hasPublished && <BusyButton className="btn-primary" busy={busy} busyText="Starting the draft…" onClick={() => start('published')}>Start a draft from the published version</BusyButton>}
+      <BusyButton className="btn-secondary" busy={busy} busyText="Starting the draft…" onClick={() => start('baseline')}>Start from the model-code baseline</BusyButton>
       {error && <p role="alert" className="field-error w-full">{error}</p>}
     </div>
   );

@@ -107,8 +107,8 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
   await admin.getByRole('link', { name: /All versions/ }).click();
   await admin.getByRole('button', { name: 'Show differences' }).click();
   const diffRow = admin.locator('[data-diff-path="exhaust.maxDevelopedLengthIn"]');
-  await expect(diffRow.locator('[data-side="from"]')).toHaveText('420');
-  await expect(diffRow.locator('[data-side="to"]')).toHaveText('240');
+  await expect(diffRow.locator('[data-side="from"]')).toHaveText(`35' 0"`);
+  await expect(diffRow.locator('[data-side="to"]')).toHaveText(`20' 0"`);
 
   // The installer sees newer rules, re-runs, and gets the new version, its note and the new limit.
   await openProject(installer);

@@ -2,9 +2,9 @@ import type { FieldError } from '@/lib/domain/errors';
 import { defaultParameters } from '@/lib/domain/params/defaults';
 import type { RuleSetParameters } from '@/lib/domain/params/schema';
 import { sameJson } from '@/lib/domain/rule-sets/stable-json';
-import { fieldsOf, leafFields } from '@/lib/domain/rule-sets/form-schema';
-import { ruleSetParametersSchema } from '@/lib/domain/params/schema';
-import { formatLength } from '@/lib/domain/units';
+import { parameterLabel, parameterValueText, sameParameterValue } from '@/lib/domain/params/describe';
+
+export { parameterLabel, parameterValueText };
 
 /** A parameter that differs from the model value, with the local amendment that makes the change. */
 export type ParameterAmendment = {
@@ -38,23 +38,9 @@ function leaves(value: unknown, base = ''): [string, unknown][] {
   });
 }
 
-const LABELS = new Map(leafFields(fieldsOf(ruleSetParametersSchema)).map((f) => [f.path, f.label]));
-
 export const amendableParameters: readonly string[] = leaves(defaultParameters({
   building: 'IRC 2021', electrical: 'NEC 2023', plumbing: 'IPC 2021', plumbingFamily: 'IPC', mechanical: 'IMC 2021', fuelGas: 'IFGC 2021',
 })).map(([path]) => path);
-
-export function parameterLabel(path: string): string {
-  return LABELS.get(path) ?? path;
-}
-
-/** A parameter's value as people read it: lengths in feet and inches besides the stored inches. */
-export function parameterValueText(path: string, value: unknown): string {
-  if (value === null) return 'none (deleted)';
-  if (typeof value === 'number' && path.endsWith('In')) return value >= 12 ? `${formatLength(value, 'imperial')}` : `${value} in`;
-  if (Array.isArray(value)) return `${value.length} rows`;
-  return String(value);
-}
 
 function readPath(value: unknown, path: string): unknown {
   let current = value;
@@ -87,7 +73,7 @@ export function changedParameters(params: RuleSetParameters): (Omit<ParameterAme
   const model = modelParameters(params);
   if (!model) return [];
   return leaves(params)
-    .filter(([path, value]) => !sameJson(value, readPath(model, path)))
+    .filter(([path, value]) => !sameParameterValue(value, readPath(model, path)))
     .map(([path, value]) => ({ parameter: path, value, modelValue: readPath(model, path), citation: citationFor(params, path) }));
 }
 

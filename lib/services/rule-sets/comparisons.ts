@@ -11,6 +11,7 @@ import { NotFoundError } from '@/lib/domain/errors';
 import { adminNotesFor } from '@/lib/domain/rule-format';
 import { compareFindingSets, summarizeComparisons, type FindingDelta, type Outcome, type SubjectComparison } from '@/lib/domain/rule-sets/dry-run';
 import { evaluateForComparison } from '@/lib/services/evaluation';
+import { buildRuleSet } from '@/rules';
 
 const side = (e: Evaluation | null): { outcome: Outcome; summary: EvaluationSummary } | null => (e ? { outcome: outcomeOf(e.summary), summary: e.summary } : null);
 
@@ -26,9 +27,44 @@ async function compareSubject(
   return { ...subject, before: side(result.before), after: side(result.after), changes, error: result.error };
 }
 
+/**
+ * The built-in rules and parameters for the editions a version was written for: what a first
+ * version is compared with before anything is published. Version 0 and no id, so it is never
+ * mistaken for a stored version or cached as one.
+ */
+export function baselineRuleSet(set: Pick<RuleSetWithRules, 'jurisdictionId' | 'jurisdictionSlug' | 'parameters'>): RuleSetWithRules {
+  const built = buildRuleSet(set.parameters.editions);
+  const now = new Date(0);
+  return {
+    id: '',
+    jurisdictionId: set.jurisdictionId,
+    jurisdictionSlug: set.jurisdictionSlug,
+    version: 0,
+    status: 'draft',
+    parameters: built.parameters,
+    changelog: '',
+    revision: 0,
+    publishedAt: null,
+    createdAt: now,
+    updatedAt: now,
+    basedOnId: null,
+    retiredAt: null,
+    createdBy: null,
+    publishedBy: null,
+    rules: built.rules,
+  };
+}
+
+/** What a dry run compared the draft with: the published version, or the model-code baseline before the first publication. */
+export type ComparedWith = { kind: 'published'; version: number } | { kind: 'baseline'; editions: string };
+
+export const baselineLabel = (set: Pick<RuleSetWithRules, 'parameters'>) =>
+  `the model-code baseline (${[set.parameters.editions.building, set.parameters.editions.electrical, set.parameters.editions.plumbing].join(', ')}, no local amendments)`;
+
 export type DryRunResult = {
   draft: { id: string; version: number; revision: number };
   published: { id: string; version: number } | null;
+  comparedWith: ComparedWith;
   subjects: SubjectComparison[];
   totals: ReturnType<typeof summarizeComparisons>;
   /** What the draft's rules ask an admin to fix (never shown to installers). */
@@ -44,7 +80,10 @@ export async function runDryRun(db: DB, draftId: string, actorUserId: string): P
   const draft = await findRuleSetById(db, draftId);
   if (!draft) throw new NotFoundError('No such rule set version.');
   const published = await findPublishedRuleSet(db, draft.jurisdictionId);
-  const baseline = published && published.id !== draft.id ? published : null;
+  // Before the first publication the draft is compared with the model-code baseline it started
+  // from, so only what the admin changed shows, not every rule as new.
+  const current = published && published.id !== draft.id ? published : null;
+  const baseline = current ?? baselineRuleSet(draft);
   const subjects: SubjectComparison[] = [];
   for (const demo of demoPlans) {
     subjects.push(await compareSubject({ kind: 'demo-plan', id: demo.slug, name: demo.name, detail: 'demo plan' }, demo.plan, baseline, draft));
@@ -58,11 +97,12 @@ export async function runDryRun(db: DB, draftId: string, actorUserId: string): P
     action: 'rule-set.dry-run',
     entityType: 'rule_set',
     entityId: draft.id,
-    details: { jurisdictionId: draft.jurisdictionId, version: draft.version, revision: draft.revision, againstVersion: baseline?.version ?? null, totals },
+    details: { jurisdictionId: draft.jurisdictionId, version: draft.version, revision: draft.revision, againstVersion: current?.version ?? null, againstBaseline: !current, totals },
   });
   return {
     draft: { id: draft.id, version: draft.version, revision: draft.revision },
-    published: baseline ? { id: baseline.id, version: baseline.version } : null,
+    published: current ? { id: current.id, version: current.version } : null,
+    comparedWith: current ? { kind: 'published', version: current.version } : { kind: 'baseline', editions: baselineLabel(draft) },
     subjects,
     totals,
     adminNotes: adminNotesFor(draft.rules),

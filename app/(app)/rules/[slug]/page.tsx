@@ -63,6 +63,9 @@ export default async function JurisdictionRulesPage({ params }: { params: Promis
         </table>
       </section>
 
+      {versions.length === 1 && (
+        <p className="mt-6 text-sm"><Link href={`/rules/${slug}/diff?from=baseline&to=${versions[0].version}`} className="font-semibold underline">Compare version {versions[0].version} with the model-code baseline</Link></p>
+      )}
       {versions.length > 1 && (
         <form action={`/rules/${slug}/diff`} className="card mt-6 flex flex-wrap items-end gap-3 p-4" aria-label="Compare versions">
           <div>

@@ -7,6 +7,8 @@ import { findVersionByNumber, listVersions } from '@/db/rule-sets';
 import { DiffView } from '@/components/admin/diff-view';
 import { PageHeader } from '@/components/ui/page-header';
 import { diffRuleSets } from '@/lib/domain/rule-sets/diff';
+import { describeParameterChanges } from '@/lib/domain/params/describe';
+import { baselineLabel, baselineRuleSet } from '@/lib/services/rule-sets/comparisons';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
 import { parsePositiveInt } from '@/lib/domain/integers';
@@ -20,24 +22,33 @@ export default async function DiffPage({ params, searchParams }: { params: Promi
   const db = getDb();
   const jurisdiction = await findJurisdictionBySlug(db, slug);
   if (!jurisdiction) notFound();
-  const fromNumber = parsePositiveInt(query.from);
+  // `from=baseline`: the model codes for the version's editions, the only thing to compare a
+  // first version with before anything is published.
+  const fromBaseline = query.from === BASELINE;
+  const fromNumber = fromBaseline ? 0 : parsePositiveInt(query.from);
   const toNumber = parsePositiveInt(query.to);
   if (fromNumber === null || toNumber === null) {
     const versions = await listVersions(db, jurisdiction.id);
     return <PickVersions slug={slug} name={jurisdiction.name} versions={versions.map((v) => ({ version: v.version, status: v.status }))} from={query.from} to={query.to} />;
   }
-  const [from, to] = await Promise.all([findVersionByNumber(db, jurisdiction.id, fromNumber), findVersionByNumber(db, jurisdiction.id, toNumber)]);
-  if (!from || !to) notFound();
-  const label = (s: typeof from) => `v${s.version} (${s.status})`;
+  const to = await findVersionByNumber(db, jurisdiction.id, toNumber);
+  if (!to) notFound();
+  const from = fromBaseline ? baselineRuleSet(to) : await findVersionByNumber(db, jurisdiction.id, fromNumber);
+  if (!from) notFound();
+  const label = (s: typeof to) => `v${s.version} (${s.status})`;
+  const fromLabel = fromBaseline ? 'Model-code baseline' : label(from);
   return (
     <>
-      <PageHeader kicker={jurisdiction.name} title={`Version ${from.version} → version ${to.version}`}>
+      <PageHeader kicker={jurisdiction.name} title={fromBaseline ? `Model-code baseline → version ${to.version}` : `Version ${from.version} → version ${to.version}`}>
         <Link href={`/rules/${slug}`} className="btn-secondary">All versions</Link>
       </PageHeader>
-      <DiffView diff={diffRuleSets(from, to)} fromLabel={label(from)} toLabel={label(to)} />
+      {fromBaseline && <p className="mb-4 max-w-prose text-sm text-ink-soft" data-testid="diff-baseline">Compared with {baselineLabel(to)}: what this version changes from the model codes it was started from.</p>}
+      <DiffView diff={diffRuleSets(from, to)} parameterChanges={describeParameterChanges(from.parameters, to.parameters)} fromLabel={fromLabel} toLabel={label(to)} />
     </>
   );
 }
+
+const BASELINE = 'baseline';
 
 type VersionOption = { version: number; status: string };
 
@@ -45,11 +56,13 @@ type VersionOption = { version: number; status: string };
 function PickVersions({ slug, name, versions, from, to }: { slug: string; name: string; versions: VersionOption[]; from?: string; to?: string }) {
   const given = from !== undefined || to !== undefined;
   const newest = versions[0]?.version;
-  const previous = versions[1]?.version ?? newest;
-  const select = (id: string, label: string, preset: number | undefined) => (
+  // A single version (nothing published yet) is compared with the baseline it started from.
+  const previous = versions[1]?.version ?? BASELINE;
+  const select = (id: string, label: string, preset: number | string | undefined) => (
     <div>
       <label htmlFor={id} className="field-label">{label}</label>
       <select id={id} name={id} defaultValue={preset} className="field-input">
+        {id === 'from' && <option value={BASELINE}>the model-code baseline</option>}
         {versions.map((v) => (
           <option key={v.version} value={v.version}>v{v.version} ({v.status})</option>
         ))}

@@ -36,6 +36,7 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
       <PageHeader kicker={jurisdiction.name} title={`Rule set version ${set.version}`}>
         <Link href={`/rules/${slug}`} className="btn-secondary">All versions</Link>
         {published && published.id !== set.id && <Link href={`/rules/${slug}/diff?from=${published.version}&to=${set.version}`} className="btn-secondary">Compare with published v{published.version}</Link>}
+        {!published && <Link href={`/rules/${slug}/diff?from=baseline&to=${set.version}`} className="btn-secondary">Compare with the model-code baseline</Link>}
       </PageHeader>
       <div className="mb-4 flex flex-wrap items-center gap-3 text-sm">
         <VersionStatus status={set.status} />
