@@ -187,6 +187,11 @@ describe('pages carry content', () => {
     });
   });
 
+  it('prints a note the front elevation and the plan view share once', () => {
+    const text = allText(rendered.get('hall closet')!.pages);
+    expect(text.split('Hinge sides not in the plan are assumed').length - 1).toBe(1);
+  });
+
   it('the demo hall-closet report is shorter than the 9 pages it printed before', () => {
     // Measured on the earlier layout: 9 pages (cover, five of findings, drawings, hinges, statement).
     expect(rendered.get('hall closet')!.pageCount).toBeLessThanOrEqual(8);

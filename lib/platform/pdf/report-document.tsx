@@ -199,12 +199,9 @@ function DrawingSections({ drawings, units }: { drawings: PlanDrawings; units: U
           ))}
         </View>
       </View>
-      {[elevation, topView].map((d) => (
-        <View key={d.kind}>
-          <MissingLine paths={d.missing} />
-          {d.notes.map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
-        </View>
-      ))}
+      {/* Both views share most of their assumptions: each note once. */}
+      <MissingLine paths={[...new Set([...elevation.missing, ...topView.missing])]} />
+      {[...new Set([...elevation.notes, ...topView.notes])].map((n, i) => <Text key={i} style={s.faint}>{n}</Text>)}
       <DrawingBlock drawing={schematic} widthPt={CONTENT_WIDTH_PT} heightPt={DRAWING_HEIGHT_PT - 30} />
 
       {hinges.length === 0 ? (
