@@ -26,7 +26,8 @@ export type ReportData = {
   parameters: RuleSetParameters;
   /** Per rule key: when the jurisdiction checked the citation against its adopted text (that citation's text). */
   citationChecks?: Record<string, { citation: string; checkedOn: string }>;
-  photos: { caption: string; filename: string; image: Buffer; width: number; height: number }[];
-  documents: { caption: string; filename: string; contentType: string }[];
+  /** `addedAt`: when the file was attached to the project. */
+  photos: { caption: string; filename: string; image: Buffer; width: number; height: number; addedAt?: Date }[];
+  documents: { caption: string; filename: string; contentType: string; addedAt?: Date }[];
   preparedBy: string;
 };

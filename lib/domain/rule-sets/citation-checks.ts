@@ -76,10 +76,14 @@ export function reportDate(at: Date | string): string {
  * confidence letters are for admins; the inspector reads whether the jurisdiction checked the
  * citation against its adopted code.
  */
-export function citationStatusText(citation: Citation, checkedOn: Date | string | null): string {
+export function citationStatusText(
+  citation: Citation,
+  checkedOn: Date | string | null,
+  formatDate: (at: Date | string) => string = reportDate,
+): string {
   if (citation.code === 'common practice') return 'common practice, not a code section';
   if (citation.code === "manufacturer's instructions") return "the appliance maker's installation instructions";
-  return checkedOn ? `checked against the adopted code by the jurisdiction on ${reportDate(checkedOn)}` : 'not yet checked by the jurisdiction';
+  return checkedOn ? `checked against the adopted code by the jurisdiction on ${formatDate(checkedOn)}` : 'not yet checked by the jurisdiction';
 }
 
 /** What an admin sends to mark one citation checked, or to withdraw the mark. */

@@ -2,6 +2,7 @@ import { renderToBuffer } from '@react-pdf/renderer';
 import { createElement } from 'react';
 import { registerReportFonts, ReportDocument } from '@/lib/platform/pdf/report-document';
 import { countPdfPages, sha256Hex } from '@/lib/platform/pdf/report-code';
+import { verifyQrPng } from '@/lib/platform/pdf/verify-qr';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 
 // The code helpers live apart so request handlers use them without loading the PDF renderer.
@@ -15,6 +16,7 @@ export type RenderedReport = { pdf: Buffer; sha256: string; pageCount: number };
  */
 export async function renderReportPdf(data: ReportData): Promise<RenderedReport> {
   registerReportFonts();
-  const pdf = Buffer.from(await renderToBuffer(createElement(ReportDocument, { data }) as Parameters<typeof renderToBuffer>[0]));
+  const verifyQr = await verifyQrPng(data.verifyUrl);
+  const pdf = Buffer.from(await renderToBuffer(createElement(ReportDocument, { data, verifyQr }) as Parameters<typeof renderToBuffer>[0]));
   return { pdf, sha256: sha256Hex(pdf), pageCount: countPdfPages(pdf) };
 }

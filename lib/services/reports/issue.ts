@@ -45,7 +45,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
   const photos: ReportData['photos'] = [];
   for (const a of attachments.filter((x) => x.kind === 'photo')) {
     const image = await findObject(displayKey(a.storageKey));
-    if (image) photos.push({ caption: a.caption, filename: a.filename, image, width: a.width ?? 4, height: a.height ?? 3 });
+    if (image) photos.push({ caption: a.caption, filename: a.filename, image, width: a.width ?? 4, height: a.height ?? 3, addedAt: a.createdAt });
   }
   const data: ReportData = {
     code,
@@ -68,7 +68,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
     parameters: ruleSet.parameters,
     citationChecks,
     photos,
-    documents: attachments.filter((x) => x.kind === 'document').map((d) => ({ caption: d.caption, filename: d.filename, contentType: d.contentType })),
+    documents: attachments.filter((x) => x.kind === 'document').map((d) => ({ caption: d.caption, filename: d.filename, contentType: d.contentType, addedAt: d.createdAt })),
     preparedBy: user.name,
   };
   return { data, attachmentIds: attachments.map((a) => a.id) };
