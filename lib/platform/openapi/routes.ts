@@ -13,7 +13,9 @@ import { projectExportQuerySchema } from '@/lib/domain/exports/schema';
 import { planInputSchema } from '@/lib/domain/plan';
 import { projectDuplicateSchema, quickCheckSaveSchema } from '@/lib/domain/projects/duplicate';
 import { projectInputSchema, projectListQuerySchema, projectUpdateSchema } from '@/lib/domain/projects/schema';
+import { inspectionFilterSchema } from '@/lib/domain/reports/inspection-filter';
 import { reviewSchema } from '@/lib/domain/reports/review-schema';
+import { answerSchema } from '@/lib/domain/reports/thread';
 import { sendSchema } from '@/lib/domain/reports/send-schema';
 import { citationCheckSchema } from '@/lib/domain/rule-sets/citation-checks';
 import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
@@ -104,9 +106,9 @@ export const apiRoutes: Record<string, RouteEntry> = {
     post: { summary: 'Check a plan against a jurisdiction (stores nothing)', access: 'signed-in', body: json(evaluationRequestSchema.extend({ plan: planDoc })), ok: ok200('Rule set, summary and findings.'), notFound: 'No published rule set for the jurisdiction.', rateLimited: 'Evaluations a minute per API token (1,200) and per person (2,400).' },
   },
   'health/route.ts': { get: { summary: 'Whether the app and its database answer', access: 'public', ok: ok200('Up (503 when the database is down).') } },
-  'inspections/route.ts': { get: { summary: "The inspector's reports to review", access: inspectorsAndAdmins, ok: ok200('Inspections.') } },
+  'inspections/route.ts': { get: { summary: "The inspector's reports to review", access: inspectorsAndAdmins, query: inspectionFilterSchema, ok: ok200('Inspections, a page of them, with the total.') } },
   'inspections/[reportId]/route.ts': { get: { summary: 'One report to review', access: inspectorsAndAdmins, ok: ok200('The report and its outcome.') } },
-  'inspections/[reportId]/review/route.ts': { post: { summary: 'Record an inspection outcome', access: ['inspector'], body: json(reviewSchema), ok: ok201('The outcome as recorded.'), conflict: 'An outcome is already recorded.' } },
+  'inspections/[reportId]/review/route.ts': { post: { summary: 'Record an inspection outcome', access: ['inspector'], body: json(reviewSchema), ok: ok201('The outcome as recorded.'), conflict: 'An outcome is already recorded: revise it explicitly (revise: true).' } },
   'invitations/route.ts': {
     get: { summary: 'Open invitations', access: installersAndAdmins, ok: ok200('Invitations.') },
     post: { summary: 'Invite a person', access: installersAndAdmins, body: json(invitationSchema), ok: ok201('The invitation.'), conflict: 'The person already has an account.', rateLimited: 'Invitation e-mails an hour.' },
@@ -162,6 +164,10 @@ export const apiRoutes: Record<string, RouteEntry> = {
   },
   'projects/[id]/plans/[number]/route.ts': { get: { summary: 'One plan revision', access: installersAndAdmins, ok: ok200('The revision.') } },
   'quick-checks/route.ts': { post: { summary: 'Save a quick check as a project', access: installersAndAdmins, body: json(quickCheckSaveSchema), ok: ok201('The project and its check.') } },
+  'reports/[code]/answers/route.ts': {
+    get: { summary: "A sent report's thread: sends, outcomes and answers in order, with what changed", access: ['installer', 'inspector', 'admin'], ok: ok200('The thread.') },
+    post: { summary: 'Answer "corrections needed" with a newer check and a note', access: installers, body: json(answerSchema), ok: ok201('The answer and the report issued for its check.'), conflict: 'The report is not waiting for corrections, or the check is not newer.', rateLimited: 'Report e-mails per company an hour.' },
+  },
   'reports/[code]/route.ts': { get: { summary: 'Public facts of an issued report', access: 'public', ok: ok200('The report facts.'), rateLimited: 'Report look-ups per client a minute.' } },
   'reports/[code]/pdf/route.ts': { get: { summary: "Download an issued report's PDF", access: 'signed-in', ok: { status: 200, description: 'The PDF as issued.', contentType: 'application/pdf' } } },
   'reports/[code]/verify/route.ts': {
