@@ -6,6 +6,7 @@ import { useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { projectInputSchema, type ProjectInput } from '@/lib/domain/projects/schema';
+import { BusyButton } from '@/components/busy-button';
 
 type Jurisdiction = { slug: string; name: string; editions: { building: string; electrical: string; plumbing: string } };
 
@@ -115,9 +116,9 @@ export function ProjectForm({
       {field('notes', 'Notes (optional)', <textarea {...register('notes')} {...aria('notes')} rows={3} className="field-input" />)}
       {formError && <p role="alert" className="rounded-md bg-status-fail/10 px-3 py-2 text-sm text-status-fail">{formError}</p>}
       <div className="flex flex-wrap gap-3">
-        <button type="submit" className="btn-primary" disabled={busy} aria-busy={busy} data-testid="project-submit">
-          {busy ? (project ? 'Saving…' : 'Creating…') : project ? 'Save project' : 'Create project'}
-        </button>
+        <BusyButton type="submit" className="btn-primary" busy={busy} busyText={project ? 'Saving…' : 'Creating…'} data-testid="project-submit">
+          {project ? 'Save project' : 'Create project'}
+        </BusyButton>
         {project && (
           <button type="button" className="btn-secondary" onClick={toggleArchive}>
             {project.archived ? 'Restore project' : 'Archive project'}

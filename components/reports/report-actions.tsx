@@ -5,6 +5,7 @@ import { useRef, useState } from 'react';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { NOTE_MAX_CHARS, sendSchema } from '@/lib/domain/reports/send-schema';
 import { UnconfirmedNotice } from '@/components/auth/resend-confirmation';
+import { BusyButton } from '@/components/busy-button';
 
 type Sent = { to: string; toInspector: boolean; report: { code: string } };
 
@@ -177,9 +178,9 @@ export function ReportActions({
                 usually quicker than a correction notice.
               </p>
               <div className="mt-3 flex flex-wrap gap-2">
-                <button type="button" className="btn-primary" disabled={busy} aria-busy={busy} onClick={() => void send({ ...confirmed, failing: true })}>
-                  {busy ? 'Sending…' : 'Send with failing findings'}
-                </button>
+                <BusyButton className="btn-primary" busy={busy} busyText="Sending…" onClick={() => void send({ ...confirmed, failing: true })}>
+                  Send with failing findings
+                </BusyButton>
                 <button type="button" className="btn-secondary" disabled={busy} onClick={cancel}>Cancel</button>
               </div>
             </div>
@@ -188,9 +189,9 @@ export function ReportActions({
               <p className="font-semibold">Send this report to {confirming.to}?</p>
               <p className="mt-1">{confirming.text}</p>
               <div className="mt-3 flex flex-wrap gap-2">
-                <button type="button" className="btn-primary" disabled={busy} aria-busy={busy} onClick={() => void send({ ...confirmed, address: true })}>
-                  {busy ? 'Sending…' : `Send to ${confirming.to}`}
-                </button>
+                <BusyButton className="btn-primary" busy={busy} busyText="Sending…" onClick={() => void send({ ...confirmed, address: true })}>
+                  {`Send to ${confirming.to}`}
+                </BusyButton>
                 <button type="button" className="btn-secondary" disabled={busy} onClick={cancel}>Cancel</button>
               </div>
             </div>
@@ -201,9 +202,9 @@ export function ReportActions({
                   This check has {failing} failing finding{failing === 1 ? '' : 's'}; you will be asked to confirm before it is sent.
                 </p>
               )}
-              <button type="submit" className="btn-primary" disabled={busy} aria-busy={busy} data-testid="send-report">
-                {busy ? 'Sending…' : inspectorEmail ? 'Send to inspector' : 'Send by e-mail'}
-              </button>
+              <BusyButton type="submit" className="btn-primary" busy={busy} busyText="Sending…" data-testid="send-report">
+                {inspectorEmail ? 'Send to inspector' : 'Send by e-mail'}
+              </BusyButton>
             </>
           )}
           {msg && <p role={msg.ok ? 'status' : 'alert'} className={`text-sm font-semibold ${msg.ok ? 'text-status-pass' : 'text-status-fail'}`} data-testid="send-result">{msg.text}</p>}
