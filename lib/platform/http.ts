@@ -133,16 +133,22 @@ function isUnstorableText(err: unknown): boolean {
   return code === '22021' || code === '22P05';
 }
 
+/** An error answer; inside a request it names the request (`requestId`), as its X-Request-Id header does. */
+function errorJson(body: Record<string, unknown>, init: number | ResponseInit): Response {
+  const requestId = currentRequestId();
+  return json(requestId ? { ...body, requestId } : body, init);
+}
+
 export function errorResponse(err: unknown): Response {
-  if (err instanceof ValidationError) return json({ error: err.message, errors: err.errors }, 400);
+  if (err instanceof ValidationError) return errorJson({ error: err.message, errors: err.errors }, 400);
   if (isUnstorableText(err)) {
-    return json({ error: 'The request was refused.', errors: [{ path: '(request)', message: 'Text in the request cannot contain the NUL character (U+0000); remove it and try again.' }] }, 400);
+    return errorJson({ error: 'The request was refused.', errors: [{ path: '(request)', message: 'Text in the request cannot contain the NUL character (U+0000); remove it and try again.' }] }, 400);
   }
-  if (err instanceof UnauthorizedError) return json({ error: err.message }, 401);
-  if (err instanceof ForbiddenError) return json({ error: err.message }, 403);
-  if (err instanceof NotFoundError) return json({ error: err.message }, 404);
+  if (err instanceof UnauthorizedError) return errorJson({ error: err.message }, 401);
+  if (err instanceof ForbiddenError) return errorJson({ error: err.message }, 403);
+  if (err instanceof NotFoundError) return errorJson({ error: err.message }, 404);
   if (err instanceof ConfirmationRequiredError) {
-    return json(
+    return errorJson(
       {
         error: err.message,
         errors: [{ path: err.path, message: err.message }],
@@ -153,29 +159,30 @@ export function errorResponse(err: unknown): Response {
       409,
     );
   }
-  if (err instanceof ConflictError) return json({ error: err.message }, 409);
-  if (err instanceof PayloadTooLargeError) return json({ error: err.message }, 413);
+  if (err instanceof ConflictError) return errorJson({ error: err.message }, 409);
+  if (err instanceof PayloadTooLargeError) return errorJson({ error: err.message }, 413);
   // RFC 6585 §4: 429 with how long to wait.
-  if (err instanceof TooManyRequestsError) return json({ error: err.message }, { status: 429, headers: { 'retry-after': String(err.retryAfterSeconds) } });
-  if (err instanceof ServiceUnavailableError) return json({ error: err.message }, { status: 503, headers: { 'retry-after': '5' } });
+  if (err instanceof TooManyRequestsError) return errorJson({ error: err.message }, { status: 429, headers: { 'retry-after': String(err.retryAfterSeconds) } });
+  if (err instanceof ServiceUnavailableError) return errorJson({ error: err.message }, { status: 503, headers: { 'retry-after': '5' } });
   if (isDatabaseDown(err)) {
-    return json({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);
+    return errorJson({ error: 'The database is not reachable right now; nothing was changed. Try again in a moment.' }, 503);
   }
   const requestId = currentRequestId() ?? randomUUID();
   log.error({ err: err instanceof DomainError ? { message: err.message } : err, requestId }, 'request failed');
   return json({ error: 'Something went wrong on our side.', requestId }, 500);
 }
 
-/** Names the request in its answer: the X-Request-Id header always, and `requestId` in an error's JSON body. */
-async function stamped(response: Response, requestId: string): Promise<Response> {
-  const headers = new Headers(response.headers);
-  headers.set('x-request-id', requestId);
-  const type = headers.get('content-type') ?? '';
-  if (response.status >= 400 && type.includes('application/json')) {
-    const body = (await response.json()) as Record<string, unknown>;
-    return new Response(JSON.stringify({ ...body, requestId: body.requestId ?? requestId }), { status: response.status, statusText: response.statusText, headers });
+/** Names the request in its answer's X-Request-Id header (error bodies name it too, through errorJson). */
+function stamped(response: Response, requestId: string): Response {
+  try {
+    response.headers.set('x-request-id', requestId);
+    return response;
+  } catch {
+    // A response whose headers are immutable (one passed through from fetch): copy it.
+    const headers = new Headers(response.headers);
+    headers.set('x-request-id', requestId);
+    return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
   }
-  return new Response(response.body, { status: response.status, statusText: response.statusText, headers });
 }
 
 type Handler<C> = (request: Request, context: C) => Promise<Response>;

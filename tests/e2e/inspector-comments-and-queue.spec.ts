@@ -22,7 +22,7 @@ async function sendReport(page: Page, tag: string) {
   const projectId = ((await project.json()) as { id: string }).id;
   expect((await page.request.post(`/api/projects/${projectId}/plans`, { data: { plan: hallClosetPassPlan } })).status()).toBe(201);
   const check = (await (await page.request.post(`/api/projects/${projectId}/checks`, { data: {} })).json()) as { id: string; findings: Array<{ ruleKey: string; title: string; status: string }> };
-  const sent = await page.request.post(`/api/checks/${check.id}/send`, { data: { to: 'inspector@nookpass.demo' } });
+  const sent = await page.request.post(`/api/checks/${check.id}/send`, { data: { to: 'inspector@nookpass.demo', confirmFailingFindings: true } });
   expect(sent.status()).toBe(201);
   const code = ((await sent.json()) as { report: { code: string } }).report.code;
   return { projectId, checkId: check.id, findings: check.findings, code, permit };

@@ -119,7 +119,7 @@ describe('mail relay and file storage down', () => {
   it('says the mail server is unreachable, keeps the check and the report, and sends on retry once it is back', async () => {
     await run('bash', ['scripts/fakes.sh', 'stop', 'smtp', suffix]);
     try {
-      const res = await api(`/api/checks/${checkId}/send`, postJson({}, { cookie }));
+      const res = await api(`/api/checks/${checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie }));
       expect(res.status).toBe(503);
       expect(res.body.error).toMatch(/mail server is not reachable/i);
       const failed = await db.selectFrom('report_sends').select(['status', 'error']).where('project_id', '=', projectId).orderBy('created_at', 'desc').executeTakeFirstOrThrow();
@@ -128,7 +128,7 @@ describe('mail relay and file storage down', () => {
     } finally {
       await run('bash', ['scripts/fakes.sh', 'start', 'smtp', suffix]);
     }
-    const retry = await api(`/api/checks/${checkId}/send`, postJson({}, { cookie }));
+    const retry = await api(`/api/checks/${checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie }));
     expect(retry.status).toBe(201);
   });
 

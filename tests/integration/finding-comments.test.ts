@@ -27,7 +27,7 @@ beforeAll(async () => {
   passed = findings.find((f) => f.status === 'pass')!;
   failing = findings.find((f) => f.status !== 'pass' && f.status !== 'not-applicable');
   expect(passed).toBeTruthy();
-  const send = await api(`/api/checks/${checkId}/send`, postJson({ to: 'inspector@nookpass.demo' }, { cookie: installer }));
+  const send = await api(`/api/checks/${checkId}/send`, postJson({ to: 'inspector@nookpass.demo', confirmFailingFindings: true }, { cookie: installer }));
   expect(send.status).toBe(201);
   reportId = (await db.selectFrom('reports').select('id').where('code', '=', send.body.report.code).executeTakeFirstOrThrow()).id;
 }, 90_000);

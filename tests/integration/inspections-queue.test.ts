@@ -21,7 +21,7 @@ async function sendProject(label: keyof typeof sent, plan: unknown) {
   expect(p.status).toBe(201);
   expect((await api(`/api/projects/${p.body.id}/plans`, postJson({ plan }, { cookie: installer }))).status).toBe(201);
   const checkId = (await api(`/api/projects/${p.body.id}/checks`, postJson({}, { cookie: installer }))).body.id;
-  const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'inspector@nookpass.demo' }, { cookie: installer }));
+  const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'inspector@nookpass.demo', confirmFailingFindings: true }, { cookie: installer }));
   expect(res.status).toBe(201);
   const code = res.body.report.code as string;
   const reportId = (await db.selectFrom('reports').select('id').where('code', '=', code).executeTakeFirstOrThrow()).id;

@@ -32,7 +32,7 @@ beforeAll(async () => {
   expect(p.status).toBe(201);
   expect((await api(`/api/projects/${p.body.id}/plans`, postJson({ plan: longExhaustFailPlan }, { cookie: installer }))).status).toBe(201);
   const checkId = (await api(`/api/projects/${p.body.id}/checks`, postJson({}, { cookie: installer }))).body.id;
-  const sent = await api(`/api/checks/${checkId}/send`, postJson({}, { cookie: installer }));
+  const sent = await api(`/api/checks/${checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie: installer }));
   expect(sent.status, JSON.stringify(sent.body)).toBe(201);
   code = sent.body.report.code;
   reportId = (await db.selectFrom('reports').select('id').where('code', '=', code).executeTakeFirstOrThrow()).id;

@@ -229,7 +229,7 @@ describe('sending to the inspector and the review', () => {
   let code: string;
 
   it('mails the report with the PDF attached and the verification link', async () => {
-    const res = await api(`/api/checks/${checkId}/send`, postJson({ note: 'Ready for rough-in.' }, { cookie: installer }));
+    const res = await api(`/api/checks/${checkId}/send`, postJson({ note: 'Ready for rough-in.', confirmFailingFindings: true }, { cookie: installer }));
     expect(res.status).toBe(201);
     expect(res.body.to).toBe('inspector@nookpass.demo');
     code = res.body.report.code;
@@ -246,7 +246,7 @@ describe('sending to the inspector and the review', () => {
 
   it('says so when the mail server refuses, keeps the check and the report, and records the failed send', async () => {
     const before = await db.selectFrom('reports').select(db.fn.countAll<number>().as('n')).executeTakeFirstOrThrow();
-    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid', confirm: true }, { cookie: installer }));
+    const res = await api(`/api/checks/${checkId}/send`, postJson({ to: 'nobody@mailbox.invalid', confirm: true, confirmFailingFindings: true }, { cookie: installer }));
     expect(res.status).toBe(400);
     expect(res.body.errors[0]).toMatchObject({ path: 'to', message: expect.stringContaining('refused nobody@mailbox.invalid') });
     const failed = await db.selectFrom('report_sends').selectAll().where('to_email', '=', 'nobody@mailbox.invalid').executeTakeFirstOrThrow();
@@ -309,7 +309,7 @@ describe('photos seen outside the company', () => {
     expect(source.exif?.includes(gpsPointer)).toBe(true);
     const res = await upload(installer, 'site-with-position.jpg', jpeg, 'image/jpeg', 'Photo with a GPS position');
     expect(res.status).toBe(201);
-    const sent = await api(`/api/checks/${checkId}/send`, postJson({}, { cookie: installer }));
+    const sent = await api(`/api/checks/${checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie: installer }));
     expect(sent.status).toBe(201);
 
     const own = await raw(`/api/attachments/${res.body.id}`, installer);

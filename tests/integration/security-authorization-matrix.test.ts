@@ -144,7 +144,7 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/checks/[id]':                        { path: (i) => `/api/checks/${i.checkId}`, expect: a(401, 200, 404, 403, 403, 200) },
   'GET /api/checks/[id]/findings.csv':           { path: (i) => `/api/checks/${i.checkId}/findings.csv`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/checks/[id]/report':                { path: (i) => `/api/checks/${i.checkId}/report`, expect: a(401, 200, 404, 403, 403, 200) },
-  'POST /api/checks/[id]/send':                  { path: (i) => `/api/checks/${i.checkId}/send`, send: { json: () => ({ note: 'Sent by the authorization matrix.' }) }, expect: a(401, 201, 404, 403, 403, 403) },
+  'POST /api/checks/[id]/send':                  { path: (i) => `/api/checks/${i.checkId}/send`, send: { json: () => ({ note: 'Sent by the authorization matrix.', confirmFailingFindings: true }) }, expect: a(401, 201, 404, 403, 403, 403) },
   // Public on purpose: whoever holds the paper can confirm it.
   'GET /api/reports/[code]':                     { path: (i) => `/api/reports/${i.reportCode}`, expect: a(200, 200, 200, 200, 200, 200) },
   'POST /api/reports/[code]/verify':             { path: (i) => `/api/reports/${i.reportCode}/verify`, send: { bytes: () => new TextEncoder().encode('%PDF-1.4 not the report') }, expect: a(200, 200, 200, 200, 200, 200) },
@@ -406,7 +406,7 @@ beforeAll(async () => {
   await must(await api(`/api/projects/${ids.projectId}/plans`, postJson({ plan: longExhaustFailPlan }, { cookie: owner })), 201, 'plan');
   ids.checkId = (await must(await api(`/api/projects/${ids.projectId}/checks`, postJson({}, { cookie: owner })), 201, 'check')).id;
   ids.attachmentId = await uploadPhoto(owner, '#336699');
-  const sent = await must(await api(`/api/checks/${ids.checkId}/send`, postJson({}, { cookie: owner })), 201, 'send');
+  const sent = await must(await api(`/api/checks/${ids.checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie: owner })), 201, 'send');
   ids.reportCode = sent.report.code;
   ids.reportId = (await db.selectFrom('reports').select('id').where('code', '=', ids.reportCode).executeTakeFirstOrThrow()).id;
   ids.attachmentToDeleteId = await uploadPhoto(owner, '#993366');

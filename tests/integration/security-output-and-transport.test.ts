@@ -51,7 +51,7 @@ beforeAll(async () => {
   form.set('file', new Blob([new Uint8Array(await sharp({ create: { width: 40, height: 30, channels: 3, background: '#558844' } }).jpeg().toBuffer())], { type: 'image/jpeg' }), 'markup.jpg');
   form.set('caption', MARKUP_CAPTION);
   expect((await fetch(`${baseUrl}/api/projects/${projectId}/attachments`, { method: 'POST', headers: { cookie: installer }, body: form })).status).toBe(201);
-  const sent = await api(`/api/checks/${checkId}/send`, postJson({ note: MARKUP_COMMENT }, { cookie: installer }));
+  const sent = await api(`/api/checks/${checkId}/send`, postJson({ note: MARKUP_COMMENT, confirmFailingFindings: true }, { cookie: installer }));
   expect(sent.status, JSON.stringify(sent.body)).toBe(201);
   reportCode = sent.body.report.code;
   reportId = (await db.selectFrom('reports').select('id').where('code', '=', reportCode).executeTakeFirstOrThrow()).id;
