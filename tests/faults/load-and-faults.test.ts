@@ -4,6 +4,7 @@ import { promisify } from 'node:util';
 import autocannon from 'autocannon';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { generateApiToken } from '@/lib/platform/auth/api-token';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
 import { api, appDb, baseUrl, postJson, signIn } from '../integration/helpers';
 
@@ -31,8 +32,44 @@ async function counts() {
   return { plan_revisions: await n('plan_revisions'), checks: await n('checks'), attachments: await n('attachments'), reports: await n('reports') };
 }
 
+/*
+ * The load comes from 50 integrations, each with its own person and token: evaluations are limited per token and
+ * per person (lib/services/usage-limits.ts), and one token at hundreds a second would be refused by design.
+ */
+const LOAD_CLIENTS = 50;
+let loadTokens: string[] = [];
+let nextToken = 0;
+const loadRequests = (): autocannon.Request[] => [
+  {
+    method: 'POST',
+    path: '/api/evaluations',
+    body: evalBody,
+    setupRequest: (req) => ({
+      ...req,
+      headers: { ...req.headers, 'content-type': 'application/json', authorization: `Bearer ${loadTokens[nextToken++ % loadTokens.length]}` },
+    }),
+  },
+];
+
+async function newLoadTokens(organizationId: string): Promise<string[]> {
+  const tag = Date.now().toString(36);
+  const users = await db
+    .insertInto('users')
+    .values(Array.from({ length: LOAD_CLIENTS }, (_, i) => ({ email: `load-${tag}-${i}@example.test`, name: `Load client ${i} (test)`, role: 'installer' as const, organization_id: organizationId, password_hash: '!' })))
+    .returning('id')
+    .execute();
+  const tokens = users.map(() => generateApiToken());
+  await db
+    .insertInto('api_tokens')
+    .values(users.map((u, i) => ({ user_id: u.id, name: 'load test', token_hash: tokens[i].hash, token_prefix: tokens[i].displayPrefix, expires_at: new Date(Date.now() + 86_400_000) })))
+    .execute();
+  return tokens.map((t) => t.token);
+}
+
 beforeAll(async () => {
   cookie = await signIn('installer2@nookpass.demo');
+  const org = await db.selectFrom('users').select('organization_id').where('email', '=', 'installer2@nookpass.demo').executeTakeFirstOrThrow();
+  loadTokens = await newLoadTokens(org.organization_id!);
   token = (await api('/api/tokens', postJson({ name: 'fault tests' }, { cookie }))).body.token;
   projectId = (await api('/api/projects', postJson({ name: 'Fault test project', siteAddress: '1 Fault Lane', jurisdiction: 'demo-county' }, { cookie }))).body.id;
   await api(`/api/projects/${projectId}/plans`, postJson({ plan: hallClosetPassPlan }, { cookie }));
@@ -48,11 +85,9 @@ afterAll(async () => {
 describe('load', () => {
   it('serves 50 concurrent clients on /api/evaluations for 30 s with no errors', async () => {
     const r = await load({
-      url: `${baseUrl}/api/evaluations`,
-      method: 'POST',
-      headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
-      body: evalBody,
-      connections: 50,
+      url: baseUrl,
+      requests: loadRequests(),
+      connections: LOAD_CLIENTS,
       duration: Number(process.env.NOOKPASS_LOAD_SECONDS ?? 30),
     });
     figures.load = { connections: 50, seconds: r.duration, requests: r.requests.total, rps: Math.round(r.requests.average), p50ms: r.latency.p50, p99ms: r.latency.p99, errors: r.errors, timeouts: r.timeouts, non2xx: r.non2xx };
@@ -67,10 +102,8 @@ describe('PostgreSQL stopped during load', () => {
   it('answers 503 with a clear message while it is down, recovers within seconds, and loses nothing', async () => {
     const before = await counts();
     const background = load({
-      url: `${baseUrl}/api/evaluations`,
-      method: 'POST',
-      headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
-      body: evalBody,
+      url: baseUrl,
+      requests: loadRequests(),
       connections: 10,
       duration: 14,
     });
