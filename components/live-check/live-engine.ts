@@ -1,7 +1,7 @@
 // The live check's engine side, loaded with a dynamic import once the form is usable: the same
 // lib/domain engine, sizing, fixes and drawings the server uses, run on the plan as it is being typed.
 import { frontElevation, planView, type Drawing } from '@/lib/domain/drawing';
-import { evaluate, type Evaluation, type Finding, type RuleSetForEvaluation } from '@/lib/domain/engine';
+import { evaluate, withoutAdminNotes, type Evaluation, type Finding, type RuleSetForEvaluation } from '@/lib/domain/engine';
 import { factsByName } from '@/lib/domain/facts';
 import { labelForPath, parsePlan, registryEntries, type FieldError, type Plan, type PlanInput, type PlanSectionId } from '@/lib/domain/plan';
 import { planFixes, type PlanFix } from '@/lib/domain/remedies/plan-fixes';
@@ -127,7 +127,8 @@ export async function runLive(ruleSet: RuleSetForEvaluation, input: PlanInput): 
     parsed = parsePlan(candidate);
   }
   if (!parsed.ok) return { errors: parsed.errors };
-  const evaluation = await evaluate(ruleSet, parsed.plan);
+  // Installers see what to do, never the rule-set admin's notes — as POST /api/evaluations answers them.
+  const evaluation = withoutAdminNotes(await evaluate(ruleSet, parsed.plan));
   const waiting = removed.map((e) => ({
     path: e.path,
     message: e.message,

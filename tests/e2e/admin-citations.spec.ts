@@ -76,12 +76,14 @@ test('an admin marks citations checked against the adopted text, and confirms pu
   // Publishing asks for confirmation and lists what is still unchecked; going back publishes nothing.
   await page.getByLabel('Changelog note (shown to installers)').fill('Version 1 (test): model codes, some citations checked.');
   await page.getByRole('button', { name: `Publish version ${draft.version}` }).click();
-  const confirm = page.getByTestId('publish-confirm');
+  // One publish dialog asks about everything: changelog, impact, and the citations still unchecked.
+  const confirm = page.getByTestId('publish-dialog');
   await expect(confirm).toBeVisible();
   // Two rules may share a section (IMC 504.6 covers the closet opening and the exhaust rate): each line names its rule.
   await expect(confirm.getByTestId('publish-confirm-list')).toContainText(`${left.citation} — ${left.title}`);
   await expect(confirm.getByTestId('publish-confirm-list')).not.toContainText(`${checked.citation} — ${checked.title}`);
-  await expectAccessible(page, '[data-testid="publish-confirm"]');
+  await expect(confirm.getByTestId('publish-confirm')).toContainText('Citations not yet checked against the adopted text');
+  await expectAccessible(page, '[data-testid="publish-dialog"]');
   await page.screenshot({ path: `${shots}/admin-publish-confirm.png`, fullPage: true });
   await confirm.getByRole('button', { name: 'Go back and check them' }).click();
   await expect(confirm).toHaveCount(0);

@@ -15,6 +15,7 @@ let installer: string;
 let other: string;
 let inspector: string;
 let cityInspector: string;
+let cityInspectorEmail: string;
 let projectId: string;
 let checkId: string;
 
@@ -65,7 +66,8 @@ async function countAttachments() {
 
 beforeAll(async () => {
   const city = await db.selectFrom('jurisdictions').select('id').where('slug', '=', 'demo-city').executeTakeFirstOrThrow();
-  const email = `city-inspector-${Date.now()}@example.test`;
+  cityInspectorEmail = `city-inspector-${Date.now()}@example.test`;
+  const email = cityInspectorEmail;
   await db.insertInto('users').values({ email, name: 'City Test Inspector', role: 'inspector', jurisdiction_id: city.id, password_hash: await bcrypt.hash('city-inspector-pw', 4) }).execute();
   [installer, other, inspector, cityInspector] = await Promise.all([
     signIn('installer@nookpass.demo'),
@@ -79,6 +81,8 @@ beforeAll(async () => {
   checkId = (await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }))).body.id;
 });
 afterAll(async () => {
+  // Demo City has no inspector of its own in the demo; leave it so for the tests that say so (the person's records stay).
+  await db.updateTable('users').set({ deactivated_at: new Date() }).where('email', '=', cityInspectorEmail).execute();
   await db.destroy();
 });
 
