@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { sql } from 'kysely';
 import { afterAll, describe, expect, it } from 'vitest';
-import { api, appDb, attemptSignIn, baseUrl, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, attemptSignIn, baseUrl, deactivateTestPerson, postJson, signIn, testAddress } from './helpers';
 
 const db = appDb();
 afterAll(async () => {
@@ -288,8 +288,7 @@ describe('people administration', () => {
     expect((await patchPerson(installer.id, { jurisdiction: 'demo-city' }, admin)).body.errors[0].path).toBe('jurisdiction');
     const self = await db.selectFrom('users').select('id').where('email', '=', 'admin@nookpass.demo').executeTakeFirstOrThrow();
     expect((await patchPerson(self.id, { active: false }, admin)).status).toBe(409);
-    // Demo City has no inspector of its own in the demo; leave it so (the person's records stay).
-    await db.updateTable('users').set({ deactivated_at: new Date() }).where('id', '=', row.id).execute();
+    await deactivateTestPerson(db, email);
   });
 });
 

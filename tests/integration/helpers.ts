@@ -61,6 +61,25 @@ export async function createScratchDb(): Promise<{ db: DB; url: string; drop: ()
   };
 }
 
+/** Retries `attempt` until it gives a value (not null) or `ms` pass: for what the app learns of a moment after it happens. */
+export async function until<T>(what: string, attempt: () => Promise<T | null>, ms: number, every = 50): Promise<{ value: T; ms: number }> {
+  const start = Date.now();
+  for (;;) {
+    const value = await attempt();
+    if (value !== null) return { value, ms: Date.now() - start };
+    if (Date.now() - start > ms) throw new Error(`${what}: not within ${ms} ms`);
+    await new Promise((resolve) => setTimeout(resolve, every));
+  }
+}
+
+/**
+ * Switches off a person a test made, keeping their records: Demo City has no inspector of its own in the demo,
+ * and the tests that say so must find it that way whatever ran before them.
+ */
+export async function deactivateTestPerson(db: DB, email: string): Promise<void> {
+  await db.updateTable('users').set({ deactivated_at: new Date() }).where('email', '=', email).execute();
+}
+
 /** The database the served app uses (already migrated and seeded by npm test). */
 export function appDb(): DB {
   return createDb(appDatabaseUrl(), 2);

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { withoutMetadataKey } from '@/db/attachments';
 import { deleteObject, findObject } from '@/lib/platform/storage';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPerson, postJson, signIn } from './helpers';
 
 const db = appDb();
 const inbox = process.env.NOOKPASS_INBOX_URL ?? 'http://127.0.0.1:54326';
@@ -15,7 +15,7 @@ let installer: string;
 let other: string;
 let inspector: string;
 let cityInspector: string;
-let cityInspectorEmail: string;
+const cityInspectorEmail = `city-inspector-${Date.now()}@example.test`;
 let projectId: string;
 let checkId: string;
 
@@ -66,7 +66,6 @@ async function countAttachments() {
 
 beforeAll(async () => {
   const city = await db.selectFrom('jurisdictions').select('id').where('slug', '=', 'demo-city').executeTakeFirstOrThrow();
-  cityInspectorEmail = `city-inspector-${Date.now()}@example.test`;
   const email = cityInspectorEmail;
   await db.insertInto('users').values({ email, name: 'City Test Inspector', role: 'inspector', jurisdiction_id: city.id, password_hash: await bcrypt.hash('city-inspector-pw', 4) }).execute();
   [installer, other, inspector, cityInspector] = await Promise.all([
@@ -81,8 +80,7 @@ beforeAll(async () => {
   checkId = (await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }))).body.id;
 });
 afterAll(async () => {
-  // Demo City has no inspector of its own in the demo; leave it so for the tests that say so (the person's records stay).
-  await db.updateTable('users').set({ deactivated_at: new Date() }).where('email', '=', cityInspectorEmail).execute();
+  await deactivateTestPerson(db, cityInspectorEmail);
   await db.destroy();
 });
 

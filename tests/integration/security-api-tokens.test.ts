@@ -3,7 +3,7 @@ import bcrypt from 'bcryptjs';
 import { sql } from 'kysely';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createMigrator } from '@/db/migrator';
-import { api, appDb, createScratchDb, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, createScratchDb, postJson, signIn, testAddress, until } from './helpers';
 
 const db = appDb();
 afterAll(async () => {
@@ -91,11 +91,10 @@ describe('token expiry', () => {
     expect((await api('/api/me', { token: created.body.token })).status).toBe(200);
     await db.updateTable('api_tokens').set({ expires_at: sql`created_at + interval '1 millisecond'` }).where('id', '=', created.body.id).execute();
     // The app server keeps token holders in memory and hears of this change from the database a moment later.
-    let res = await api('/api/me', { token: created.body.token });
-    for (const start = Date.now(); res.status === 200 && Date.now() - start < 1000; ) {
-      await new Promise((resolve) => setTimeout(resolve, 25));
-      res = await api('/api/me', { token: created.body.token });
-    }
+    const { value: res } = await until('the expired token refused', async () => {
+      const answer = await api('/api/me', { token: created.body.token });
+      return answer.status === 200 ? null : answer;
+    }, 1000, 25);
     expect(res.status).toBe(401);
     expect(res.body.error).toMatch(/^The API token expired on \d{4}-\d{2}-\d{2}\. Create a new one on the Account page\.$/);
     expect((await api('/api/evaluations', postJson({}, { token: created.body.token }))).status).toBe(401);

@@ -5,7 +5,7 @@ import bcrypt from 'bcryptjs';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPerson, postJson, signIn, testAddress } from './helpers';
 
 /*
  * Who may do what, for every route handler and every page, from the file system: a route file,
@@ -365,13 +365,12 @@ async function uploadPhoto(cookie: string, shade: string): Promise<string> {
   return body.id;
 }
 
-let cityEmail: string;
+const cityEmail = `matrix-city-inspector-${randomBytes(4).toString('hex')}@example.test`;
 
 beforeAll(async () => {
   // The demo company's first installer owns it (as the demo seed records); set here too, so this file does not depend on the seed's age.
   await db.updateTable('users').set({ is_owner: true }).where('email', '=', 'installer@nookpass.demo').execute();
   const city = await db.selectFrom('jurisdictions').select('id').where('slug', '=', 'demo-city').executeTakeFirstOrThrow();
-  cityEmail = `matrix-city-inspector-${randomBytes(4).toString('hex')}@example.test`;
   await db
     .insertInto('users')
     .values({ email: cityEmail, name: 'Matrix City Inspector', role: 'inspector', jurisdiction_id: city.id, password_hash: await bcrypt.hash('matrix-city-pw', 4) })
@@ -437,8 +436,7 @@ beforeAll(async () => {
 }, 120_000);
 
 afterAll(async () => {
-  // Demo City has no inspector of its own in the demo; leave it so for the tests that say so (the person's records stay).
-  await db.updateTable('users').set({ deactivated_at: new Date() }).where('email', '=', cityEmail).execute();
+  await deactivateTestPerson(db, cityEmail);
   await db.destroy();
 });
 

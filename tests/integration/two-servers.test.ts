@@ -4,7 +4,7 @@ import { createServer } from 'node:net';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
-import { api, apiAt, appDb, baseUrl, newInstallerCompany, postJson, signIn, signOut } from './helpers';
+import { api, apiAt, appDb, baseUrl, newInstallerCompany, postJson, signIn, signOut, until } from './helpers';
 
 /*
  * NookPass as two app servers over one database and one file store: the served test app (A) and a second
@@ -25,16 +25,6 @@ function freePort(): Promise<number> {
       probe.close(() => (typeof address === 'object' && address ? resolve(address.port) : reject(new Error('no port'))));
     });
   });
-}
-
-async function until<T>(what: string, attempt: () => Promise<T | null>, ms: number, every = 50): Promise<{ value: T; ms: number }> {
-  const start = Date.now();
-  for (;;) {
-    const value = await attempt();
-    if (value !== null) return { value, ms: Date.now() - start };
-    if (Date.now() - start > ms) throw new Error(`${what}: not within ${ms} ms`);
-    await new Promise((resolve) => setTimeout(resolve, every));
-  }
 }
 
 beforeAll(async () => {
