@@ -1,7 +1,7 @@
 'use client';
 
 import { useRouter } from 'next/navigation';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
@@ -13,7 +13,7 @@ type LatestCheck = { id: string; createdAt: string; counts: string };
  * The installer answers the inspector's corrections with the project's latest check (a report is issued
  * for it) and a note. A check no newer than the one the inspector saw cannot answer: run one first.
  */
-export function AnswerForm({ reportCode, latestCheck, reviewedAt, projectId }: { reportCode: string; latestCheck: LatestCheck | null; reviewedAt: string; projectId: string }) {
+export function AnswerForm({ open, reportCode, latestCheck, reviewedAt, projectId }: { open: boolean; reportCode: string; latestCheck: LatestCheck | null; reviewedAt: string; projectId: string }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const [done, setDone] = useState<string | null>(null);
@@ -24,12 +24,16 @@ export function AnswerForm({ reportCode, latestCheck, reviewedAt, projectId }: {
   const fresh = latestCheck && +new Date(latestCheck.createdAt) > +new Date(reviewedAt);
   const noteId = `answer-note-${reportCode}`;
 
+  if (done) return <AnswerCard><p role="status" className="font-semibold text-status-pass">{done}</p></AnswerCard>;
+  if (!open) return null;
   if (!fresh) {
     return (
-      <p className="mt-3 rounded border border-brass p-3 text-sm" data-testid="answer-needs-check">
-        The inspector asked for corrections. Correct the plan, run a new check, then answer here with it and a note.{' '}
-        <a className="underline" href={`/projects/${projectId}/plan`}>Open the plan</a>
-      </p>
+      <AnswerCard>
+        <p className="mt-3 rounded border border-brass p-3 text-sm" data-testid="answer-needs-check">
+          The inspector asked for corrections. Correct the plan, run a new check, then answer here with it and a note.{' '}
+          <a className="underline" href={`/projects/${projectId}/plan`}>Open the plan</a>
+        </p>
+      </AnswerCard>
     );
   }
 
@@ -46,21 +50,26 @@ export function AnswerForm({ reportCode, latestCheck, reviewedAt, projectId }: {
   }
 
   return (
-    <form onSubmit={handleSubmit(onSubmit)} noValidate className="mt-3 space-y-3 rounded border border-rule p-4" aria-label={`Answer the corrections on report ${reportCode}`}>
-      <p className="font-semibold">Answer the corrections</p>
-      <p className="text-ink-soft">
-        With the latest check, run {new Date(latestCheck.createdAt).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' })} ({latestCheck.counts}). A report is issued for it and sent with your note.
-      </p>
-      <input type="hidden" {...register('checkId')} />
-      {errors.checkId && <p className="field-error" role="alert">{errors.checkId.message}</p>}
-      <div>
-        <label htmlFor={noteId} className="field-label">Note to the inspector: what you corrected</label>
-        <textarea id={noteId} rows={3} maxLength={ANSWER_NOTE_MAX_CHARS} className="field-input" {...register('note')} aria-describedby={errors.note ? `${noteId}-error` : undefined} />
-        {errors.note && <p id={`${noteId}-error`} className="field-error" role="alert">{errors.note.message}</p>}
-      </div>
-      {formError && <p role="alert" className="text-status-fail">{formError}</p>}
-      {done && <p role="status" className="font-semibold text-status-pass">{done}</p>}
-      <button type="submit" className="btn-primary" disabled={isSubmitting}>{isSubmitting ? 'Sending answer…' : 'Send answer'}</button>
-    </form>
+    <AnswerCard>
+      <form onSubmit={handleSubmit(onSubmit)} noValidate className="mt-3 space-y-3 rounded border border-rule p-4" aria-label={`Answer the corrections on report ${reportCode}`}>
+        <p className="font-semibold">Answer the corrections</p>
+        <p className="text-ink-soft">
+          With the latest check, run {new Date(latestCheck.createdAt).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' })} ({latestCheck.counts}). A report is issued for it and sent with your note.
+        </p>
+        <input type="hidden" {...register('checkId')} />
+        {errors.checkId && <p className="field-error" role="alert">{errors.checkId.message}</p>}
+        <div>
+          <label htmlFor={noteId} className="field-label">Note to the inspector: what you corrected</label>
+          <textarea id={noteId} rows={3} maxLength={ANSWER_NOTE_MAX_CHARS} className="field-input" {...register('note')} aria-describedby={errors.note ? `${noteId}-error` : undefined} />
+          {errors.note && <p id={`${noteId}-error`} className="field-error" role="alert">{errors.note.message}</p>}
+        </div>
+        {formError && <p role="alert" className="text-status-fail">{formError}</p>}
+        <button type="submit" className="btn-primary" disabled={isSubmitting}>{isSubmitting ? 'Sending answer…' : 'Send answer'}</button>
+      </form>
+    </AnswerCard>
   );
+}
+
+function AnswerCard({ children }: { children: ReactNode }) {
+  return <div className="card -mt-2 p-5 pt-2 text-sm">{children}</div>;
 }

@@ -36,15 +36,17 @@ export function ProjectThreads({ projectId, threads, latestCheck, canAnswer }: {
             headingId={`thread-${t.rootReport.code}`}
             heading={`Report ${t.rootReport.code}: ${STATE_TEXT[t.state.kind]}`}
           />
-          {canAnswer && t.state.kind === 'awaiting-corrections' && (
-            <div className="card -mt-2 p-5 pt-2 text-sm">
-              <AnswerForm
-                projectId={projectId}
-                reportCode={t.rootReport.code}
-                reviewedAt={t.underReview.createdAt.toISOString()}
-                latestCheck={latestCheck && { id: latestCheck.id, createdAt: latestCheck.createdAt.toISOString(), counts: latestCheck.counts }}
-              />
-            </div>
+          {canAnswer && (
+            // Kept mounted while the thread waits for the outcome, so the answer's confirmation outlives the refresh
+            // that removes the form; a new outcome (a new review) starts a fresh form.
+            <AnswerForm
+              key={t.underReview.id}
+              open={t.state.kind === 'awaiting-corrections'}
+              projectId={projectId}
+              reportCode={t.rootReport.code}
+              reviewedAt={t.underReview.createdAt.toISOString()}
+              latestCheck={latestCheck && { id: latestCheck.id, createdAt: latestCheck.createdAt.toISOString(), counts: latestCheck.counts }}
+            />
           )}
         </div>
       ))}
