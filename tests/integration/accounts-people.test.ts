@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import { sql } from 'kysely';
 import { afterAll, describe, expect, it } from 'vitest';
-import { api, appDb, attemptSignIn, baseUrl, deactivateTestPerson, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, attemptSignIn, baseUrl, deactivateTestPeople, postJson, signIn, testAddress } from './helpers';
 
 const db = appDb();
 afterAll(async () => {
@@ -288,7 +288,7 @@ describe('people administration', () => {
     expect((await patchPerson(installer.id, { jurisdiction: 'demo-city' }, admin)).body.errors[0].path).toBe('jurisdiction');
     const self = await db.selectFrom('users').select('id').where('email', '=', 'admin@nookpass.demo').executeTakeFirstOrThrow();
     expect((await patchPerson(self.id, { active: false }, admin)).status).toBe(409);
-    await deactivateTestPerson(db, email);
+    await deactivateTestPeople(db, email);
   });
 });
 

@@ -73,11 +73,11 @@ export async function until<T>(what: string, attempt: () => Promise<T | null>, m
 }
 
 /**
- * Switches off a person a test made, keeping their records: Demo City has no inspector of its own in the demo,
+ * Switches off people a test made, keeping their records: Demo City has no inspector of its own in the demo,
  * and the tests that say so must find it that way whatever ran before them.
  */
-export async function deactivateTestPerson(db: DB, email: string): Promise<void> {
-  await db.updateTable('users').set({ deactivated_at: new Date() }).where('email', '=', email).execute();
+export async function deactivateTestPeople(db: DB, ...emails: string[]): Promise<void> {
+  await db.updateTable('users').set({ deactivated_at: new Date() }).where('email', 'in', emails).execute();
 }
 
 /** The database the served app uses (already migrated and seeded by npm test). */

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { withoutMetadataKey } from '@/db/attachments';
 import { deleteObject, findObject } from '@/lib/platform/storage';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, deactivateTestPerson, postJson, signIn } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn } from './helpers';
 
 const db = appDb();
 const inbox = process.env.NOOKPASS_INBOX_URL ?? 'http://127.0.0.1:54326';
@@ -80,7 +80,7 @@ beforeAll(async () => {
   checkId = (await api(`/api/projects/${projectId}/checks`, postJson({}, { cookie: installer }))).body.id;
 });
 afterAll(async () => {
-  await deactivateTestPerson(db, cityInspectorEmail);
+  await deactivateTestPeople(db, cityInspectorEmail);
   await db.destroy();
 });
 

@@ -5,7 +5,7 @@ import bcrypt from 'bcryptjs';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, deactivateTestPerson, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, testAddress } from './helpers';
 
 /*
  * Who may do what, for every route handler and every page, from the file system: a route file,
@@ -366,6 +366,7 @@ async function uploadPhoto(cookie: string, shade: string): Promise<string> {
 }
 
 const cityEmail = `matrix-city-inspector-${randomBytes(4).toString('hex')}@example.test`;
+const ownEmails: string[] = [];
 
 beforeAll(async () => {
   // The demo company's first installer owns it (as the demo seed records); set here too, so this file does not depend on the seed's age.
@@ -397,6 +398,7 @@ beforeAll(async () => {
   ];
   await Promise.all(own.map(async ([role, dbRole, organization_id, jurisdiction_id]) => {
     const email = `matrix-own-${role}-${randomBytes(4).toString('hex')}@example.test`;
+    ownEmails.push(email);
     await db.insertInto('users').values({ email, name: `Matrix own ${role}`, role: dbRole, organization_id, jurisdiction_id, password_hash: await bcrypt.hash('matrix-own-pw', 4) }).execute();
     ownAccountCookies[role] = await signIn(email, 'matrix-own-pw');
   }));
@@ -436,7 +438,7 @@ beforeAll(async () => {
 }, 120_000);
 
 afterAll(async () => {
-  await deactivateTestPerson(db, cityEmail);
+  await deactivateTestPeople(db, cityEmail, ...ownEmails);
   await db.destroy();
 });
 
