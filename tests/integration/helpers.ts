@@ -257,15 +257,20 @@ export function rssMiB(pid: number): number {
 
 /**
  * Sends `prefix`, then 64 KiB chunks with Transfer-Encoding: chunked and no Content-Length, until the
- * server answers or `capBytes` are out. Returns the status, what was sent, and — sampled every 20 ms from
- * before the first byte until half a second after the answer — how far the server's RSS rose.
+ * server answers or `pauseAfterBytes` are out; then it stops writing, leaves the body open and waits up to
+ * 30 s for the answer. A server that waits for the end of the body therefore never answers, and the upload
+ * fails. Stopping short of an endless stream also means the client is not writing when a server that has
+ * answered drops the connection, so that answer is read rather than lost to a write error (ECONNRESET).
+ * Returns the status, what was sent, and — sampled every 20 ms from before the first byte until half a
+ * second after the answer — how far the server's RSS rose.
  */
 export async function chunkedUpload(opts: {
   method?: string;
   path: string;
   headers?: Record<string, string>;
   prefix?: Buffer | string;
-  capBytes: number;
+  /** Where the client stops writing: a little past the route's limit. */
+  pauseAfterBytes: number;
   fill?: number;
 }): Promise<{ status: number; sentBytes: number; rssGrowthMiB: number | null; ms: number }> {
   const pid = appServerPid();
@@ -287,14 +292,24 @@ export async function chunkedUpload(opts: {
         resolve({ status: res.statusCode ?? 0, sentBytes: sent });
         req.destroy(); // the rest of the upload is not wanted, by either side
       });
-      req.on('error', (err) => (answered ? undefined : reject(err)));
+      let silence: NodeJS.Timeout | undefined;
+      req.on('response', () => clearTimeout(silence));
+      req.on('error', (err) => {
+        if (answered) return;
+        clearTimeout(silence);
+        reject(err);
+      });
       if (opts.prefix) req.write(opts.prefix);
       const pump = () => {
-        while (!answered && sent < opts.capBytes) {
+        while (!answered && sent < opts.pauseAfterBytes) {
           sent += chunk.length;
           if (!req.write(chunk)) return void req.once('drain', pump);
         }
-        if (!answered) req.end();
+        if (answered) return;
+        silence = setTimeout(() => {
+          req.destroy();
+          reject(new Error(`No answer within 30 s of the last of ${sent} bytes, the body still open: the server waits for its end.`));
+        }, 30_000);
       };
       pump();
     });
