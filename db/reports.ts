@@ -287,7 +287,7 @@ function newestSends(db: DB, s: InspectionSearch) {
  * lateral subquery with LIMIT 1 is never turned into a join), so a jurisdiction's queue reads its own rows
  * through indexes however many reports other jurisdictions hold. Every send has all four (foreign keys).
  */
-function withReports<T extends ReturnType<typeof newestSends>>(db: DB, sends: T) {
+function withReports(sends: ReturnType<typeof newestSends>) {
   return sends
     .innerJoinLateral(
       (eb) => eb.selectFrom('reports as r').select(['r.id', 'r.code', 'r.snapshot', 'r.check_id']).whereRef('r.id', '=', 'ls.report_id').limit(1).as('r'),
@@ -308,7 +308,7 @@ function withReports<T extends ReturnType<typeof newestSends>>(db: DB, sends: T)
 }
 
 function inspectionQuery(db: DB, s: InspectionSearch) {
-  let q = withReports(db, newestSends(db, s));
+  let q = withReports(newestSends(db, s));
   if (s.q) {
     const pattern = likePattern(s.q);
     // Codes are read out and retyped with spaces or without dashes.
