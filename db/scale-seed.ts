@@ -21,8 +21,9 @@ import { buildRuleSet } from '@/rules';
  * evaluation. Deterministic: a fixed seed and a fixed date give the same names, plans and outcomes each run.
  */
 
-export type ScaleOptions = { projects: number; revisionsPerProject: number };
-export const defaultScale: ScaleOptions = { projects: 10_000, revisionsPerProject: 3 };
+/** `jurisdictions` (1 to 6) takes the first ones of the list; fewer means fewer rule set versions to evaluate under. */
+export type ScaleOptions = { projects: number; revisionsPerProject: number; jurisdictions?: number };
+export const defaultScale: ScaleOptions = { projects: 10_000, revisionsPerProject: 3, jurisdictions: 6 };
 
 /** Slugs of the scale jurisdictions start with this; the bench and the seed's own refusal look for it. */
 export const SCALE_SLUG_PREFIX = 'demo-scale-';
@@ -83,7 +84,7 @@ const editionSets = [
   { building_edition: 'IRC 2021', electrical_edition: 'NEC 2020', plumbing_edition: 'IPC 2021', plumbing_family: 'IPC', mechanical_edition: 'IMC 2021', fuel_gas_edition: 'IFGC 2021' },
 ] as const;
 
-const jurisdictions = [
+const allJurisdictions = [
   { key: 'north-county', name: 'Demo Scale North County' },
   { key: 'river-city', name: 'Demo Scale River City' },
   { key: 'lake-township', name: 'Demo Scale Lake Township' },
@@ -142,6 +143,7 @@ export async function hasScaleScenario(db: DB): Promise<boolean> {
 export async function writeScaleScenario(db: DB, passwordHash: string, options: ScaleOptions = defaultScale) {
   const rng = random(SEED);
   const timings: Timings = {};
+  const jurisdictions = allJurisdictions.slice(0, Math.min(Math.max(options.jurisdictions ?? allJurisdictions.length, 1), allJurisdictions.length));
   const admin = await db.selectFrom('users').select('id').where('email', '=', 'admin@nookpass.demo').executeTakeFirstOrThrow();
 
   // Companies, jurisdictions with two published rule set versions each (the second adds a local amendment, so
