@@ -3,7 +3,7 @@
 import pg from 'pg';
 import { createDb } from '@/db/index';
 import { migrateToLatest } from '@/db/migrator';
-import { defaultScale, hasScaleScenario, writeScaleScenario } from '@/db/scale-seed';
+import { defaultScale, hasScaleScenario, SCALE_EMAIL_DOMAIN, writeScaleScenario } from '@/db/scale-seed';
 import { seedDemo } from '@/lib/services/demo-seed';
 import { demoPassword } from '@/db/demo';
 import { hashAtCurrentCost } from '@/lib/platform/auth/password';
@@ -50,6 +50,7 @@ async function main() {
     console.log(`[seed:scale] ${name}: ${JSON.stringify(result.counts)}`);
     console.log(`[seed:scale] timings (ms): ${JSON.stringify(result.timings)}`);
     console.log(`[seed:scale] done in ${((performance.now() - t0) / 1000).toFixed(1)} s; DATABASE_URL=${url}`);
+    console.log(`[seed:scale] sign in with the demo password as owner@harbor.${SCALE_EMAIL_DOMAIN} (installer) or inspector@river-city.${SCALE_EMAIL_DOMAIN}`);
   } finally {
     await db.destroy();
   }
