@@ -256,8 +256,8 @@ const asIssuedAddress = sql<string>`coalesce(r.snapshot->'project'->>'siteAddres
 const asIssuedPermit = sql<string | null>`case when r.snapshot is null then p.permit_number else r.snapshot->'project'->>'permitNumber' end`;
 const asIssuedCompany = sql<string>`coalesce(r.snapshot->'company'->>'name', o.name)`;
 
-function inspectionQuery(db: DB, s: InspectionSearch) {
-  // The newest send of each report that reached the inspector's address; copies to anyone else are not in the queue.
+// The newest send of each report that reached the inspector's address; copies to anyone else are not in the queue.
+function newestSends(db: DB, s: InspectionSearch) {
   let sends = db
     .selectFrom('report_sends as s')
     .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
@@ -270,15 +270,45 @@ function inspectionQuery(db: DB, s: InspectionSearch) {
   if (s.jurisdictionId) sends = sends.where('s.jurisdiction_id', '=', s.jurisdictionId);
   let q = db
     .selectFrom(sends.as('ls'))
-    .innerJoin('reports as r', 'r.id', 'ls.report_id')
-    .innerJoin('projects as p', 'p.id', 'ls.project_id')
-    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
-    .innerJoin('checks as c', 'c.id', 'r.check_id')
     .leftJoinLateral(
       (eb) =>
-        eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'r.id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
+        eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'ls.report_id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
       (join) => join.onTrue(),
     );
+  if (s.outcome === 'awaiting') q = q.where('lv.outcome', 'is', null);
+  else if (s.outcome) q = q.where('lv.outcome', '=', s.outcome);
+  if (s.from) q = q.where('ls.sent_at', '>=', new Date(`${s.from}T00:00:00Z`));
+  if (s.to) q = q.where('ls.sent_at', '<', new Date(Date.parse(`${s.to}T00:00:00Z`) + 86_400_000));
+  return q;
+}
+
+/*
+ * The sends with their report, project, company and check. Each is looked up by its key for each send (a
+ * lateral subquery with LIMIT 1 is never turned into a join), so a jurisdiction's queue reads its own rows
+ * through indexes however many reports other jurisdictions hold. Every send has all four (foreign keys).
+ */
+function withReports(sends: ReturnType<typeof newestSends>) {
+  return sends
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('reports as r').select(['r.id', 'r.code', 'r.snapshot', 'r.check_id']).whereRef('r.id', '=', 'ls.report_id').limit(1).as('r'),
+      (join) => join.onTrue(),
+    )
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('projects as p').select(['p.name', 'p.site_address', 'p.permit_number', 'p.organization_id']).whereRef('p.id', '=', 'ls.project_id').limit(1).as('p'),
+      (join) => join.onTrue(),
+    )
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('organizations as o').select(['o.name']).whereRef('o.id', '=', 'p.organization_id').limit(1).as('o'),
+      (join) => join.onTrue(),
+    )
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('checks as c').select(['c.summary', 'c.outcome']).whereRef('c.id', '=', 'r.check_id').limit(1).as('c'),
+      (join) => join.onTrue(),
+    );
+}
+
+function inspectionQuery(db: DB, s: InspectionSearch) {
+  let q = withReports(newestSends(db, s));
   if (s.q) {
     const pattern = likePattern(s.q);
     // Codes are read out and retyped with spaces or without dashes.
@@ -294,10 +324,6 @@ function inspectionQuery(db: DB, s: InspectionSearch) {
       ]),
     );
   }
-  if (s.outcome === 'awaiting') q = q.where('lv.outcome', 'is', null);
-  else if (s.outcome) q = q.where('lv.outcome', '=', s.outcome);
-  if (s.from) q = q.where('ls.sent_at', '>=', new Date(`${s.from}T00:00:00Z`));
-  if (s.to) q = q.where('ls.sent_at', '<', new Date(Date.parse(`${s.to}T00:00:00Z`) + 86_400_000));
   return q;
 }
 
@@ -305,6 +331,8 @@ function inspectionQuery(db: DB, s: InspectionSearch) {
 export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ items: InspectionListItem[]; total: number; page: number; pageSize: number }> {
   const pageSize = Math.min(Math.max(s.pageSize ?? INSPECTIONS_PAGE_SIZE, 1), 100);
   const page = Math.max(s.page ?? 1, 1);
+  // Without a search the count needs no report, project or company: every send has them.
+  const counted = s.q ? inspectionQuery(db, s) : newestSends(db, s);
   const [rows, count] = await Promise.all([
     inspectionQuery(db, s)
       .select([
@@ -316,7 +344,7 @@ export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ 
       .limit(pageSize)
       .offset((page - 1) * pageSize)
       .execute(),
-    inspectionQuery(db, s).select((eb) => eb.fn.countAll<string>().as('n')).executeTakeFirstOrThrow(),
+    counted.select((eb) => eb.fn.countAll<string>().as('n')).executeTakeFirstOrThrow(),
   ]);
   const items = rows.map((r): InspectionListItem => {
     const snap = readReportSnapshot(r.snapshot);

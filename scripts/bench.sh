@@ -26,6 +26,10 @@ export DATABASE_URL="$(database_url "$DB_NAME")" NOOKPASS_ADMIN_DATABASE_URL="$(
 export NEXTAUTH_SECRET="bench-$$" NEXTAUTH_URL="http://127.0.0.1:$PORT_BENCH" NOOKPASS_BASE_URL="http://127.0.0.1:$PORT_BENCH" NEXT_TELEMETRY_DISABLED=1
 npx tsx db/migrate.ts
 npx tsx scripts/seed.ts
+if [ "${NOOKPASS_BENCH_SCALE:-1}" != "0" ]; then
+  say "Adding the scale scenario (10,000 demo projects) to the bench database…"
+  npx tsx scripts/seed-scale.ts --database "$DB_NAME"
+fi
 build_if_needed
 start_fakes -bench
 node_modules/.bin/next start -H 127.0.0.1 -p "$PORT_BENCH" > "$NP_DATA/bench-app.log" 2>&1 &
