@@ -73,3 +73,9 @@ describe('time zones an admin may store', () => {
     expect(timeZoneSchema.safeParse(42).success).toBe(false);
   });
 });
+
+describe('formatDateTime with seconds', () => {
+  it('adds seconds for logs, still labelled', () => {
+    expect(formatDateTime('2026-07-01T18:30:05Z', 'America/Denver', { seconds: true })).toBe('Jul 1, 2026, 12:30:05 PM MDT');
+  });
+});

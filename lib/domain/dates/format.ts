@@ -15,6 +15,7 @@ const LOCALE = 'en-US';
 const UNKNOWN = 'unknown date';
 
 const dateTimeFormats = new Map<string, Intl.DateTimeFormat>();
+const secondsFormats = new Map<string, Intl.DateTimeFormat>();
 const dateFormats = new Map<string, Intl.DateTimeFormat>();
 
 export class UnknownTimeZoneError extends RangeError {
@@ -38,6 +39,7 @@ function formatter(cache: Map<string, Intl.DateTimeFormat>, timeZone: string, op
 }
 
 const dateTimeOptions: Intl.DateTimeFormatOptions = { year: 'numeric', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' };
+const secondsOptions: Intl.DateTimeFormatOptions = { ...dateTimeOptions, second: '2-digit' };
 const dateOptions: Intl.DateTimeFormatOptions = { year: 'numeric', month: 'short', day: 'numeric' };
 
 function toDate(at: Date | string | number): Date | null {
@@ -49,8 +51,9 @@ function toDate(at: Date | string | number): Date | null {
  * `Jul 1, 2026, 12:30 PM MDT`: the month is a word, so no reader takes the day for the month. Throws
  * `UnknownTimeZoneError` for a zone the runtime does not know; an unreadable instant reads "unknown date".
  */
-export function formatDateTime(at: Date | string | number, timeZone: string): string {
-  const f = formatter(dateTimeFormats, timeZone, dateTimeOptions);
+export function formatDateTime(at: Date | string | number, timeZone: string, opts: { seconds?: boolean } = {}): string {
+  // Seconds only where order within a minute matters (audit logs).
+  const f = opts.seconds ? formatter(secondsFormats, timeZone, secondsOptions) : formatter(dateTimeFormats, timeZone, dateTimeOptions);
   const date = toDate(at);
   return date ? f.format(date) : UNKNOWN;
 }
