@@ -13,7 +13,7 @@ export type Project = {
   id: string;
   organizationId: string;
   organizationName: string;
-  jurisdiction: { id: string; slug: string; name: string };
+  jurisdiction: { id: string; slug: string; name: string; timeZone: string };
   name: string;
   siteAddress: string;
   permitNumber: string | null;
@@ -90,7 +90,7 @@ function baseQuery(db: DB) {
     .select([
       'p.id', 'p.organization_id', 'o.name as organization_name', 'p.name', 'p.site_address', 'p.permit_number', 'p.notes',
       'p.is_demo', 'p.archived_at', 'p.created_at', 'p.updated_at',
-      'j.id as jurisdiction_id', 'j.slug as jurisdiction_slug', 'j.name as jurisdiction_name',
+      'j.id as jurisdiction_id', 'j.slug as jurisdiction_slug', 'j.name as jurisdiction_name', 'j.time_zone as jurisdiction_time_zone',
       'lc.check_id', 'lc.outcome', 'lc.summary', 'lc.checked_at', 'lr.latest_revision',
       'ls.sent_report_code', 'ls.sent_at', 'lv.review_outcome', 'lv.reviewed_at',
     ]);
@@ -103,7 +103,7 @@ function toProject(r: Row): Project {
     id: r.id,
     organizationId: r.organization_id,
     organizationName: r.organization_name,
-    jurisdiction: { id: r.jurisdiction_id, slug: r.jurisdiction_slug, name: r.jurisdiction_name },
+    jurisdiction: { id: r.jurisdiction_id, slug: r.jurisdiction_slug, name: r.jurisdiction_name, timeZone: r.jurisdiction_time_zone },
     name: r.name,
     siteAddress: r.site_address,
     permitNumber: r.permit_number,

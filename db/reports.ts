@@ -94,6 +94,8 @@ export type PublicReportFacts = {
   projectName: string;
   siteAddress: string;
   jurisdictionName: string;
+  /** The project's jurisdiction's IANA zone, for showing the dates. */
+  timeZone: string;
   /** The installer company and its contractor licence number, as printed on the report. */
   companyName: string;
   licenseNumber: string | null;
@@ -114,14 +116,14 @@ export async function publicReportFacts(db: DB, input: string): Promise<PublicRe
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .select([
       'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'r.snapshot', 'p.name as project_name', 'p.site_address',
-      'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name',
+      'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name', 'j.time_zone',
       'o.name as organization_name', 'o.license_number',
     ])
     .where('r.code', '=', code)
     .executeTakeFirst();
   if (!row) return null;
   const snap = readReportSnapshot(row.snapshot);
-  const common = { code: row.code, sha256: row.sha256, issuedAt: row.issued_at, pageCount: row.page_count };
+  const common = { code: row.code, sha256: row.sha256, issuedAt: row.issued_at, pageCount: row.page_count, timeZone: row.time_zone };
   if (snap) {
     return {
       ...common,
@@ -235,6 +237,8 @@ export type InspectionListItem = {
   checkOutcome: string;
   reviewOutcome: ReviewOutcome | null;
   reviewedAt: Date | null;
+  /** IANA zone of the jurisdiction the report was sent to, for showing its dates. */
+  timeZone: string;
 };
 
 export type InspectionSearch = {
@@ -261,7 +265,7 @@ function newestSends(db: DB, s: InspectionSearch) {
   let sends = db
     .selectFrom('report_sends as s')
     .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
-    .select(['s.report_id', 's.project_id', 's.created_at as sent_at'])
+    .select(['s.report_id', 's.project_id', 's.created_at as sent_at', 'sj.time_zone'])
     .where('s.status', '=', 'sent')
     .where(receivedByInspector('s', 'sj'))
     .distinctOn('s.report_id')
@@ -336,7 +340,7 @@ export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ 
   const [rows, count] = await Promise.all([
     inspectionQuery(db, s)
       .select([
-        'r.id as report_id', 'r.code', 'r.snapshot', 'ls.sent_at', 'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
+        'r.id as report_id', 'r.code', 'r.snapshot', 'ls.sent_at', 'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at', 'ls.time_zone',
         asIssuedName.as('project_name'), asIssuedAddress.as('site_address'), asIssuedPermit.as('permit_number'), asIssuedCompany.as('organization_name'),
       ])
       .orderBy('ls.sent_at', 'desc')
@@ -361,6 +365,7 @@ export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ 
       checkOutcome: snap?.check.outcome ?? r.check_outcome,
       reviewOutcome: r.review_outcome ?? null,
       reviewedAt: r.reviewed_at ?? null,
+      timeZone: r.time_zone,
     };
   });
   return { items, total: Number(count.n), page, pageSize };
@@ -399,11 +404,11 @@ export async function findReportHeading(db: DB, projectId: string) {
     .selectFrom('projects as p')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
-    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'p.is_demo'])
+    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'j.time_zone', 'p.is_demo'])
     .where('p.id', '=', projectId)
     .executeTakeFirst();
   return row
-    ? { id: row.id, name: row.name, siteAddress: row.site_address, permitNumber: row.permit_number, organizationName: row.organization_name, licenseNumber: row.license_number, jurisdictionName: row.jurisdiction_name, isDemo: row.is_demo }
+    ? { id: row.id, name: row.name, siteAddress: row.site_address, permitNumber: row.permit_number, organizationName: row.organization_name, licenseNumber: row.license_number, jurisdictionName: row.jurisdiction_name, timeZone: row.time_zone, isDemo: row.is_demo }
     : null;
 }
 

@@ -38,6 +38,8 @@ export interface JurisdictionsTable {
   inspector_email: string | null;
   amendment_notes: Generated<string>;
   is_demo: Generated<boolean>;
+  /** IANA time zone dates of the jurisdiction are shown in; UTC for rows made before zones were stored. */
+  time_zone: Generated<string>;
   created_at: CreatedAt;
   updated_at: Timestamp;
 }

@@ -38,7 +38,7 @@ function Conflict({ message, onReload }: { message: string; onReload: () => void
  * never conflict with each other. A 409 means another admin saved first; the page keeps what was
  * typed, shows the conflict beside the button that met it and offers to reload their version.
  */
-export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: string }) {
+export function DraftWorkspace({ initial, slug, timeZone }: { initial: DraftSet; slug: string; timeZone: string }) {
   const router = useRouter();
   const url = `/api/rule-sets/${initial.id}`;
   // The revision must stay the one the form's values came from: a silent refetch on mount would
@@ -213,7 +213,7 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
           citations the jurisdiction checked and when; marks are kept on record and carried into the next draft while the citation stays the same.
         </p>
         {citations.data ? (
-          <div className="mt-3"><CitationChecks list={citations.data} url={`${url}/citations`} readOnly={false} onChange={() => citations.mutate()} /></div>
+          <div className="mt-3"><CitationChecks list={citations.data} url={`${url}/citations`} readOnly={false} onChange={() => citations.mutate()} timeZone={timeZone} /></div>
         ) : (
           <p className="mt-3 text-sm text-ink-soft">{citations.error ? (citations.error as Error).message : 'Loading citations…'}</p>
         )}

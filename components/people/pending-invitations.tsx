@@ -4,6 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { invitedRoleLabels, type InvitedRole } from '@/lib/domain/accounts/people';
 import { fetchJson } from '@/lib/platform/client/fetch-json';
+import { DEFAULT_TIME_ZONE, formatDate } from '@/lib/domain/dates/format';
 
 export type PendingInvitation = {
   id: string;
@@ -16,7 +17,8 @@ export type PendingInvitation = {
   expiresAt: string;
 };
 
-const day = (iso: string) => iso.slice(0, 10);
+// People pages serve a company or the whole service, not one jurisdiction: UTC, labelled so.
+const day = (iso: string) => formatDate(iso, DEFAULT_TIME_ZONE);
 
 export function PendingInvitations({ invitations }: { invitations: PendingInvitation[] }) {
   const router = useRouter();

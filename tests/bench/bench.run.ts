@@ -42,7 +42,7 @@ it('report render time (four pages with photos)', async () => {
     code: 'NP-BENC-HMRK', verifyUrl: 'http://127.0.0.1/verify/NP-BENC-HMRK', generatedAt: new Date(),
     project: { name: 'Benchmark closet', siteAddress: '1 Bench St', permitNumber: null, isDemo: true },
     organization: { name: 'Bench Co', licenseNumber: null },
-    jurisdiction: { name: 'Bench County', region: 'Bench', editions, amendmentNotes: '' },
+    jurisdiction: { name: 'Bench County', region: 'Bench', editions, amendmentNotes: '', timeZone: 'UTC' },
     ruleSet: { version: 1, publishedAt: new Date(), changelog: '' },
     planRevision: { number: 1, savedBy: 'Bench', savedAt: new Date() },
     check: { id: 'x', createdAt: new Date(), runBy: 'Bench', summary: evaluation.summary, outcome: 'fail' },

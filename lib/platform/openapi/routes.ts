@@ -18,7 +18,7 @@ import { reviewSchema } from '@/lib/domain/reports/review-schema';
 import { answerSchema } from '@/lib/domain/reports/thread';
 import { sendSchema } from '@/lib/domain/reports/send-schema';
 import { citationCheckSchema } from '@/lib/domain/rule-sets/citation-checks';
-import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
+import { jurisdictionCreateSchema, jurisdictionListItemSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
 import { draftCreateSchema, draftSaveSchema, publishSchema, retireSchema, revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
 import type { Role } from '@/lib/domain/roles';
 import { newTokenSchema } from '@/lib/platform/auth/api-token-form';
@@ -116,7 +116,7 @@ export const apiRoutes: Record<string, RouteEntry> = {
   'invitations/[id]/route.ts': { delete: { summary: 'Withdraw an invitation', access: installersAndAdmins, ok: ok200('The withdrawn invitation.') } },
   'invitations/[id]/accept/route.ts': { post: { summary: 'Accept an invitation (signs in)', access: 'public', body: json(acceptInvitationSchema), ok: ok201('The new account; a session cookie is set.'), conflict: 'The invitation expired or was used.' } },
   'jurisdictions/route.ts': {
-    get: { summary: 'Jurisdictions', access: 'signed-in', ok: ok200('Jurisdictions and their published versions.') },
+    get: { summary: 'Jurisdictions', access: 'signed-in', ok: ok200('Jurisdictions with their adopted editions, IANA time zone and published version.', z.array(jurisdictionListItemSchema)) },
     post: { summary: 'Add a jurisdiction', access: admins, body: json(jurisdictionCreateSchema), ok: ok201('The jurisdiction.'), conflict: 'The slug is taken.' },
   },
   'jurisdictions/[slug]/route.ts': {

@@ -58,6 +58,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
       region: jur.region,
       editions: jur.editions,
       amendmentNotes: jur.amendmentNotes,
+      timeZone: jur.timeZone,
     },
     ruleSet: { version: ruleSet.version, publishedAt: ruleSet.publishedAt, changelog: ruleSet.changelog },
     planRevision: { number: revision.number, savedBy: revision.createdBy.name, savedAt: revision.createdAt },

@@ -10,6 +10,7 @@ import { sendMail } from '@/lib/platform/mail';
 import { loadInspection } from '@/lib/services/reports/inspection';
 import { publicBaseUrl } from '@/lib/services/reports/issue';
 import { log } from '@/lib/platform/log';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 /**
  * An inspector records an outcome on a report, or on the installer's latest answer to corrections; the
@@ -24,7 +25,7 @@ export async function recordInspectionOutcome(db: DB, user: AppUser, input: { re
   const findingComments = Object.fromEntries(Object.entries(input.review.findingComments).filter(([, c]) => c.length > 0));
   const review = await withReportLocked(db, inspection.report.id, async (trx) => {
     const [outcomes, answers] = [await listThreadOutcomes(trx, inspection.report.id), await listThreadAnswers(trx, inspection.report.id)];
-    const place = placeOutcome(outcomes, answers, { revise: input.review.revise, revises: input.review.revises });
+    const place = placeOutcome(outcomes, answers, { revise: input.review.revise, revises: input.review.revises }, inspection.timeZone);
     // The findings commented on are the ones under review when the page was read.
     if (place.answerId !== inspection.thread.answerId) throw new ConflictError('The installer answered the corrections meanwhile: reload the report to see the new check.');
     return insertOutcome(trx, { reportId: inspection.report.id, inspectorId: user.id, outcome: input.review.outcome, comment: input.review.comment, findingComments, ...place });
@@ -40,7 +41,7 @@ export async function recordInspectionOutcome(db: DB, user: AppUser, input: { re
         to: email,
         subject: `Inspection outcome for ${inspection.project.name}: ${outcomeText}${review.revisesId ? ' (revised)' : ''}`,
         text: [
-          `${user.name} (${inspection.project.jurisdictionName}) ${review.revisesId ? 'revised the outcome to' : 'recorded'} "${outcomeText}" for report ${inspection.report.code}${review.answerId ? ', on your answer to the corrections' : ''}.`,
+          `${user.name} (${inspection.project.jurisdictionName}) ${review.revisesId ? 'revised the outcome to' : 'recorded'} "${outcomeText}" for report ${inspection.report.code}${review.answerId ? ', on your answer to the corrections' : ''} on ${formatDateTime(review.createdAt, inspection.timeZone)}.`,
           input.review.comment ? `\n${input.review.comment}\n` : '',
           ...Object.entries(findingComments).map(([k, c]) => `- ${inspection.check.findings.find((f) => f.ruleKey === k)?.title ?? k}: ${c}`),
           '',

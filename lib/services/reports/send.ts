@@ -11,6 +11,7 @@ import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/repor
 import { countReportSend } from '@/lib/services/reports/limits';
 import { assertMaySendToInspectors } from '@/lib/services/accounts/email-confirmation';
 import type { SendInput } from '@/lib/domain/reports/send-schema';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 const sameAddress = (a: string, b: string | null) => !!b && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -67,6 +68,7 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
     '',
     `Report ${report.code}: ${s.fail} fail, ${s.caution} caution, ${s.needsInfo} need information, ${s.pass} pass.`,
     `Rule set version ${issuedCheck.ruleSet.version}; plan revision ${issuedCheck.planRevision.number}.`,
+    `Checked ${formatDateTime(issuedCheck.createdAt, project.jurisdiction.timeZone)}; report issued ${formatDateTime(report.createdAt, project.jurisdiction.timeZone)}.`,
     input.note ? `\nNote from the installer:\n${input.note}\n` : '',
     `Confirm the attached PDF is the one NookPass issued: ${verifyUrl}`,
     `SHA-256 of the PDF: ${report.sha256}`,

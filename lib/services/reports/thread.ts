@@ -11,7 +11,7 @@ import {
   listThreadSends,
   withReportLocked,
 } from '@/db/correction-thread';
-import { findReportByCode, findReportById, type IssuedReport } from '@/db/reports';
+import { findReportByCode, findReportById, findReportHeading, type IssuedReport } from '@/db/reports';
 import { compareFindings, type FindingChange } from '@/lib/domain/checks/compare';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { isUuid } from '@/lib/domain/ids';
@@ -23,6 +23,7 @@ import { assertCanReadReport } from '@/lib/services/reports/access';
 import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
 import { countReportSend } from '@/lib/services/reports/limits';
 import { log } from '@/lib/platform/log';
+import { DEFAULT_TIME_ZONE, formatDateTime } from '@/lib/domain/dates/format';
 
 /** A plan value as entered, for "from → to" lines; numbers are in the plan's own units. */
 function showValue(v: unknown): string {
@@ -112,7 +113,7 @@ export async function answerCorrections(db: DB, user: AppUser, ref: string, inpu
   if (check.projectId !== projectId) throw new ValidationError([{ path: 'checkId', message: 'That check belongs to another project; answer with a check of this project.' }]);
   const [latest] = await listChecks(db, user, projectId);
   if (latest && latest.id !== check.id) {
-    throw new ValidationError([{ path: 'checkId', message: `Answer with the project’s latest check (run ${latest.createdAt.toISOString().slice(0, 16).replace('T', ' ')} UTC).` }]);
+    throw new ValidationError([{ path: 'checkId', message: `Answer with the project’s latest check (run ${formatDateTime(latest.createdAt, (await findReportHeading(db, projectId))?.timeZone ?? DEFAULT_TIME_ZONE)}).` }]);
   }
   if (+check.createdAt <= +before.underReview.createdAt) {
     throw new ValidationError([{ path: 'checkId', message: 'This is the check the inspector already reviewed: correct the plan, run a new check, then answer with it.' }]);
@@ -139,7 +140,7 @@ export async function answerCorrections(db: DB, user: AppUser, ref: string, inpu
         to,
         subject: `Corrections answered: ${issued.project.name} (report ${report.code})`,
         text: [
-          `${user.name} answered the corrections on report ${report.code} with a new check, report ${issued.report.code}.`,
+          `${user.name} answered the corrections on report ${report.code} with a new check (run ${formatDateTime(check.createdAt, issued.project.jurisdiction.timeZone)}), report ${issued.report.code}.`,
           '',
           `Note from the installer:\n${input.note}`,
           '',

@@ -8,6 +8,7 @@ import { FindingChanges } from '@/components/admin/dry-run-results';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Impact on projects' };
 
@@ -57,7 +58,7 @@ export default async function ImpactPage({ params, searchParams }: { params: Pro
           {changing.map((i) => (
             <li key={i.projectId} className="py-3" data-project={i.name}>
               <div className="font-semibold">{i.name}</div>
-              <div className="text-xs text-ink-faint">{i.organization} · latest check {i.latestCheck!.createdAt.toLocaleString()} on v{i.latestCheck!.version}, plan revision {i.latestCheck!.revisionNumber} · was {i.latestCheck!.outcome}, now {i.outcomeNow ?? 'unknown'}</div>
+              <div className="text-xs text-ink-faint">{i.organization} · latest check {formatDateTime(i.latestCheck!.createdAt, jurisdiction.timeZone)} on v{i.latestCheck!.version}, plan revision {i.latestCheck!.revisionNumber} · was {i.latestCheck!.outcome}, now {i.outcomeNow ?? 'unknown'}</div>
               {i.error && <p className="text-sm text-status-fail">{i.error}</p>}
               <FindingChanges changes={i.changes.filter((c) => c.statusChanged)} />
             </li>

@@ -16,6 +16,7 @@ import { SafetyNotice } from '@/components/ui/safety-notice';
 import { citationMismatches } from '@/lib/domain/rule-sets/citations';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Rule set version' };
 
@@ -40,8 +41,8 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
       </PageHeader>
       <div className="mb-4 flex flex-wrap items-center gap-3 text-sm">
         <VersionStatus status={set.status} />
-        {set.publishedAt && <span>Published {set.publishedAt.toLocaleString()} by {set.publishedBy ?? 'former user'}</span>}
-        {set.retiredAt && <span>· retired {set.retiredAt.toLocaleString()}</span>}
+        {set.publishedAt && <span>Published {formatDateTime(set.publishedAt, jurisdiction.timeZone)} by {set.publishedBy ?? 'former user'}</span>}
+        {set.retiredAt && <span>· retired {formatDateTime(set.retiredAt, jurisdiction.timeZone)}</span>}
         {set.status !== 'draft' && set.changelog && <span data-testid="version-changelog">· “{set.changelog}”</span>}
       </div>
       <div className="mb-6"><SafetyNotice compact /></div>
@@ -55,7 +56,7 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
         </div>
       )}
       {set.status === 'draft' ? (
-        <DraftWorkspace initial={set} slug={slug} />
+        <DraftWorkspace initial={set} slug={slug} timeZone={jurisdiction.timeZone} />
       ) : (
         <div className="space-y-6">
           <p className="text-sm text-ink-soft">This version is {set.status}: the database refuses any change to it. To change the rules, start a new draft from the versions page.</p>
@@ -69,7 +70,7 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
           </section>
           <section className="card p-5" aria-labelledby="cite-h">
             <h2 id="cite-h" className="text-lg font-bold">Citations checked against the adopted text</h2>
-            <div className="mt-3"><CitationChecks list={await listCitationStatuses(db, set)} url={`/api/rule-sets/${set.id}/citations`} readOnly /></div>
+            <div className="mt-3"><CitationChecks list={await listCitationStatuses(db, set)} url={`/api/rule-sets/${set.id}/citations`} readOnly timeZone={jurisdiction.timeZone} /></div>
           </section>
         </div>
       )}
