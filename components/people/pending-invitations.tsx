@@ -4,6 +4,8 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { invitedRoleLabels, type InvitedRole } from '@/lib/domain/accounts/people';
 import { fetchJson } from '@/lib/platform/client/fetch-json';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import type { MailDeliveryProps } from '@/lib/domain/mail/outbox';
 
 export type PendingInvitation = {
   id: string;
@@ -14,6 +16,7 @@ export type PendingInvitation = {
   invitedByEmail: string | null;
   createdAt: string;
   expiresAt: string;
+  mail?: MailDeliveryProps | null;
 };
 
 const day = (iso: string) => iso.slice(0, 10);
@@ -49,6 +52,11 @@ export function PendingInvitations({ invitations }: { invitations: PendingInvita
                   {i.invitedByEmail ? ` by ${i.invitedByEmail}` : ''} ·{' '}
                   {i.state === 'expired' ? <strong className="text-status-fail">expired {day(i.expiresAt)}; send a new one</strong> : `expires ${day(i.expiresAt)}`}
                 </div>
+                {i.mail && (
+                  <div className="mt-1 text-xs">
+                    <MailDelivery initial={i.mail} label="Invitation e-mail" />
+                  </div>
+                )}
               </div>
               <button type="button" className="btn-danger" onClick={() => revoke(i.id)} aria-label={`Revoke the invitation to ${i.email}`}>
                 Revoke

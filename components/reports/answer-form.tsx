@@ -37,7 +37,7 @@ export function AnswerForm({ reportCode, latestCheck, reviewedAt, projectId }: {
     setFormError(null);
     try {
       const res = await fetchJson<{ report: { code: string }; mailed: number }>(`/api/reports/${reportCode}/answers`, { method: 'POST', json: values });
-      setDone(`Answer sent with report ${res.report.code}${res.mailed ? '; the inspector was e-mailed' : ''}.`);
+      setDone(`Answer sent with report ${res.report.code}${res.mailed ? '; the e-mail to the inspector is queued' : ''}.`);
       router.refresh();
     } catch (err) {
       if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError((e.path === 'checkId' ? 'checkId' : 'note') as never, { message: e.message });
