@@ -101,9 +101,9 @@ export async function deliverOutboxMail(db: DB, outboxId: string, job: { lastTry
     log.info({ outboxId: mail.id, kind: mail.kind, attempt: mail.attempts }, 'mail sent');
     return 'sent';
   } catch (err) {
-    const message = err instanceof Error ? err.message : String(err);
     // A relay that refused the address will refuse it again: no retry, the sender sees why.
     const permanent = err instanceof ValidationError;
+    const message = permanent ? err.errors.map((e) => e.message).join(' ') : err instanceof Error ? err.message : String(err);
     const status = await markOutboxAttemptFailed(db, mail.id, message, nextAttemptWithinSeconds(mail.attempts), permanent || job.lastTry);
     log.warn({ outboxId: mail.id, kind: mail.kind, attempt: mail.attempts, status }, 'mail attempt failed');
     if (status === 'retrying') throw new MailAttemptFailed(message);
