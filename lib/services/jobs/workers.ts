@@ -2,6 +2,7 @@ import 'server-only';
 import { getDb } from '@/db';
 import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
+import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
 import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
 
 const g = globalThis as unknown as { nookpassWorkers?: Promise<void> };
@@ -21,6 +22,12 @@ export function startWorkers(): Promise<void> {
     await work(MAIL_SWEEP_QUEUE, { pollingIntervalSeconds: 10 }, async () => requeueOverdueMail(db));
     // Every minute (the finest a cron schedule goes); pg-boss sends one job per tick for all servers together.
     await schedule(MAIL_SWEEP_QUEUE, '* * * * *');
+    await work<{ minAgeSeconds?: number }>(STORAGE_SWEEP_QUEUE, { pollingIntervalSeconds: 30 }, async (job) => {
+      const { examined, deleted } = await sweepUnreferencedObjects(db, { minAgeSeconds: typeof job.data?.minAgeSeconds === 'number' ? job.data.minAgeSeconds : undefined });
+      return { examined, deleted: deleted.length };
+    });
+    // Nightly at 03:15 UTC, when few people upload.
+    await schedule(STORAGE_SWEEP_QUEUE, '15 3 * * *');
     log.info('job workers started');
   })().catch((err) => {
     g.nookpassWorkers = undefined;
