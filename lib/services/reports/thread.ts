@@ -22,7 +22,6 @@ import { dispatchMail, queueMail } from '@/lib/services/mail/outbox';
 import { assertCanReadReport } from '@/lib/services/reports/access';
 import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
 import { countReportSend } from '@/lib/services/reports/limits';
-import { log } from '@/lib/platform/log';
 
 /** A plan value as entered, for "from → to" lines; numbers are in the plan's own units. */
 function showValue(v: unknown): string {
