@@ -174,30 +174,32 @@ export async function companyHasSentTo(db: DB, organizationId: string, email: st
   return !!row;
 }
 
-export async function recordSend(
-  db: DB,
-  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string; note?: string | null },
-) {
-  return db.transaction().execute(async (trx) => {
-    const row = await trx
-      .insertInto('report_sends')
-      .values({
-        report_id: s.reportId,
-        project_id: s.projectId,
-        jurisdiction_id: s.jurisdictionId,
-        to_email: s.to,
-        to_inspector: s.toInspector,
-        status: s.status,
-        error: s.error,
-        message_id: s.messageId,
-        note: s.note?.trim() || null,
-        created_by: s.actorId,
-      })
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, toInspector: s.toInspector, error: s.error } });
-    return row;
-  });
+type NewSend = { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string; note?: string | null };
+
+export async function recordSend(db: DB, s: NewSend) {
+  return db.transaction().execute((trx) => insertSend(trx, s));
+}
+
+/** Records a send with its audit entry; run it inside the caller's transaction. */
+export async function insertSend(trx: DB, s: NewSend) {
+  const row = await trx
+    .insertInto('report_sends')
+    .values({
+      report_id: s.reportId,
+      project_id: s.projectId,
+      jurisdiction_id: s.jurisdictionId,
+      to_email: s.to,
+      to_inspector: s.toInspector,
+      status: s.status,
+      error: s.error,
+      message_id: s.messageId,
+      note: s.note?.trim() || null,
+      created_by: s.actorId,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, toInspector: s.toInspector, error: s.error } });
+  return row;
 }
 
 export async function listProjectSends(db: DB, projectId: string) {

@@ -6,6 +6,7 @@ type Json<T> = ColumnType<T, string, string>;
 
 import type { CheckOutcome } from '@/lib/domain/checks/outcome';
 import type { PlumbingFamily } from '@/lib/domain/editions';
+import type { MailKind, MailStatus } from '@/lib/domain/mail/outbox';
 import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
 import type { Role } from '@/lib/domain/roles';
 import type { RuleSetStatus } from '@/lib/domain/rule-sets/status';
@@ -337,6 +338,34 @@ export interface ApplianceModelsTable {
   updated_at: Timestamp;
 }
 
+export type MailAttachmentRef = { filename: string; objectKey: string; contentType: string };
+
+export interface MailOutboxTable {
+  id: Generated<string>;
+  kind: MailKind;
+  to_email: string;
+  reply_to: ColumnType<{ name: string; address: string } | string | null, string | null | undefined, never>;
+  subject: string;
+  body_text: string;
+  attachments: ColumnType<MailAttachmentRef[], string | undefined, never>;
+  status: ColumnType<MailStatus, MailStatus | undefined, MailStatus>;
+  attempts: ColumnType<number, number | undefined, number>;
+  max_attempts: number;
+  last_error: string | null;
+  message_id: string | null;
+  next_attempt_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  claimed_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  sent_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  report_id: string | null;
+  report_send_id: string | null;
+  review_id: string | null;
+  invitation_id: string | null;
+  user_id: string | null;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -360,6 +389,7 @@ export interface Database {
   correction_answers: CorrectionAnswersTable;
   rate_limits: RateLimitsTable;
   appliance_models: ApplianceModelsTable;
+  mail_outbox: MailOutboxTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

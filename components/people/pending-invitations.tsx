@@ -5,6 +5,8 @@ import { useState } from 'react';
 import { invitedRoleLabels, type InvitedRole } from '@/lib/domain/accounts/people';
 import { fetchJson } from '@/lib/platform/client/fetch-json';
 import { DEFAULT_TIME_ZONE, formatDate } from '@/lib/domain/dates/format';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import type { MailDeliveryProps } from '@/lib/domain/mail/outbox';
 
 export type PendingInvitation = {
   id: string;
@@ -15,6 +17,7 @@ export type PendingInvitation = {
   invitedByEmail: string | null;
   createdAt: string;
   expiresAt: string;
+  mail?: MailDeliveryProps | null;
 };
 
 // People pages serve a company or the whole service, not one jurisdiction: UTC, labelled so.
@@ -51,6 +54,11 @@ export function PendingInvitations({ invitations }: { invitations: PendingInvita
                   {i.invitedByEmail ? ` by ${i.invitedByEmail}` : ''} ·{' '}
                   {i.state === 'expired' ? <strong className="text-status-fail">expired {day(i.expiresAt)}; send a new one</strong> : `expires ${day(i.expiresAt)}`}
                 </div>
+                {i.mail && (
+                  <div className="mt-1 text-xs">
+                    <MailDelivery initial={i.mail} label="Invitation e-mail" />
+                  </div>
+                )}
               </div>
               <button type="button" className="btn-danger" onClick={() => revoke(i.id)} aria-label={`Revoke the invitation to ${i.email}`}>
                 Revoke

@@ -42,7 +42,7 @@ export function AnswerForm({ open, reportCode, latestCheck, reviewedAt, projectI
     setFormError(null);
     try {
       const res = await fetchJson<{ report: { code: string }; mailed: number }>(`/api/reports/${reportCode}/answers`, { method: 'POST', json: values });
-      setDone(`Answer sent with report ${res.report.code}${res.mailed ? '; the inspector was e-mailed' : ''}.`);
+      setDone(`Answer sent with report ${res.report.code}${res.mailed ? '; the e-mail to the inspector is queued' : ''}.`);
       router.refresh();
     } catch (err) {
       if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError((e.path === 'checkId' ? 'checkId' : 'note') as never, { message: e.message });

@@ -39,6 +39,7 @@ type Ids = {
   attachmentToDeleteId: string;
   reportId: string;
   reportCode: string;
+  mailId: string;
   tokenId: string;
   slug: string;
   publishedId: string;
@@ -153,6 +154,9 @@ const apiMatrix: Record<string, ApiRow> = {
   // No outcome asks for corrections on the matrix report, so the owner's answer is a 409 (and changes nothing).
   'POST /api/reports/[code]/answers':            { path: (i) => `/api/reports/${i.reportCode}/answers`, send: { json: (i) => ({ checkId: i.checkId, note: 'Matrix answer.' }) }, expect: a(401, 409, 404, 403, 403, 403) },
   'GET /api/inspections':                        { path: () => '/api/inspections', expect: a(401, 403, 403, 200, 200, 200) },
+  // The report e-mail: seen by whoever can read the report; sent again only after its last attempt failed.
+  'GET /api/mail/[id]':                          { path: (i) => `/api/mail/${i.mailId}`, expect: a(401, 200, 404, 200, 404, 200) },
+  'POST /api/mail/[id]/send-again':              { path: (i) => `/api/mail/${i.mailId}/send-again`, expect: a(401, 409, 404, 409, 404, 409) },
   'GET /api/inspections/[reportId]':             { path: (i) => `/api/inspections/${i.reportId}`, expect: a(401, 403, 403, 200, 404, 200) },
   'POST /api/inspections/[reportId]/review':     { path: (i) => `/api/inspections/${i.reportId}/review`, send: { json: () => ({ outcome: 'approved', comment: 'Matrix review.' }) }, expect: a(401, 403, 403, 201, 404, 403) },
   'GET /api/jurisdictions':                      { path: () => '/api/jurisdictions', expect: a(401, 200, 200, 200, 200, 200) },
@@ -411,6 +415,7 @@ beforeAll(async () => {
   ids.attachmentId = await uploadPhoto(owner, '#336699');
   const sent = await must(await api(`/api/checks/${ids.checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie: owner })), 201, 'send');
   ids.reportCode = sent.report.code;
+  ids.mailId = sent.mail.id;
   ids.reportId = (await db.selectFrom('reports').select('id').where('code', '=', ids.reportCode).executeTakeFirstOrThrow()).id;
   ids.attachmentToDeleteId = await uploadPhoto(owner, '#993366');
   ids.applianceId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance')).id;

@@ -130,6 +130,10 @@ export const apiRoutes: Record<string, RouteEntry> = {
     get: { summary: "A jurisdiction's rule set versions", access: admins, ok: ok200('Versions.') },
     post: { summary: 'Start a draft', access: admins, body: json(draftCreateSchema), ok: ok201('The draft.'), conflict: 'A draft already exists.' },
   },
+  'mail/[id]/route.ts': { get: { summary: "One e-mail's delivery state (queued, sending, retrying, sent, failed)", access: 'signed-in', ok: ok200('The state, attempts made and the last error.') } },
+  'mail/[id]/send-again/route.ts': {
+    post: { summary: 'Queue an e-mail again after its last attempt failed', access: 'signed-in', ok: { status: 202, description: 'Queued again with a fresh set of attempts.' }, conflict: 'The e-mail was sent, or is still being tried.' },
+  },
   'me/route.ts': { get: { summary: 'Who is calling', access: 'signed-in', ok: ok200('The person and role.') } },
   'organization/route.ts': {
     get: { summary: "The company's settings", access: installers, ok: ok200('Settings.') },

@@ -13,6 +13,9 @@ import { NotFoundError } from '@/lib/domain/errors';
 import { loadInspection } from '@/lib/services/reports/inspection';
 import { findingCommentsOfCheck } from '@/lib/services/reports/finding-comments';
 import { formatDateTime } from '@/lib/domain/dates/format';
+import { listMailOfReadableReports } from '@/lib/services/mail/outbox';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import { mailDeliveryProps } from '@/lib/domain/mail/outbox';
 
 export const metadata: Metadata = { title: 'Inspection' };
 
@@ -33,6 +36,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
   const installerNote = lastNote && (lastNote.kind === 'answer' ? { text: lastNote.note, by: lastNote.installerName } : lastNote.kind === 'sent' && lastNote.note ? { text: lastNote.note, by: lastNote.by } : null);
   const findingTitles = Object.fromEntries(check.findings.map((f) => [f.ruleKey, f.title]));
   const comments = await findingCommentsOfCheck(getDb(), check.id);
+  const outcomeMails = (await listMailOfReadableReports(getDb(), [report.id])).filter((m) => m.kind === 'inspection-outcome');
   return (
     <>
       <PageHeader kicker={`${project.jurisdictionName} · report ${report.code}`} title={project.name}>
@@ -69,6 +73,19 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
             />
           )}
           <ThreadSection entries={thread.entries} findingTitles={findingTitles} headingId="thread-h" timeZone={timeZone} />
+          {outcomeMails.length > 0 && (
+            <section className="card p-5 text-sm" aria-labelledby="outcome-mail-h">
+              <h2 id="outcome-mail-h" className="font-bold">Outcome e-mails to the installer</h2>
+              <ul className="mt-2 space-y-2" data-testid="outcome-mails">
+                {outcomeMails.map((m) => (
+                  <li key={m.id}>
+                    <span className="block text-ink-soft">{m.to} · {formatDateTime(m.createdAt, timeZone)}</span>
+                    <MailDelivery initial={mailDeliveryProps(m)} />
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
           {attachments.length > 0 && (
             <section className="card p-5 text-sm" aria-labelledby="att-h">
               <h2 id="att-h" className="font-bold">Photos and documents in the report</h2>

@@ -11,6 +11,9 @@ import { ProjectThreads } from '@/components/reports/project-threads';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import { mailDeliveryProps } from '@/lib/domain/mail/outbox';
+import { listMailOfReadableReports } from '@/lib/services/mail/outbox';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
 import { loadProjectThreads } from '@/lib/services/reports/thread';
 import { formatDate, formatDateTime } from '@/lib/domain/dates/format';
@@ -27,6 +30,8 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
     listProjectSends(db, id),
     loadProjectThreads(db, user, id),
   ]);
+  const mails = await listMailOfReadableReports(db, [...new Set(sends.map((s) => s.report_id))]);
+  const mailOfSend = new Map(mails.filter((m) => m.reportSendId).map((m) => [m.reportSendId!, m]));
   const latest = checks[0];
   const newerRules = latest && published && latest.ruleSet.version < published.version;
   const canRun = user.role === 'installer' && revisions.length > 0 && !!published;
@@ -94,6 +99,11 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                     {s.status === 'sent' ? <StatusBadge status="pass" label="Sent" /> : <StatusBadge status="fail" label="Failed" />}
                     <span className="ml-2">report {s.code} to {s.to_email}{s.to_inspector === false ? ' (e-mail only, not in the inspector’s queue)' : ''} · {s.sent_by ?? 'former user'} · {formatDateTime(s.created_at, project.jurisdiction.timeZone)}</span>
                     {s.error && <span className="block text-status-fail">{s.error}</span>}
+                    {mailOfSend.has(s.id) && (
+                      <span className="block">
+                        <MailDelivery initial={mailDeliveryProps(mailOfSend.get(s.id)!)} />
+                      </span>
+                    )}
                   </li>
                 ))}
               </ul>

@@ -1,0 +1,56 @@
+import 'server-only';
+import { getDb } from '@/db';
+import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
+import { log } from '@/lib/platform/log';
+import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
+import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
+
+const g = globalThis as unknown as { nookpassWorkers?: Promise<void> };
+
+/**
+ * Starts this process's workers: every app server runs them, and the queue gives each job to one of them.
+ * Set NOOKPASS_WORKERS=0 for a server that should only answer requests.
+ */
+export function startWorkers(): Promise<void> {
+  g.nookpassWorkers ??= (async () => {
+    const db = getDb();
+    const { pollingIntervalSeconds } = mailDeliveryConfig();
+    await work<{ outboxId: string }>(MAIL_QUEUE, { concurrency: 2, pollingIntervalSeconds }, async (job) => {
+      // retryCount counts the retries already started; the last one has no retry after it.
+      return deliverOutboxMail(db, job.data.outboxId, { lastTry: job.retryCount >= job.retryLimit });
+    });
+    await work(MAIL_SWEEP_QUEUE, { pollingIntervalSeconds: 10 }, async () => requeueOverdueMail(db));
+    // Every minute (the finest a cron schedule goes); pg-boss sends one job per tick for all servers together.
+    await schedule(MAIL_SWEEP_QUEUE, '* * * * *');
+    await work<{ minAgeSeconds?: number }>(STORAGE_SWEEP_QUEUE, { pollingIntervalSeconds: 30 }, async (job) => {
+      const { examined, deleted } = await sweepUnreferencedObjects(db, { minAgeSeconds: typeof job.data?.minAgeSeconds === 'number' ? job.data.minAgeSeconds : undefined });
+      return { examined, deleted: deleted.length };
+    });
+    // Nightly at 03:15 UTC, when few people upload.
+    await schedule(STORAGE_SWEEP_QUEUE, '15 3 * * *');
+    log.info('job workers started');
+  })().catch((err) => {
+    g.nookpassWorkers = undefined;
+    throw err;
+  });
+  return g.nookpassWorkers;
+}
+
+/** Starts the workers, trying again every few seconds while the database is not reachable yet. */
+export function startWorkersInBackground(retryMs = 5_000): void {
+  let stopped = false;
+  const attempt = () => {
+    if (stopped) return;
+    startWorkers().catch((err) => {
+      log.error({ err }, 'job workers not started; trying again');
+      setTimeout(attempt, retryMs).unref();
+    });
+  };
+  attempt();
+  const stop = () => {
+    stopped = true;
+    void stopJobs();
+  };
+  process.once('SIGTERM', stop);
+  process.once('SIGINT', stop);
+}
