@@ -71,9 +71,6 @@ export async function measureScale(runs = 60) {
       inspectionsListP50Ms: inspections.p50Ms,
       inspectionsListP95Ms: inspections.p95Ms,
       impactJobMs,
-      // E-mail goes out inside the request until the outbox job exists; its throughput is measured there.
-      outboxPerSecond: null,
-      outboxNote: 'not measured: e-mail has no outbox yet (sent inside the request)',
       detail: {
         installer: installerEmail,
         lists: [firstPage, search, sortByName, inspections],
