@@ -14,7 +14,6 @@ import { api, baseUrl, postJson, signIn } from '../integration/helpers';
 import { measureEngineOverhead } from './engine-bench';
 import { measureLiveCheck } from './live-check-bench';
 import { measureScale } from './scale-bench';
-import { measureOutbox } from './outbox-bench';
 
 const results: Record<string, unknown> = {};
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
@@ -106,12 +105,6 @@ it('live check: time from an edit to the updated panel in Chromium', async () =>
   results.liveCheck = { ...(await measureLiveCheck(200)), goal: 'within one animation frame (16.7 ms at 60 Hz)' };
   console.log('[bench] live check', JSON.stringify(results.liveCheck));
   expect((results.liveCheck as { edits: number }).edits).toBe(200);
-});
-
-it('e-mail outbox: messages delivered a second by the job queue', async () => {
-  results.outbox = await measureOutbox(200);
-  console.log('[bench] outbox', JSON.stringify(results.outbox));
-  expect((results.outbox as { messages: number }).messages).toBe(200);
 });
 
 // scripts/bench.sh adds the scale scenario to the bench database unless NOOKPASS_BENCH_SCALE=0.
