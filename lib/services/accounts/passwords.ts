@@ -8,6 +8,7 @@ import { passwordFieldError } from '@/lib/domain/accounts/password-policy';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
 import { hashPassword, verifyPassword } from '@/lib/platform/auth/password';
+import { forgetCachedCopies } from '@/lib/platform/cache/invalidation';
 import { hashOneTimeToken, looksLikeOneTimeToken, newOneTimeToken } from '@/lib/platform/auth/one-time-token';
 import { PASSWORD_RESET_LIFETIME_SECONDS, queuePasswordResetMail } from '@/lib/services/accounts/account-mail';
 import { dispatchMail } from '@/lib/services/mail/outbox';
@@ -78,7 +79,7 @@ export async function resetPassword(db: DB, token: string, input: PasswordResetI
   if (weak) throw new ValidationError([weak]);
   const passwordHash = await hashPassword(input.password);
 
-  return db.transaction().execute(async (trx) => {
+  const ended = await db.transaction().execute(async (trx) => {
     // Spent here, not above: of two requests racing with one link, only one gets past this line.
     const state = await consumeEmailToken(trx, 'password_resets', tokenHash);
     if (state.status !== 'valid') refuseLink(state.status);
@@ -97,6 +98,8 @@ export async function resetPassword(db: DB, token: string, input: PasswordResetI
     });
     return { sessionsEnded, tokensRevoked, user: account.user };
   });
+  forgetCachedCopies();
+  return ended;
 }
 
 /**
@@ -115,7 +118,7 @@ export async function changePassword(db: DB, caller: { user: AppUser; sessionId:
     throw new ValidationError([{ path: 'password', message: 'Choose a password different from your current one.' }]);
   }
   const passwordHash = await hashPassword(input.password);
-  return db.transaction().execute(async (trx) => {
+  const ended = await db.transaction().execute(async (trx) => {
     await setPassword(trx, user.id, passwordHash);
     const sessionsEnded = await revokeSessionsOf(trx, user.id, sessionId);
     const tokensRevoked = input.keepApiTokens ? 0 : await revokeApiTokensOf(trx, user.id);
@@ -129,4 +132,6 @@ export async function changePassword(db: DB, caller: { user: AppUser; sessionId:
     });
     return { sessionsEnded, tokensRevoked };
   });
+  forgetCachedCopies();
+  return ended;
 }
