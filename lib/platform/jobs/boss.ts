@@ -69,7 +69,9 @@ export async function enqueue<T extends object>(queue: JobQueue, data: T, option
 
 /**
  * Runs `handler` for each job of the queue, `concurrency` at a time in this process. A handler that throws
- * fails the job, which pg-boss retries with backoff until its retry limit.
+ * fails the job, which pg-boss retries with backoff until its retry limit. A worker that has just done a job
+ * asks for the next one at once: pg-boss otherwise waits its polling interval after every fetch, found work
+ * or not, which would hold a busy queue to one job per worker per interval.
  */
 export async function work<T extends object>(
   queue: JobQueue,
@@ -78,7 +80,8 @@ export async function work<T extends object>(
 ): Promise<void> {
   const boss = await ensureQueue(queue);
   for (let i = 0; i < (options.concurrency ?? 1); i++) {
-    await boss.work<T>(
+    let workerId: string | undefined;
+    workerId = await boss.work<T>(
       queue.name,
       { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
       async ([job]) => {
@@ -87,6 +90,8 @@ export async function work<T extends object>(
         } catch (err) {
           log.warn({ err, job: { id: job.id, name: job.name, retryCount: job.retryCount, retryLimit: job.retryLimit } }, 'job failed');
           throw err;
+        } finally {
+          if (workerId) boss.notifyWorker(workerId);
         }
       },
     );
