@@ -92,8 +92,19 @@ export async function findWebhookEndpoint(db: DB, organizationId: string, id: st
   return row ? toEndpoint(row) : null;
 }
 
-export async function countWebhookEndpoints(db: DB, organizationId: string): Promise<number> {
-  const row = await db.selectFrom('webhook_endpoints').select((eb) => eb.fn.countAll<number>().as('n')).where('organization_id', '=', organizationId).executeTakeFirstOrThrow();
+/** Serializes changes to a company's set of endpoints (by its organization row) until the transaction ends. */
+export async function lockCompanyWebhooks(trx: DB, organizationId: string): Promise<void> {
+  await trx.selectFrom('organizations').select('id').where('id', '=', organizationId).forNoKeyUpdate().execute();
+}
+
+/** The company's active endpoints (deactivated ones only keep their history). */
+export async function countActiveWebhookEndpoints(db: DB, organizationId: string): Promise<number> {
+  const row = await db
+    .selectFrom('webhook_endpoints')
+    .select((eb) => eb.fn.countAll<number>().as('n'))
+    .where('organization_id', '=', organizationId)
+    .where('is_active', '=', true)
+    .executeTakeFirstOrThrow();
   return Number(row.n);
 }
 

@@ -3,11 +3,12 @@ import { randomBytes } from 'node:crypto';
 import type { DB } from '@/db';
 import { writeAudit } from '@/db/audit';
 import {
-  countWebhookEndpoints,
+  countActiveWebhookEndpoints,
   deleteWebhookEndpointWithoutDeliveries,
   findWebhookDelivery,
   findWebhookEndpoint,
   insertWebhookEndpoint,
+  lockCompanyWebhooks,
   listRecentWebhookDeliveries,
   listWebhookDeliveries,
   listWebhookEndpoints,
@@ -48,6 +49,14 @@ function ownerCompany(actor: AppUser): string {
 /** A new signing secret: 32 random bytes, the hash's output length, below which RFC 2104 section 3 discourages HMAC keys. */
 function newSecret(): string {
   return `whsec_${randomBytes(32).toString('base64url')}`;
+}
+
+const TOO_MANY = `Your company has ${MAX_WEBHOOK_ENDPOINTS} active webhook endpoints already; remove or deactivate one first.`;
+
+/** Counted under a lock on the company row, so two owners adding at once cannot pass the limit together. */
+async function assertRoomForActiveEndpoint(trx: DB, company: string): Promise<void> {
+  await lockCompanyWebhooks(trx, company);
+  if ((await countActiveWebhookEndpoints(trx, company)) >= MAX_WEBHOOK_ENDPOINTS) throw new ConflictError(TOO_MANY);
 }
 
 function assertTargetAllowed(url: string): void {
@@ -107,9 +116,7 @@ export async function createWebhook(db: DB, actor: AppUser, input: WebhookCreate
   assertTargetAllowed(input.url);
   const secret = newSecret();
   const id = await db.transaction().execute(async (trx) => {
-    if ((await countWebhookEndpoints(trx, company)) >= MAX_WEBHOOK_ENDPOINTS) {
-      throw new ConflictError(`Your company has ${MAX_WEBHOOK_ENDPOINTS} webhook endpoints already; remove one first.`);
-    }
+    await assertRoomForActiveEndpoint(trx, company);
     const id = await insertWebhookEndpoint(trx, { organizationId: company, url: input.url, events: input.events, secret, createdBy: actor.id });
     await writeAudit(trx, { actorUserId: actor.id, action: 'webhook.create', entityType: 'webhook_endpoint', entityId: id, organizationId: company, details: { url: input.url, events: input.events } });
     return id;
@@ -121,6 +128,9 @@ export async function updateWebhook(db: DB, actor: AppUser, id: string, input: W
   const company = ownerCompany(actor);
   if (input.url !== undefined) assertTargetAllowed(input.url);
   await db.transaction().execute(async (trx) => {
+    const before = await findWebhookEndpoint(trx, company, id);
+    if (!before) throw new NotFoundError(NO_SUCH_ENDPOINT);
+    if (input.active === true && !before.isActive) await assertRoomForActiveEndpoint(trx, company);
     const changed = await updateWebhookEndpoint(trx, company, id, { url: input.url, events: input.events, isActive: input.active });
     if (!changed) throw new NotFoundError(NO_SUCH_ENDPOINT);
     await writeAudit(trx, { actorUserId: actor.id, action: 'webhook.update', entityType: 'webhook_endpoint', entityId: id, organizationId: company, details: { ...input } });
