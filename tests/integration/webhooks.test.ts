@@ -23,6 +23,8 @@ type Received = { path: string; headers: http.IncomingHttpHeaders; body: string 
 const received: Received[] = [];
 /** Status codes a path answers with, in turn; the last one repeats. */
 const answers = new Map<string, number[]>();
+/** Where a path sends a redirect answer (Location). */
+const redirects = new Map<string, string>();
 let receiver: http.Server;
 let receiverUrl: string;
 
@@ -97,7 +99,8 @@ beforeAll(async () => {
       received.push({ path, headers: req.headers, body: Buffer.concat(chunks).toString('utf8') });
       const queue = answers.get(path) ?? [200];
       const status = queue.length > 1 ? queue.shift()! : queue[0];
-      res.writeHead(status, { 'content-type': 'text/plain' }).end(status < 300 ? 'ok' : 'not now');
+      const location = redirects.get(path);
+      res.writeHead(status, { 'content-type': 'text/plain', ...(location ? { location: `${receiverUrl}${location}` } : {}) }).end(status < 300 ? 'ok' : 'not now');
     });
   });
   await new Promise<void>((resolve) => receiver.listen(0, '127.0.0.1', resolve));
@@ -186,6 +189,19 @@ describe('webhook endpoints', () => {
     // The same event both times, each attempt signed afresh.
     const [first, second] = requests.map((r) => expectSigned(r, hook.secret));
     expect(second.id).toBe(first.id);
+  });
+
+  it('follow no redirect: a 302 counts as a failed attempt and the target it names hears nothing', { timeout: 90_000 }, async () => {
+    const company = await newCompany('redirect');
+    answers.set('/moved', [302]);
+    redirects.set('/moved', '/moved-here');
+    const hook = await addEndpoint(company.owner, '/moved', ['report.sent']);
+    await sendReport(company.owner);
+    const retrying = await waitForDelivery(company.owner, hook.id, (d) => d.status === 'retrying' || d.status === 'failed');
+    expect(retrying).toMatchObject({ lastResponseStatus: 302, lastError: 'The endpoint answered 302 (redirects are not followed).' });
+    expect(at('/moved-here')).toHaveLength(0);
+    // Stop it here, so its remaining attempts end at once.
+    expect((await api(`/api/webhooks/${hook.id}`, postJson({ active: false }, { cookie: company.owner, method: 'PATCH' }))).status).toBe(200);
   });
 
   it('fail after the last attempt, then "send again" (owners only) delivers it', { timeout: 120_000 }, async () => {
