@@ -10,6 +10,7 @@ import type { MailKind, MailStatus } from '@/lib/domain/mail/outbox';
 import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
 import type { Role } from '@/lib/domain/roles';
 import type { RuleSetStatus } from '@/lib/domain/rule-sets/status';
+import type { WebhookDeliveryStatus, WebhookEventType } from '@/lib/domain/webhooks/events';
 
 export type { CheckOutcome, PlumbingFamily, ReviewOutcome, Role, RuleSetStatus };
 
@@ -366,6 +367,38 @@ export interface MailOutboxTable {
   updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
 }
 
+export interface WebhookEndpointsTable {
+  id: Generated<string>;
+  organization_id: string;
+  url: string;
+  events: ColumnType<WebhookEventType[], WebhookEventType[], WebhookEventType[]>;
+  secret: string;
+  is_active: ColumnType<boolean, boolean | undefined, boolean>;
+  secret_rotated_at: ColumnType<Date | null, never, Date | string | null>;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+}
+
+/** What was sent (endpoint, event, payload) never changes; a trigger lets only the state columns move. */
+export interface WebhookDeliveriesTable {
+  id: Generated<string>;
+  endpoint_id: ColumnType<string, string, never>;
+  event_id: ColumnType<string, string, never>;
+  event_type: ColumnType<WebhookEventType, WebhookEventType, never>;
+  payload: ColumnType<unknown, string, never>;
+  status: ColumnType<WebhookDeliveryStatus, WebhookDeliveryStatus | undefined, WebhookDeliveryStatus>;
+  attempts: ColumnType<number, number | undefined, number>;
+  max_attempts: number;
+  last_response_status: number | null;
+  last_error: string | null;
+  next_attempt_at: Timestamp;
+  claimed_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  delivered_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -390,6 +423,8 @@ export interface Database {
   rate_limits: RateLimitsTable;
   appliance_models: ApplianceModelsTable;
   mail_outbox: MailOutboxTable;
+  webhook_endpoints: WebhookEndpointsTable;
+  webhook_deliveries: WebhookDeliveriesTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

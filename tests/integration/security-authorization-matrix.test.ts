@@ -1,4 +1,4 @@
-import { createHash, randomBytes } from 'node:crypto';
+import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import bcrypt from 'bcryptjs';
@@ -50,6 +50,9 @@ type Ids = {
   invitationId: string;
   invitationToken: string;
   memberId: string;
+  webhookId: string;
+  webhookToDeleteId: string;
+  webhookDeliveryId: string;
 };
 
 type Send =
@@ -70,6 +73,8 @@ const uniqueTag = () => randomBytes(5).toString('hex');
 const UNISSUED_TOKEN = 'A'.repeat(43);
 
 const NIL_UUID = '00000000-0000-4000-8000-000000000000';
+// The .test top-level name never resolves (RFC 2606), so deliveries to it fail at once and reach nobody.
+const MATRIX_HOOK_URL = 'https://hooks.matrix.example.test/nookpass';
 
 async function smallPng(shade: string): Promise<Buffer> {
   return sharp({ create: { width: 24, height: 16, channels: 3, background: shade } }).png().toBuffer();
@@ -208,6 +213,15 @@ const apiMatrix: Record<string, ApiRow> = {
   // An installer reads their own company; only its owner changes it (the matrix owner owns Demo Closet Works).
   'GET /api/organization':                       { path: () => '/api/organization', expect: a(401, 200, 200, 403, 403, 403) },
   'PATCH /api/organization':                     { path: () => '/api/organization', send: { json: () => ({ name: 'Demo Closet Works', licenseNumber: 'DEMO-HIC-000123' }) }, expect: a(401, 200, 403, 403, 403, 403) },
+  // Webhooks follow the company settings: its installers read, its owners change; another company's endpoint is 404.
+  'GET /api/webhooks':                           { path: () => '/api/webhooks', expect: a(401, 200, 200, 403, 403, 403) },
+  'POST /api/webhooks':                          { path: () => '/api/webhooks', send: { json: () => ({ url: MATRIX_HOOK_URL, events: ['report.sent'] }) }, expect: a(401, 201, 403, 403, 403, 403) },
+  'PATCH /api/webhooks/[id]':                    { path: (i) => `/api/webhooks/${i.webhookId}`, send: { json: () => ({ events: ['report.sent', 'inspection.outcome_recorded'] }) }, expect: a(401, 200, 403, 403, 403, 403) },
+  'DELETE /api/webhooks/[id]':                   { path: (i) => `/api/webhooks/${i.webhookToDeleteId}`, expect: a(401, 200, 403, 403, 403, 403) },
+  'POST /api/webhooks/[id]/rotate-secret':       { path: (i) => `/api/webhooks/${i.webhookId}/rotate-secret`, expect: a(401, 200, 403, 403, 403, 403) },
+  'GET /api/webhooks/[id]/deliveries':           { path: (i) => `/api/webhooks/${i.webhookId}/deliveries`, expect: a(401, 200, 404, 403, 403, 403) },
+  // The matrix delivery was delivered already: past the checks, the owner meets a 409 and nothing is sent.
+  'POST /api/webhook-deliveries/[id]/send-again': { path: (i) => `/api/webhook-deliveries/${i.webhookDeliveryId}/send-again`, expect: a(401, 409, 403, 403, 403, 403) },
 };
 
 // DELETE carries the revision in the query; it is filled in just before the call.
@@ -440,10 +454,20 @@ beforeAll(async () => {
     email: `matrix-member-${randomBytes(4).toString('hex')}@example.test`, name: 'Matrix Member', role: 'installer', organization_id: firstCompany.id,
     password_hash: await bcrypt.hash('matrix-member-pw', 4),
   }).returning('id').executeTakeFirstOrThrow()).id;
+
+  ids.webhookId = (await must(await api('/api/webhooks', postJson({ url: MATRIX_HOOK_URL, events: ['report.sent'] }, { cookie: owner })), 201, 'webhook')).id;
+  ids.webhookToDeleteId = (await must(await api('/api/webhooks', postJson({ url: MATRIX_HOOK_URL, events: ['report.sent'] }, { cookie: owner })), 201, 'webhook to delete')).id;
+  // Nothing the matrix does should reach them; they stay only for their rows.
+  await db.updateTable('webhook_endpoints').set({ is_active: false }).where('id', 'in', [ids.webhookId, ids.webhookToDeleteId]).execute();
+  ids.webhookDeliveryId = (await db.insertInto('webhook_deliveries').values({
+    endpoint_id: ids.webhookId, event_id: randomUUID(), event_type: 'report.sent', payload: JSON.stringify({ matrix: true }), max_attempts: 1, status: 'delivered', attempts: 1, last_response_status: 204, delivered_at: new Date(),
+  }).returning('id').executeTakeFirstOrThrow()).id;
 }, 120_000);
 
 afterAll(async () => {
   await deactivateTestPeople(db, cityEmail, ...ownEmails);
+  // The endpoints the matrix added stop receiving (and stop counting against the company's limit).
+  await db.updateTable('webhook_endpoints').set({ is_active: false }).where('url', '=', MATRIX_HOOK_URL).execute();
   await db.destroy();
 });
 

@@ -22,6 +22,7 @@ import { jurisdictionCreateSchema, jurisdictionListItemSchema, jurisdictionUpdat
 import { draftCreateSchema, draftSaveSchema, publishSchema, retireSchema, revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
 import type { Role } from '@/lib/domain/roles';
 import { newTokenSchema } from '@/lib/platform/auth/api-token-form';
+import { webhookCreateSchema, webhookDeliveriesQuerySchema, webhookUpdateSchema } from '@/lib/domain/webhooks/schema';
 
 /**
  * Who may call an operation: anyone; any signed-in person or API token; only these roles; or only a signed-in
@@ -206,4 +207,18 @@ export const apiRoutes: Record<string, RouteEntry> = {
   'users/route.ts': { get: { summary: 'Everyone (administrators)', access: admins, ok: ok200('People.') } },
   'users/[id]/route.ts': { patch: { summary: "Change a person's role or access", access: installersAndAdmins, body: json(personUpdateSchema), ok: ok200('The person as stored.') } },
   'openapi.json/route.ts': { get: { summary: 'This description (OpenAPI 3.1)', access: 'public', ok: ok200('The OpenAPI document.') } },
+  // Webhooks: installers of the company read; owners change (others of the company get 403, other companies 404).
+  'webhooks/route.ts': {
+    get: { summary: "The company's webhook endpoints", access: installers, ok: ok200('Endpoints (never their secrets).') },
+    post: { summary: 'Add a webhook endpoint (owner; the secret is shown once)', access: installers, body: json(webhookCreateSchema), ok: ok201('The endpoint and its signing secret.'), conflict: 'The company has the most endpoints allowed.' },
+  },
+  'webhooks/[id]/route.ts': {
+    patch: { summary: 'Change a webhook endpoint (owner)', access: installers, body: json(webhookUpdateSchema), ok: ok200('The endpoint as stored.') },
+    delete: { summary: 'Remove a webhook endpoint, or deactivate it when it has deliveries (owner)', access: installers, ok: ok200('{ deleted, deactivated, endpoint }.') },
+  },
+  'webhooks/[id]/rotate-secret/route.ts': { post: { summary: "Replace a webhook endpoint's signing secret (owner; shown once)", access: installers, ok: ok200('The endpoint and its new secret.') } },
+  'webhooks/[id]/deliveries/route.ts': { get: { summary: "A webhook endpoint's latest deliveries", access: installers, query: webhookDeliveriesQuerySchema, ok: ok200('Deliveries with state, attempts and the last response status.') } },
+  'webhook-deliveries/[id]/send-again/route.ts': {
+    post: { summary: 'Queue a webhook delivery again after its last attempt failed (owner)', access: installers, ok: { status: 202, description: 'Queued again with a fresh set of attempts.' }, conflict: 'The delivery was delivered, is still being tried, or its endpoint is deactivated.' },
+  },
 };

@@ -4,6 +4,7 @@ import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
 import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
+import { deliverWebhook, requeueOverdueWebhooks, WEBHOOK_QUEUE, WEBHOOK_SWEEP_QUEUE } from '@/lib/services/webhooks/deliveries';
 
 const g = globalThis as unknown as { nookpassWorkers?: Promise<void> };
 
@@ -28,6 +29,12 @@ export function startWorkers(): Promise<void> {
     });
     // Nightly at 03:15 UTC, when few people upload.
     await schedule(STORAGE_SWEEP_QUEUE, '15 3 * * *');
+    // Webhooks: one signed POST per attempt, retried like mail; a pass every minute re-queues lost deliveries.
+    await work<{ deliveryId: string }>(WEBHOOK_QUEUE, { concurrency: 2, pollingIntervalSeconds }, async (job) =>
+      deliverWebhook(db, job.data.deliveryId, { lastTry: job.retryCount >= job.retryLimit }),
+    );
+    await work(WEBHOOK_SWEEP_QUEUE, { pollingIntervalSeconds: 10 }, async () => requeueOverdueWebhooks(db));
+    await schedule(WEBHOOK_SWEEP_QUEUE, '* * * * *');
     log.info('job workers started');
   })().catch((err) => {
     g.nookpassWorkers = undefined;

@@ -10,6 +10,8 @@ import { loadInspection } from '@/lib/services/reports/inspection';
 import { publicBaseUrl } from '@/lib/services/reports/issue';
 import { formatDateTime } from '@/lib/domain/dates/format';
 import { dispatchMail, queueMail } from '@/lib/services/mail/outbox';
+import { findProjectEventContext } from '@/db/webhooks';
+import { dispatchWebhookDeliveries, queueWebhookEvent } from '@/lib/services/webhooks/deliveries';
 
 /**
  * An inspector records an outcome on a report, or on the installer's latest answer to corrections; the
@@ -23,7 +25,7 @@ export async function recordInspectionOutcome(db: DB, user: AppUser, input: { re
   if (unknown.length) throw new ValidationError(unknown.map((k) => ({ path: `findingComments.${k}`, message: `The report has no finding ${k}.` })));
   const findingComments = Object.fromEntries(Object.entries(input.review.findingComments).filter(([, c]) => c.length > 0));
   const outcomeText = input.review.outcome === 'approved' ? 'approved' : 'corrections needed';
-  const { review, mails } = await withReportLocked(db, inspection.report.id, async (trx) => {
+  const { review, mails, webhooks } = await withReportLocked(db, inspection.report.id, async (trx) => {
     const [outcomes, answers] = [await listThreadOutcomes(trx, inspection.report.id), await listThreadAnswers(trx, inspection.report.id)];
     const place = placeOutcome(outcomes, answers, { revise: input.review.revise, revises: input.review.revises }, inspection.timeZone);
     // The findings commented on are the ones under review when the page was read.
@@ -50,8 +52,26 @@ export async function recordInspectionOutcome(db: DB, user: AppUser, input: { re
         }),
       );
     }
-    return { review, mails };
+    // The installer company's webhook endpoints hear of it in the same transaction.
+    const context = await findProjectEventContext(trx, inspection.project.id);
+    const webhooks = context
+      ? await queueWebhookEvent(trx, context.organizationId, {
+          type: 'inspection.outcome_recorded',
+          occurredAt: review.createdAt,
+          data: {
+            project: { id: inspection.project.id, name: context.name },
+            report: { code: inspection.report.code, verifyUrl: `${publicBaseUrl()}/verify/${inspection.report.code}` },
+            jurisdiction: context.jurisdiction,
+            outcome: input.review.outcome,
+            inspector: { name: user.name },
+            revised: !!review.revisesId,
+            onAnswer: !!review.answerId,
+          },
+        })
+      : [];
+    return { review, mails, webhooks };
   });
   await dispatchMail(mails);
+  await dispatchWebhookDeliveries(webhooks);
   return { review, mailed: mails.length, mails: mails.map((m) => ({ id: m.id, to: m.to, status: m.status })) };
 }

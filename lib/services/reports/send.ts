@@ -12,6 +12,7 @@ import { dispatchMail, queueMail } from '@/lib/services/mail/outbox';
 import { assertMaySendToInspectors } from '@/lib/services/accounts/email-confirmation';
 import type { SendInput } from '@/lib/domain/reports/send-schema';
 import { formatDateTime } from '@/lib/domain/dates/format';
+import { dispatchWebhookDeliveries, queueWebhookEvent } from '@/lib/services/webhooks/deliveries';
 
 const sameAddress = (a: string, b: string | null) => !!b && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -78,9 +79,19 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
   const record = { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, toInspector, actorId: user.id, note: input.note ?? null };
   // The send and its e-mail are recorded together and the answer comes at once; a job delivers the e-mail
   // (the report reaches the inspector's queue in NookPass whatever the mail relay does).
-  const mail = await db.transaction().execute(async (trx) => {
+  const { mail, webhooks } = await db.transaction().execute(async (trx) => {
     const send = await insertSend(trx, { ...record, status: 'sent', error: null, messageId: null });
-    return queueMail(trx, {
+    // The company's webhook endpoints hear of the send with it, delivered by a job like the e-mail.
+    const webhooks = await queueWebhookEvent(trx, project.organizationId, {
+      type: 'report.sent',
+      data: {
+        project: { id: project.id, name: project.name },
+        report: { code: report.code, verifyUrl },
+        jurisdiction: { slug: project.jurisdiction.slug, name: issuedJur.name },
+        toInspector,
+      },
+    });
+    const mail = await queueMail(trx, {
       kind: 'report-send',
       to,
       replyTo: user.name ? { name: user.name, address: user.email } : user.email,
@@ -91,7 +102,9 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
       reportSendId: send.id,
       createdBy: user.id,
     });
+    return { mail, webhooks };
   });
   await dispatchMail([mail]);
+  await dispatchWebhookDeliveries(webhooks);
   return { sent: true as const, to, toInspector, report: { code: report.code, sha256: report.sha256 }, mail: { id: mail.id, status: mail.status } };
 }
