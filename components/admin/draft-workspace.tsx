@@ -65,11 +65,12 @@ export function DraftWorkspace({ initial, slug, timeZone, latestDryRun }: { init
   const [reloads, setReloads] = useState(0);
   const shownRun = latestDryRun?.run.state === 'done' ? latestDryRun : null;
   const [dryRun, setDryRun] = useState<DryRun | null>((shownRun?.result as DryRun | undefined) ?? null);
+  const working = latestDryRun && !isFinished(latestDryRun.run) ? latestDryRun.run : null;
   const [dryRunState, setDryRunState] = useState<'idle' | 'running' | 'stale'>(
-    shownRun && (shownRun.result as DryRun).draft.revision !== initial.revision ? 'stale' : 'idle',
+    working ? 'running' : shownRun && (shownRun.result as DryRun).draft.revision !== initial.revision ? 'stale' : 'idle',
   );
   // The job's progress while a dry run works, and when the one shown finished.
-  const [dryRunProgress, setDryRunProgress] = useState<RunStatus | null>(null);
+  const [dryRunProgress, setDryRunProgress] = useState<RunStatus | null>(working);
   const [dryRunFinishedAt, setDryRunFinishedAt] = useState<string | Date | null>(shownRun?.run.finishedAt ?? null);
   const gone = useRef(false);
   const [changelog, setChangelog] = useState(initial.changelog);
@@ -145,8 +146,6 @@ export function DraftWorkspace({ initial, slug, timeZone, latestDryRun }: { init
    * the time it is done.
    */
   async function followDryRun(started: RunStatus, cancelled: () => boolean): Promise<DryRun | null> {
-    setDryRunState('running');
-    setDryRunProgress(started);
     const finished = await pollRun<RunStatus & { result: DryRun | null }>(`${url}/dry-runs/${started.id}`, setDryRunProgress, cancelled);
     if (!finished) return null;
     setDryRunProgress(null);
@@ -162,6 +161,7 @@ export function DraftWorkspace({ initial, slug, timeZone, latestDryRun }: { init
     try {
       const started = await inTurn(() => fetchJson<RunStatus>(`${url}/dry-runs`, { method: 'POST', json: {} }));
       if (cancelled()) return null;
+      setDryRunProgress(started);
       return await followDryRun(started, cancelled);
     } catch (err) {
       if (cancelled()) return null;
@@ -178,17 +178,20 @@ export function DraftWorkspace({ initial, slug, timeZone, latestDryRun }: { init
     gone.current = false;
     const latest = latestDryRun?.run;
     const matches = latest && latest.draftRevision === initial.revision && latest.state !== 'failed';
-    if (latest && !isFinished(latest)) {
-      followDryRun(latest, () => cancelled).catch((err: Error) => {
-        if (!cancelled) {
-          setPublishError(err.message);
-          setDryRunState('idle');
-        }
-      });
-    } else if (!matches) {
-      void runDryRun(() => cancelled);
-    }
+    const kickoff = setTimeout(() => {
+      if (latest && !isFinished(latest)) {
+        followDryRun(latest, () => cancelled).catch((err: Error) => {
+          if (!cancelled) {
+            setPublishError(err.message);
+            setDryRunState('idle');
+          }
+        });
+      } else if (!matches) {
+        void runDryRun(() => cancelled);
+      }
+    }, 0);
     return () => {
+      clearTimeout(kickoff);
       cancelled = true;
       gone.current = true;
     };

@@ -24,7 +24,6 @@ export function ImpactRunPanel({ slug, version, initial, autoStart, finishedText
   const gone = useRef(false);
 
   async function follow(started: RunStatus, cancelled: () => boolean) {
-    setRun(started);
     const finished = await pollRun(`/api/jurisdictions/${slug}/impact-runs/${started.id}`, setRun, cancelled);
     if (finished?.state === 'done') router.refresh();
   }
@@ -33,7 +32,9 @@ export function ImpactRunPanel({ slug, version, initial, autoStart, finishedText
     setError(null);
     try {
       const started = await fetchJson<RunStatus>(`/api/jurisdictions/${slug}/impact-runs`, { method: 'POST', json: { version } });
-      if (!cancelled()) await follow(started, cancelled);
+      if (cancelled()) return;
+      setRun(started);
+      await follow(started, cancelled);
     } catch (err) {
       if (!cancelled()) setError((err as Error).message);
     }
@@ -43,9 +44,12 @@ export function ImpactRunPanel({ slug, version, initial, autoStart, finishedText
     let cancelled = false;
     gone.current = false;
     // A second start (React's development double effect, two tabs) joins the run already working.
-    if (initial && !isFinished(initial)) follow(initial, () => cancelled).catch((err: Error) => setError(err.message));
-    else if (autoStart) void start(() => cancelled);
+    const kickoff = setTimeout(() => {
+      if (initial && !isFinished(initial)) follow(initial, () => cancelled).catch((err: Error) => setError(err.message));
+      else if (autoStart) void start(() => cancelled);
+    }, 0);
     return () => {
+      clearTimeout(kickoff);
       cancelled = true;
       gone.current = true;
     };
