@@ -184,4 +184,13 @@ describe('a dry run done by the job', () => {
     await expect(db.updateTable('rule_set_runs').set({ result: '{}' }).where('id', '=', run.id).execute()).rejects.toThrow(/cannot change/);
     await expect(db.deleteFrom('rule_set_runs').where('id', '=', run.id).execute()).rejects.toThrow(/kept/);
   });
+
+  it('outlives its draft: discarding the draft keeps the finished run, unlinked', async () => {
+    const other = (await draftWithShorterExhaust(demoCity.id)).id;
+    const run = await newRun('dry-run', demoCity.id, other);
+    expect(await executeRuleSetRun(db, run.id, { lastTry: false })).toBe('done');
+    const done = (await findRuleSetRun(db, run.id))!;
+    await db.deleteFrom('rule_sets').where('id', '=', other).execute();
+    expect(await findRuleSetRun(db, run.id)).toEqual({ ...done, ruleSetId: null });
+  });
 });
