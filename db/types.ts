@@ -11,6 +11,7 @@ import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
 import type { Role } from '@/lib/domain/roles';
 import type { RuleSetStatus } from '@/lib/domain/rule-sets/status';
 import type { WebhookDeliveryStatus, WebhookEventType } from '@/lib/domain/webhooks/events';
+import type { RuleSetRunKind, RuleSetRunState } from '@/lib/domain/rule-sets/runs';
 
 export type { CheckOutcome, PlumbingFamily, ReviewOutcome, Role, RuleSetStatus };
 
@@ -399,6 +400,27 @@ export interface WebhookDeliveriesTable {
   updated_at: Timestamp;
 }
 
+export interface RuleSetRunsTable {
+  id: Generated<string>;
+  kind: RuleSetRunKind;
+  jurisdiction_id: string;
+  rule_set_id: string | null;
+  rule_set_version: number;
+  draft_revision: number | null;
+  state: ColumnType<RuleSetRunState, RuleSetRunState | undefined, RuleSetRunState>;
+  done_count: ColumnType<number, number | undefined, number>;
+  total_count: number | null;
+  result: ColumnType<unknown | null, string | null | undefined, string | null>;
+  error: string | null;
+  attempts: ColumnType<number, number | undefined, number>;
+  claim_token: string | null;
+  claimed_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  requested_by: string | null;
+  created_at: CreatedAt;
+  started_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  finished_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -425,6 +447,7 @@ export interface Database {
   mail_outbox: MailOutboxTable;
   webhook_endpoints: WebhookEndpointsTable;
   webhook_deliveries: WebhookDeliveriesTable;
+  rule_set_runs: RuleSetRunsTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

@@ -44,6 +44,8 @@ type Ids = {
   slug: string;
   publishedId: string;
   draftId: string;
+  dryRunId: string;
+  impactRunId: string;
   ruleKey: string;
   applianceId: string;
   applianceToDeleteId: string;
@@ -170,6 +172,8 @@ const apiMatrix: Record<string, ApiRow> = {
   'PATCH /api/jurisdictions/[slug]':             { path: (i) => `/api/jurisdictions/${i.slug}`, send: { json: () => ({ amendmentNotes: 'Edited by the authorization matrix.' }) }, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/audit':         { path: (i) => `/api/jurisdictions/${i.slug}/audit`, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/impact':        { path: (i) => `/api/jurisdictions/${i.slug}/impact`, expect: a(401, 403, 403, 403, 403, 200) },
+  'POST /api/jurisdictions/[slug]/impact-runs':  { path: (i) => `/api/jurisdictions/${i.slug}/impact-runs`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 202) },
+  'GET /api/jurisdictions/[slug]/impact-runs/[runId]': { path: (i) => `/api/jurisdictions/${i.slug}/impact-runs/${i.impactRunId}`, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/published/[version]': { path: (i) => `/api/jurisdictions/${i.slug}/published/1`, expect: a(401, 200, 200, 200, 200, 200) },
   'GET /api/jurisdictions/[slug]/rule-sets':     { path: (i) => `/api/jurisdictions/${i.slug}/rule-sets`, expect: a(401, 403, 403, 403, 403, 200) },
   // A jurisdiction has at most one open draft; the admin passes the role check and meets that rule.
@@ -183,6 +187,8 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/rule-sets/[id]/citations':          { path: (i) => `/api/rule-sets/${i.draftId}/citations`, expect: a(401, 403, 403, 403, 403, 200) },
   'POST /api/rule-sets/[id]/citations':         { path: (i) => `/api/rule-sets/${i.draftId}/citations`, send: { json: () => ({ ruleKey: 'exhaust.developed-length', checked: true, against: 'IRC 2018 as adopted (matrix test)' }) }, expect: a(401, 403, 403, 403, 403, 201) },
   'POST /api/rule-sets/[id]/dry-run':            { path: (i) => `/api/rule-sets/${i.draftId}/dry-run`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 200) },
+  'POST /api/rule-sets/[id]/dry-runs':           { path: (i) => `/api/rule-sets/${i.draftId}/dry-runs`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 202) },
+  'GET /api/rule-sets/[id]/dry-runs/[runId]':    { path: (i) => `/api/rule-sets/${i.draftId}/dry-runs/${i.dryRunId}`, expect: a(401, 403, 403, 403, 403, 200) },
   // The three rows below would end the draft, so the admin sends a stale revision on purpose:
   // past the role check, the revision check refuses (409) and the draft stays for the pages.
   'POST /api/rule-sets/[id]/publish':            { path: (i) => `/api/rule-sets/${i.draftId}/publish`, send: { json: () => ({ revision: 9999, changelog: 'Never published.' }) }, expect: a(401, 403, 403, 403, 403, 409) },
@@ -442,6 +448,8 @@ beforeAll(async () => {
   const set = await must(await api(`/api/rule-sets/${ids.draftId}`, { cookie: admin }), 200, 'draft read');
   draftRule = set.rules.find((r: { key: string }) => r.key === 'exhaust.developed-length');
   ids.ruleKey = 'local.matrix-copy';
+  ids.dryRunId = (await must(await api(`/api/rule-sets/${ids.draftId}/dry-runs`, postJson({}, { cookie: admin })), 202, 'dry run')).id;
+  ids.impactRunId = (await must(await api(`/api/jurisdictions/${ids.slug}/impact-runs`, postJson({}, { cookie: admin })), 202, 'impact run')).id;
 
   ids.invitationId = (await must(await api('/api/invitations', postJson({ email: `matrix-revokable-${randomBytes(4).toString('hex')}@example.test`, role: 'installer' }, { cookie: owner })), 201, 'invitation')).id;
   // An invitation with a token of our own making, stored as the app stores them (SHA-256 hex), for the accept row.

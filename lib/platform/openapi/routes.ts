@@ -19,7 +19,7 @@ import { answerSchema } from '@/lib/domain/reports/thread';
 import { sendSchema } from '@/lib/domain/reports/send-schema';
 import { citationCheckSchema } from '@/lib/domain/rule-sets/citation-checks';
 import { jurisdictionCreateSchema, jurisdictionListItemSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
-import { draftCreateSchema, draftSaveSchema, publishSchema, retireSchema, revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
+import { draftCreateSchema, draftSaveSchema, dryRunStartSchema, impactRunStartSchema, publishSchema, retireSchema, revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
 import type { Role } from '@/lib/domain/roles';
 import { newTokenSchema } from '@/lib/platform/auth/api-token-form';
 import { webhookCreateSchema, webhookDeliveriesQuerySchema, webhookUpdateSchema } from '@/lib/domain/webhooks/schema';
@@ -61,6 +61,7 @@ const inspectorsAndAdmins = ['inspector', 'admin'] as const;
 const ok200 = (description: string, schema?: z.ZodType) => ({ status: 200 as const, description, schema });
 const ok201 = (description: string, schema?: z.ZodType) => ({ status: 201 as const, description, schema });
 const noContent = (description: string) => ({ status: 204 as const, description });
+const accepted = (description: string) => ({ status: 202 as const, description });
 const csv = (description: string) => ({ status: 200 as const, description, contentType: 'text/csv' as const });
 
 // The plan as the routes take it, described once in the document's components.
@@ -126,6 +127,10 @@ export const apiRoutes: Record<string, RouteEntry> = {
   },
   'jurisdictions/[slug]/audit/route.ts': { get: { summary: "A jurisdiction's audit log", access: admins, ok: ok200('Audit entries.') } },
   'jurisdictions/[slug]/impact/route.ts': { get: { summary: 'Projects a draft would change', access: admins, ok: ok200('Impact.') } },
+  'jurisdictions/[slug]/impact-runs/route.ts': {
+    post: { summary: 'Start an impact run of the published version (a job)', access: admins, body: json(impactRunStartSchema), ok: accepted('The run, queued (or the one already working on this version, joined: true); poll its Location.'), conflict: 'Nothing is published, or another version is published than the one sent.' },
+  },
+  'jurisdictions/[slug]/impact-runs/[runId]/route.ts': { get: { summary: 'An impact run: state, projects done of total, result when done', access: admins, ok: ok200('The run.') } },
   'jurisdictions/[slug]/published/[version]/route.ts': { get: { summary: 'A published rule set (immutable)', access: 'signed-in', ok: ok200('The rule set.') } },
   'jurisdictions/[slug]/rule-sets/route.ts': {
     get: { summary: "A jurisdiction's rule set versions", access: admins, ok: ok200('Versions.') },
@@ -189,6 +194,10 @@ export const apiRoutes: Record<string, RouteEntry> = {
   },
   'rule-sets/[id]/diff/route.ts': { get: { summary: 'Differences between two versions', access: admins, query: ruleSetDiffQuerySchema, ok: ok200('The difference.') } },
   'rule-sets/[id]/dry-run/route.ts': { post: { summary: "Run a draft over the jurisdiction's projects", access: admins, ok: ok200('Outcome changes.') } },
+  'rule-sets/[id]/dry-runs/route.ts': {
+    post: { summary: "Start a dry run of a draft over the jurisdiction's projects (a job)", access: admins, body: json(dryRunStartSchema), ok: accepted('The run, queued (or the one already working on this revision, joined: true); poll its Location.'), conflict: 'The draft is at another revision than the one sent.' },
+  },
+  'rule-sets/[id]/dry-runs/[runId]/route.ts': { get: { summary: 'A dry run: state, plans done of total, result when done', access: admins, ok: ok200('The run.') } },
   'rule-sets/[id]/publish/route.ts': { post: { summary: 'Publish a draft', access: admins, body: json(publishSchema), ok: ok200('The published version.'), conflict: 'Changed since read, or unchecked citations need confirm: true (needsConfirmation).' } },
   'rule-sets/[id]/retire/route.ts': { post: { summary: 'Retire a published version', access: admins, body: json(retireSchema), ok: ok200('Retired.'), conflict: 'A draft, already retired, or no successor.' } },
   'rule-sets/[id]/rules/route.ts': { post: { summary: 'Add a rule to a draft', access: admins, body: json(ruleSaveSchema), ok: ok201('The draft.'), conflict: 'Changed since read, or the key is taken.' } },

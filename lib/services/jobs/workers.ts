@@ -3,6 +3,7 @@ import { getDb } from '@/db';
 import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
+import { executeRuleSetRun, RULE_SET_RUN_QUEUE, ruleSetRunConfig } from '@/lib/services/rule-sets/runs';
 import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
 import { deliverWebhook, requeueOverdueWebhooks, WEBHOOK_QUEUE, WEBHOOK_SWEEP_QUEUE } from '@/lib/services/webhooks/deliveries';
 
@@ -35,6 +36,10 @@ export function startWorkers(): Promise<void> {
     );
     await work(WEBHOOK_SWEEP_QUEUE, { pollingIntervalSeconds: 10 }, async () => requeueOverdueWebhooks(db));
     await schedule(WEBHOOK_SWEEP_QUEUE, '* * * * *');
+    // Impact and dry runs: one at a time per server, so evaluations never crowd out the requests it answers.
+    await work<{ runId: string }>(RULE_SET_RUN_QUEUE, { pollingIntervalSeconds: ruleSetRunConfig().pollingIntervalSeconds }, async (job) =>
+      executeRuleSetRun(db, job.data.runId, { lastTry: job.retryCount >= job.retryLimit }),
+    );
     log.info('job workers started');
   })().catch((err) => {
     g.nookpassWorkers = undefined;

@@ -10,6 +10,8 @@ import { ParametersForm } from '@/components/admin/parameters-form';
 import { RuleTable } from '@/components/admin/rule-editor';
 import { CitationChecks } from '@/components/admin/citation-checks';
 import { listCitationStatuses } from '@/lib/services/rule-sets/citations';
+import { findLatestDryRun } from '@/lib/services/rule-sets/runs';
+import { runStatusOf } from '@/lib/domain/rule-sets/runs';
 import { VersionStatus } from '@/components/admin/version-status';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
@@ -31,6 +33,11 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
   if (!set) notFound();
   const published = await findPublishedVersion(db, jurisdiction.id);
   const mismatches = citationMismatches(set.rules, jurisdiction.editions);
+  const dryRun = set.status === 'draft' ? await findLatestDryRun(db, set.id) : null;
+  const latestDryRun = dryRun && {
+    run: runStatusOf(dryRun),
+    result: dryRun.result,
+  };
 
   return (
     <>
@@ -56,7 +63,7 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
         </div>
       )}
       {set.status === 'draft' ? (
-        <DraftWorkspace initial={set} slug={slug} timeZone={jurisdiction.timeZone} />
+        <DraftWorkspace initial={set} slug={slug} timeZone={jurisdiction.timeZone} latestDryRun={latestDryRun} />
       ) : (
         <div className="space-y-6">
           <p className="text-sm text-ink-soft">This version is {set.status}: the database refuses any change to it. To change the rules, start a new draft from the versions page.</p>
