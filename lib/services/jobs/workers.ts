@@ -3,6 +3,7 @@ import { getDb } from '@/db';
 import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
+import { DERIVATIVES_QUEUE, derivativesConfig, makeAttachmentDerivatives } from '@/lib/services/attachments/derivatives';
 import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
 
 const g = globalThis as unknown as { nookpassWorkers?: Promise<void> };
@@ -28,6 +29,10 @@ export function startWorkers(): Promise<void> {
     });
     // Nightly at 03:15 UTC, when few people upload.
     await schedule(STORAGE_SWEEP_QUEUE, '15 3 * * *');
+    // A photo's thumbnail, report-size image and copy without metadata, after the upload has answered.
+    await work<{ attachmentId: string }>(DERIVATIVES_QUEUE, { concurrency: 1, pollingIntervalSeconds: derivativesConfig().pollingIntervalSeconds }, async (job) => {
+      return { result: await makeAttachmentDerivatives(db, job.data.attachmentId, { lastTry: job.retryCount >= job.retryLimit }) };
+    });
     log.info('job workers started');
   })().catch((err) => {
     g.nookpassWorkers = undefined;
