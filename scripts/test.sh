@@ -52,6 +52,8 @@ export NEXT_TELEMETRY_DISABLED=1
 # The served app works the job queue in its own process (instrumentation.ts); e-mail retries are short here so
 # the outbox tests see a message fail its last attempt within seconds (4 attempts, 1 s doubling).
 export NOOKPASS_MAIL_ATTEMPTS=4 NOOKPASS_MAIL_RETRY_DELAY_SECONDS=1
+# Likewise a photo whose thumbnail cannot be made ends "failed" within seconds.
+export NOOKPASS_DERIVATIVE_ATTEMPTS=4 NOOKPASS_DERIVATIVE_RETRY_DELAY_SECONDS=1
 
 say "Unit tests…"
 npx vitest run tests/unit

@@ -13,7 +13,7 @@ export function ThumbnailState({ derivatives, filename }: { derivatives: Attachm
       data-testid="thumbnail-state"
       data-derivatives-status={derivatives.status}
     >
-      <span className="font-mono text-ink-faint">{filename}</span>
+      <span className="font-mono text-ink-soft">{filename}</span>
       <span className={`font-semibold ${tone}`} role="status">
         Photo: {state.label}
       </span>

@@ -98,7 +98,8 @@ export async function checkUpload(bytes: Buffer, declaredName: string): Promise<
   let width: number | undefined;
   let height: number | undefined;
   try {
-    ({ width, height } = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' }).metadata());
+    // Header only: nothing is decoded, so the pixel limit is checked below with a message of its own.
+    ({ width, height } = await sharp(bytes, { limitInputPixels: false, failOn: 'error' }).metadata());
   } catch {
     // An unreadable header is refused here; damage further in shows when the job decodes the photo.
   }

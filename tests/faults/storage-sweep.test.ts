@@ -28,7 +28,8 @@ describe('the stored-object sweep', () => {
       for (const k of keys) if (await findObject(k)) return k;
       throw new Error('no stored object found for these rows');
     };
-    const photoKey = await stored((await db.selectFrom('attachments').select('storage_key').where('kind', '=', 'photo').orderBy('created_at', 'desc').limit(50).execute()).map((r) => r.storage_key));
+    // A photo whose images the job has made (one that failed on purpose has none to keep).
+    const photoKey = await stored((await db.selectFrom('attachments').select('storage_key').where('kind', '=', 'photo').where('derivatives_status', '=', 'ready').orderBy('created_at', 'desc').limit(50).execute()).map((r) => r.storage_key));
     const reportKey = await stored((await db.selectFrom('reports').select('storage_key').orderBy('created_at', 'desc').limit(50).execute()).map((r) => r.storage_key));
 
     // The served app's workers run the job; the nightly schedule sends the same job without minAgeSeconds.

@@ -38,7 +38,7 @@ const storageKeyOf = async (id: string) => (await db.selectFrom('attachments').s
 
 /** A JPEG whose header reads but whose pixels stop a third of the way in: the upload takes it, decoding fails. */
 async function truncatedJpeg(): Promise<Buffer> {
-  const whole = await sharp({ create: { width: 800, height: 600, channels: 3, noise: { type: 'gaussian', mean: 128, sigma: 40 } } }).jpeg().toBuffer();
+  const whole = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#808080', noise: { type: 'gaussian', mean: 128, sigma: 40 } } }).jpeg().toBuffer();
   return whole.subarray(0, Math.floor(whole.length / 3));
 }
 
