@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { sql } from 'kysely';
 import PgBoss from 'pg-boss';
 import { afterAll, describe, expect, it } from 'vitest';
-import { displayKey } from '@/db/attachments';
+import { displayKey, thumbnailKeyFor, withoutMetadataKey } from '@/db/attachments';
 import { findObject, putObject } from '@/lib/platform/storage';
 import { appDatabaseUrl, appDb } from '../integration/helpers';
 
@@ -53,6 +53,9 @@ describe('the stored-object sweep', () => {
     expect(await findObject(outside)).not.toBeNull();
     expect(await findObject(photoKey)).not.toBeNull();
     expect(await findObject(displayKey(photoKey))).not.toBeNull();
+    // The images the thumbnail job made are referenced through the original's key.
+    expect(await findObject(thumbnailKeyFor(photoKey))).not.toBeNull();
+    expect(await findObject(withoutMetadataKey(photoKey))).not.toBeNull();
     expect(await findObject(reportKey)).not.toBeNull();
   });
 });
