@@ -11,13 +11,16 @@ import { MAX_PHOTO_SIDE_PX, preparePhoto, uploadWithProgress } from '@/lib/platf
 type A = { id: string; kind: 'photo' | 'document'; filename: string; caption: string; byteSize: number; createdAt: string; derivatives: AttachmentDerivatives };
 
 const THUMBNAIL_POLL_MS = 2_000;
+const THUMBNAIL_POLL_FOR_MS = 10 * 60_000;
 const isWaiting = (a: A) => a.kind === 'photo' && ['pending', 'making', 'retrying'].includes(a.derivatives.status);
 
 export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
   const url = `/api/projects/${projectId}/attachments`;
-  // While a thumbnail is on its way the list is read again every few seconds; otherwise only on change.
+  // While a thumbnail is on its way the list is read again every few seconds (a page left open stops after
+  // ten minutes; a reload shows the latest state); otherwise only on change.
+  const [openedAt, setOpenedAt] = useState(() => Date.now());
   const { data, error, isLoading, mutate } = useSWR<{ attachments: A[] }>(url, swrFetcher, {
-    refreshInterval: (latest) => (latest?.attachments.some(isWaiting) ? THUMBNAIL_POLL_MS : 0),
+    refreshInterval: (latest) => (latest?.attachments.some(isWaiting) && Date.now() - openedAt < THUMBNAIL_POLL_FOR_MS ? THUMBNAIL_POLL_MS : 0),
   });
   const [againError, setAgainError] = useState<string | null>(null);
   const [caption, setCaption] = useState('');
@@ -47,6 +50,7 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
       setNote(s ? `Uploaded ${prepared.file.name}, scaled from ${s.width} × ${s.height} to ${s.toWidth} × ${s.toHeight} px.` : `Uploaded ${prepared.file.name}.`);
       setCaption('');
       if (fileRef.current) fileRef.current.value = '';
+      setOpenedAt(Date.now());
       await mutate();
     } catch (err) {
       setUploadError(`${(err as Error).message} The file was not saved; choose it again to retry.`);
@@ -63,6 +67,7 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
 
   async function makeAgain(a: A) {
     setAgainError(null);
+    setOpenedAt(Date.now());
     try {
       await fetchJson(`/api/attachments/${a.id}/derivatives`, { method: 'POST' });
     } catch (err) {
