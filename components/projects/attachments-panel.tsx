@@ -16,11 +16,18 @@ const isWaiting = (a: A) => a.kind === 'photo' && ['pending', 'making', 'retryin
 
 export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
   const url = `/api/projects/${projectId}/attachments`;
-  // While a thumbnail is on its way the list is read again every few seconds (a page left open stops after
-  // ten minutes; a reload shows the latest state); otherwise only on change.
-  const [openedAt, setOpenedAt] = useState(() => Date.now());
+  // While a thumbnail is on its way the list is read again every few seconds (for ten minutes at most; a reload
+  // shows the latest state); otherwise only on change. The clock restarts whenever nothing is waiting.
+  const waitingSince = useRef<number | null>(null);
   const { data, error, isLoading, mutate } = useSWR<{ attachments: A[] }>(url, swrFetcher, {
-    refreshInterval: (latest) => (latest?.attachments.some(isWaiting) && Date.now() - openedAt < THUMBNAIL_POLL_FOR_MS ? THUMBNAIL_POLL_MS : 0),
+    refreshInterval: (latest) => {
+      if (!latest?.attachments.some(isWaiting)) {
+        waitingSince.current = null;
+        return 0;
+      }
+      waitingSince.current ??= Date.now();
+      return Date.now() - waitingSince.current < THUMBNAIL_POLL_FOR_MS ? THUMBNAIL_POLL_MS : 0;
+    },
   });
   const [againError, setAgainError] = useState<string | null>(null);
   const [caption, setCaption] = useState('');
@@ -50,7 +57,6 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
       setNote(s ? `Uploaded ${prepared.file.name}, scaled from ${s.width} × ${s.height} to ${s.toWidth} × ${s.toHeight} px.` : `Uploaded ${prepared.file.name}.`);
       setCaption('');
       if (fileRef.current) fileRef.current.value = '';
-      setOpenedAt(Date.now());
       await mutate();
     } catch (err) {
       setUploadError(`${(err as Error).message} The file was not saved; choose it again to retry.`);
@@ -67,7 +73,6 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
 
   async function makeAgain(a: A) {
     setAgainError(null);
-    setOpenedAt(Date.now());
     try {
       await fetchJson(`/api/attachments/${a.id}/derivatives`, { method: 'POST' });
     } catch (err) {
