@@ -3,7 +3,8 @@ import { displayKey, withoutMetadataKey } from '@/db/attachments';
 
 /**
  * Every object key a row refers to: an attachment's original, thumbnail, report-size image and copy without
- * metadata, and each issued report's PDF (which outbox e-mails attach by the same key).
+ * metadata (whether or not the job has made them yet: their keys follow from the original's), and each issued
+ * report's PDF (which outbox e-mails attach by the same key).
  */
 export async function listReferencedObjectKeys(db: DB): Promise<Set<string>> {
   const keys = new Set<string>();

@@ -7,6 +7,7 @@ type Json<T> = ColumnType<T, string, string>;
 import type { CheckOutcome } from '@/lib/domain/checks/outcome';
 import type { PlumbingFamily } from '@/lib/domain/editions';
 import type { MailKind, MailStatus } from '@/lib/domain/mail/outbox';
+import type { AttachmentDerivativesStatus } from '@/lib/domain/attachments/derivatives';
 import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
 import type { Role } from '@/lib/domain/roles';
 import type { RuleSetStatus } from '@/lib/domain/rule-sets/status';
@@ -239,6 +240,12 @@ export interface AttachmentsTable {
   created_by: string | null;
   created_at: CreatedAt;
   deleted_at: Timestamp | null;
+  derivatives_status: ColumnType<AttachmentDerivativesStatus, AttachmentDerivativesStatus | undefined, AttachmentDerivativesStatus>;
+  derivatives_attempts: Generated<number>;
+  derivatives_max_attempts: Generated<number>;
+  derivatives_error: string | null;
+  derivatives_claimed_at: Timestamp | null;
+  derivatives_updated_at: Timestamp;
 }
 
 export interface ReportsTable {

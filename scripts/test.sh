@@ -55,6 +55,8 @@ export NOOKPASS_MAIL_ATTEMPTS=4 NOOKPASS_MAIL_RETRY_DELAY_SECONDS=1
 # Webhook deliveries likewise; the webhook tests run their receiver on 127.0.0.1, which a production server
 # refuses unless local receivers are allowed.
 export NOOKPASS_WEBHOOK_ATTEMPTS=4 NOOKPASS_WEBHOOK_RETRY_DELAY_SECONDS=1 NOOKPASS_WEBHOOKS_ALLOW_LOCAL=1
+# Likewise a photo whose thumbnail cannot be made ends "failed" within seconds.
+export NOOKPASS_DERIVATIVE_ATTEMPTS=4 NOOKPASS_DERIVATIVE_RETRY_DELAY_SECONDS=1
 
 say "Unit tests…"
 npx vitest run tests/unit

@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { sql } from 'kysely';
 import PgBoss from 'pg-boss';
 import { afterAll, describe, expect, it } from 'vitest';
-import { displayKey } from '@/db/attachments';
+import { displayKey, thumbnailKeyFor, withoutMetadataKey } from '@/db/attachments';
 import { findObject, putObject } from '@/lib/platform/storage';
 import { appDatabaseUrl, appDb } from '../integration/helpers';
 
@@ -28,7 +28,8 @@ describe('the stored-object sweep', () => {
       for (const k of keys) if (await findObject(k)) return k;
       throw new Error('no stored object found for these rows');
     };
-    const photoKey = await stored((await db.selectFrom('attachments').select('storage_key').where('kind', '=', 'photo').orderBy('created_at', 'desc').limit(50).execute()).map((r) => r.storage_key));
+    // A photo whose images the job has made (one that failed on purpose has none to keep).
+    const photoKey = await stored((await db.selectFrom('attachments').select('storage_key').where('kind', '=', 'photo').where('derivatives_status', '=', 'ready').orderBy('created_at', 'desc').limit(50).execute()).map((r) => r.storage_key));
     const reportKey = await stored((await db.selectFrom('reports').select('storage_key').orderBy('created_at', 'desc').limit(50).execute()).map((r) => r.storage_key));
 
     // The served app's workers run the job; the nightly schedule sends the same job without minAgeSeconds.
@@ -52,6 +53,9 @@ describe('the stored-object sweep', () => {
     expect(await findObject(outside)).not.toBeNull();
     expect(await findObject(photoKey)).not.toBeNull();
     expect(await findObject(displayKey(photoKey))).not.toBeNull();
+    // The images the thumbnail job made are referenced through the original's key.
+    expect(await findObject(thumbnailKeyFor(photoKey))).not.toBeNull();
+    expect(await findObject(withoutMetadataKey(photoKey))).not.toBeNull();
     expect(await findObject(reportKey)).not.toBeNull();
   });
 });

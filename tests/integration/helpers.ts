@@ -374,3 +374,22 @@ export async function waitForMailState(id: string, cookie: string, done: (s: { s
   }
   throw new Error(`mail ${id} still ${last?.status} after ${ms} ms`);
 }
+
+export type ThumbnailStateBody = { id: string; status: string; attempts: number; maxAttempts: number; lastError: string | null; label: string; canMakeAgain: boolean };
+
+/**
+ * A photo's thumbnail and report-size image are made by a job after the upload answers. Polls
+ * GET /api/attachments/<id>/derivatives until `done` holds (by default: ready or failed), up to `ms`.
+ */
+export async function waitForThumbnail(id: string, cookie: string, done: (s: ThumbnailStateBody) => boolean = (s) => s.status === 'ready' || s.status === 'failed', ms = 60_000): Promise<ThumbnailStateBody> {
+  const deadline = Date.now() + ms;
+  let last: ThumbnailStateBody | null = null;
+  while (Date.now() < deadline) {
+    const res = await api(`/api/attachments/${id}/derivatives`, { cookie });
+    if (res.status !== 200) throw new Error(`GET /api/attachments/${id}/derivatives answered ${res.status}`);
+    last = res.body as ThumbnailStateBody;
+    if (done(last)) return last;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`attachment ${id} thumbnail still ${last?.status} after ${ms} ms`);
+}

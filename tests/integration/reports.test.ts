@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { withoutMetadataKey } from '@/db/attachments';
 import { deleteObject, findObject } from '@/lib/platform/storage';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, waitForMail, waitForMailState } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, waitForMail, waitForMailState, waitForThumbnail } from './helpers';
 
 const db = appDb();
 let installer: string;
@@ -89,6 +89,8 @@ describe('uploads', () => {
     const res = await upload(installer, 'nameplate.jpg', jpeg, 'image/jpeg', 'Dryer nameplate');
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ kind: 'photo', contentType: 'image/jpeg', width: 1600, height: 1200, caption: 'Dryer nameplate' });
+    // The thumbnail is made by a job after the upload has answered.
+    expect((await waitForThumbnail(res.body.id, installer)).status).toBe('ready');
     const thumb = await raw(`/api/attachments/${res.body.id}?variant=thumb`, installer);
     expect(thumb.status).toBe(200);
     const meta = await sharp(thumb.bytes).metadata();
@@ -173,6 +175,7 @@ describe('uploads', () => {
     const parsed = parseContentDisposition(header);
     expect(parsed.type).toBe('inline');
     expect(parsed.parameters.filename).toBe(name); // the package prefers filename* when both are there
+    expect((await waitForThumbnail(res.body.id, installer)).status).toBe('ready');
     const thumb = await raw(`/api/attachments/${res.body.id}?variant=thumb`, installer);
     expect(thumb.status).toBe(200);
     expect(parseContentDisposition(thumb.headers.get('content-disposition')!).parameters.filename).toBe('фото-😀.jpg');
@@ -302,7 +305,8 @@ describe('sending to the inspector and the review', () => {
     const detail = await api(`/api/inspections/${reportId}`, { cookie: inspector });
     expect(detail.status).toBe(200);
     expect(detail.body.attachments.length).toBeGreaterThan(0);
-    // The inspector can now see the photos the report included.
+    // The inspector can now see the photos the report included, and where their thumbnails are.
+    expect((await waitForThumbnail(detail.body.attachments[0].id, inspector)).status).toBe('ready');
     expect((await raw(`/api/attachments/${detail.body.attachments[0].id}?variant=thumb`, inspector)).status).toBe(200);
     expect((await api('/api/inspections', { cookie: installer })).status).toBe(403);
   });
@@ -339,6 +343,7 @@ describe('photos seen outside the company', () => {
     expect(source.exif?.includes(gpsPointer)).toBe(true);
     const res = await upload(installer, 'site-with-position.jpg', jpeg, 'image/jpeg', 'Photo with a GPS position');
     expect(res.status).toBe(201);
+    expect((await waitForThumbnail(res.body.id, installer)).status).toBe('ready');
     const sent = await api(`/api/checks/${checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie: installer }));
     expect(sent.status).toBe(201);
 

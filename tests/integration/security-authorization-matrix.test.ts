@@ -5,7 +5,7 @@ import bcrypt from 'bcryptjs';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, testAddress, waitForThumbnail } from './helpers';
 
 /*
  * Who may do what, for every route handler and every page, from the file system: a route file,
@@ -37,6 +37,7 @@ type Ids = {
   checkId: string;
   attachmentId: string;
   attachmentToDeleteId: string;
+  failedDerivativesAttachmentId: string;
   reportId: string;
   reportCode: string;
   mailId: string;
@@ -149,6 +150,9 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/attachments/[id]':                   { path: (i) => `/api/attachments/${i.attachmentId}`, expect: a(401, 200, 404, 200, 404, 200) },
   'PATCH /api/attachments/[id]':                 { path: (i) => `/api/attachments/${i.attachmentId}`, send: { json: () => ({ caption: 'Matrix caption' }) }, expect: a(401, 200, 404, 403, 403, 403) },
   'DELETE /api/attachments/[id]':                { path: (i) => `/api/attachments/${i.attachmentToDeleteId}`, expect: a(401, 200, 404, 403, 403, 403) },
+  'GET /api/attachments/[id]/derivatives':       { path: (i) => `/api/attachments/${i.attachmentId}/derivatives`, expect: a(401, 200, 404, 200, 404, 200) },
+  // The photo's images ended failed (set in the setup), so the company's installer may queue them again.
+  'POST /api/attachments/[id]/derivatives':      { path: (i) => `/api/attachments/${i.failedDerivativesAttachmentId}/derivatives`, expect: a(401, 202, 404, 403, 403, 403) },
   'GET /api/checks/[id]':                        { path: (i) => `/api/checks/${i.checkId}`, expect: a(401, 200, 404, 403, 403, 200) },
   'GET /api/checks/[id]/findings.csv':           { path: (i) => `/api/checks/${i.checkId}/findings.csv`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/checks/[id]/report':                { path: (i) => `/api/checks/${i.checkId}/report`, expect: a(401, 200, 404, 403, 403, 200) },
@@ -438,6 +442,10 @@ beforeAll(async () => {
   ids.mailId = sent.mail.id;
   ids.reportId = (await db.selectFrom('reports').select('id').where('code', '=', ids.reportCode).executeTakeFirstOrThrow()).id;
   ids.attachmentToDeleteId = await uploadPhoto(owner, '#993366');
+  ids.failedDerivativesAttachmentId = await uploadPhoto(owner, '#669933');
+  // Once its job is done, the photo's images are recorded as failed, as after a last attempt.
+  await waitForThumbnail(ids.failedDerivativesAttachmentId, owner);
+  await db.updateTable('attachments').set({ derivatives_status: 'failed', derivatives_error: 'matrix: held as failed' }).where('id', '=', ids.failedDerivativesAttachmentId).execute();
   ids.applianceId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance')).id;
   ids.applianceToDeleteId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance to delete')).id;
   ids.tokenId = (await must(await api('/api/tokens', postJson({ name: 'matrix: to be revoked' }, { cookie: owner })), 201, 'token')).id;

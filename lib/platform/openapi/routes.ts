@@ -91,9 +91,13 @@ export const apiRoutes: Record<string, RouteEntry> = {
     post: { summary: 'Import appliance models from CSV', access: installers, body: { raw: 'text/csv', description: 'The CSV file (header line first), up to 1 MiB.' }, ok: ok201('What was added and changed.') },
   },
   'attachments/[id]/route.ts': {
-    get: { summary: 'Download an attachment', access: 'signed-in', ok: { status: 200, description: 'The file.', contentType: 'application/octet-stream' } },
+    get: { summary: 'Download an attachment (`?variant=thumb` or `display` for a photo\'s thumbnail or report-size image)', access: 'signed-in', ok: { status: 200, description: 'The file.', contentType: 'application/octet-stream' }, conflict: 'The thumbnail or report-size image is not made yet.' },
     patch: { summary: "Change an attachment's caption", access: installers, body: json(attachmentUpdateSchema), ok: ok200('The caption as stored.'), conflict: 'The attachment was already sent with a report.' },
     delete: { summary: 'Delete an attachment', access: installers, ok: noContent('Deleted.'), conflict: 'The attachment was already sent with a report.' },
+  },
+  'attachments/[id]/derivatives/route.ts': {
+    get: { summary: "Where a photo's thumbnail and report-size image are (pending, making, retrying, ready, failed)", access: 'signed-in', ok: ok200('The state, attempts made and the last error.') },
+    post: { summary: "Make a photo's thumbnail and report-size image again after the last attempt failed", access: installers, ok: { status: 202, description: 'Queued again with a fresh set of attempts.' }, conflict: 'The images are made, or are still being made.' },
   },
   'auth/[...nextauth]/route.ts': { undocumented: 'Browser sign-in, handled by the authentication library; integrators use API tokens.' },
   'checks/[id]/route.ts': { get: { summary: 'One check with its findings', access: installersAndAdmins, ok: ok200('The check as stored.') } },

@@ -4,6 +4,7 @@ import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
 import { executeRuleSetRun, RULE_SET_RUN_QUEUE, ruleSetRunConfig } from '@/lib/services/rule-sets/runs';
+import { DERIVATIVES_QUEUE, derivativesConfig, makeAttachmentDerivatives } from '@/lib/services/attachments/derivatives';
 import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
 import { deliverWebhook, requeueOverdueWebhooks, WEBHOOK_QUEUE, WEBHOOK_SWEEP_QUEUE } from '@/lib/services/webhooks/deliveries';
 
@@ -40,6 +41,10 @@ export function startWorkers(): Promise<void> {
     await work<{ runId: string }>(RULE_SET_RUN_QUEUE, { pollingIntervalSeconds: ruleSetRunConfig().pollingIntervalSeconds }, async (job) =>
       executeRuleSetRun(db, job.data.runId, { lastTry: job.retryCount >= job.retryLimit }),
     );
+    // A photo's thumbnail, report-size image and copy without metadata, after the upload has answered.
+    await work<{ attachmentId: string }>(DERIVATIVES_QUEUE, { concurrency: 1, pollingIntervalSeconds: derivativesConfig().pollingIntervalSeconds }, async (job) => {
+      return { result: await makeAttachmentDerivatives(db, job.data.attachmentId, { lastTry: job.retryCount >= job.retryLimit }) };
+    });
     log.info('job workers started');
   })().catch((err) => {
     g.nookpassWorkers = undefined;

@@ -16,6 +16,7 @@ import { formatDateTime } from '@/lib/domain/dates/format';
 import { listMailOfReadableReports } from '@/lib/services/mail/outbox';
 import { MailDelivery } from '@/components/mail/mail-delivery';
 import { mailDeliveryProps } from '@/lib/domain/mail/outbox';
+import { ThumbnailState } from '@/components/attachments/thumbnail-state';
 
 export const metadata: Metadata = { title: 'Inspection' };
 
@@ -92,7 +93,9 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
               <ul className="mt-2 grid grid-cols-2 gap-3">
                 {attachments.map((a) => (
                   <li key={a.id}>
-                    {a.kind === 'photo' ? (
+                    {a.kind === 'photo' && a.derivatives.status !== 'ready' ? (
+                      <ThumbnailState derivatives={a.derivatives} filename={a.filename} />
+                    ) : a.kind === 'photo' ? (
                       // eslint-disable-next-line @next/next/no-img-element
                       <img src={`/api/attachments/${a.id}?variant=thumb`} alt={a.caption || a.filename} className="rounded border border-rule" />
                     ) : (
