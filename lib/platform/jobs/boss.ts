@@ -11,6 +11,11 @@ import { log } from '@/lib/platform/log';
 
 export const JOB_SCHEMA = 'pgboss';
 
+/** A job setting from the environment: a positive whole number, or the fallback when unset or anything else. */
+export function positiveIntSetting(value: string | undefined, fallback: number): number {
+  return value && /^\d+$/.test(value) && Number(value) > 0 ? Number(value) : fallback;
+}
+
 export type JobQueue = {
   name: string;
   /** Attempts after the first; pg-boss waits retryDelay seconds, doubling each time with jitter (retryBackoff). */

@@ -14,7 +14,7 @@ import {
 import { derivativesState } from '@/lib/domain/attachments/derivatives';
 import { ConflictError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
-import { enqueue, type JobQueue } from '@/lib/platform/jobs/boss';
+import { enqueue, type JobQueue, positiveIntSetting } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { findObject, putObject } from '@/lib/platform/storage';
 import { makePhotoDerivatives, makeReportImage } from '@/lib/platform/uploads';
@@ -28,13 +28,12 @@ import { loadAttachmentFor } from '@/lib/services/attachments/access';
  * readers and the storage sweep know them without asking.
  */
 
-const positiveInt = (v: string | undefined, fallback: number) => (v && /^\d+$/.test(v) && Number(v) > 0 ? Number(v) : fallback);
 
 export function derivativesConfig() {
   return {
     /** First attempt plus retries; retries wait retryDelaySeconds × 1–2, then ×2–4, … (pg-boss retryBackoff). */
-    maxAttempts: Math.min(20, positiveInt(process.env.NOOKPASS_DERIVATIVE_ATTEMPTS, 4)),
-    retryDelaySeconds: positiveInt(process.env.NOOKPASS_DERIVATIVE_RETRY_DELAY_SECONDS, 10),
+    maxAttempts: Math.min(20, positiveIntSetting(process.env.NOOKPASS_DERIVATIVE_ATTEMPTS, 4)),
+    retryDelaySeconds: positiveIntSetting(process.env.NOOKPASS_DERIVATIVE_RETRY_DELAY_SECONDS, 10),
     /** A claim older than this belongs to a worker that died (a 40 MP photo takes a few seconds). */
     staleClaimSeconds: 120,
     pollingIntervalSeconds: Number(process.env.NOOKPASS_JOB_POLL_SECONDS ?? 1) || 1,

@@ -16,7 +16,7 @@ import { findReportById } from '@/db/reports';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import type { OutboxMail } from '@/lib/domain/mail/outbox';
 import type { AppUser } from '@/lib/domain/roles';
-import { enqueue, type JobQueue } from '@/lib/platform/jobs/boss';
+import { enqueue, type JobQueue, positiveIntSetting } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { sendMail } from '@/lib/platform/mail';
 import { findObject } from '@/lib/platform/storage';
@@ -29,17 +29,16 @@ import { assertCanReadReport } from '@/lib/services/reports/access';
  * (two app servers, a retried or duplicated job) it reaches the relay once.
  */
 
-const positiveInt = (v: string | undefined, fallback: number) => (v && /^\d+$/.test(v) && Number(v) > 0 ? Number(v) : fallback);
 
 export function mailDeliveryConfig() {
   return {
     /** First attempt plus retries; retries wait retryDelaySeconds × 1–2, then ×2–4, … (pg-boss retryBackoff). */
-    maxAttempts: Math.min(20, positiveInt(process.env.NOOKPASS_MAIL_ATTEMPTS, 6)),
-    retryDelaySeconds: positiveInt(process.env.NOOKPASS_MAIL_RETRY_DELAY_SECONDS, 30),
+    maxAttempts: Math.min(20, positiveIntSetting(process.env.NOOKPASS_MAIL_ATTEMPTS, 6)),
+    retryDelaySeconds: positiveIntSetting(process.env.NOOKPASS_MAIL_RETRY_DELAY_SECONDS, 30),
     /** A claim older than this belongs to a sender that died (an SMTP exchange times out within 25 s). */
     staleClaimSeconds: 300,
     /** A waiting message this far past its due time has lost its job: the periodic pass queues it again. */
-    overdueGraceSeconds: positiveInt(process.env.NOOKPASS_MAIL_OVERDUE_SECONDS, 60),
+    overdueGraceSeconds: positiveIntSetting(process.env.NOOKPASS_MAIL_OVERDUE_SECONDS, 60),
     pollingIntervalSeconds: Number(process.env.NOOKPASS_JOB_POLL_SECONDS ?? 1) || 1,
   };
 }

@@ -15,7 +15,7 @@ import type { Jurisdiction } from '@/db/jurisdictions';
 import { ConflictError, NotFoundError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
 import type { RuleSetRun } from '@/lib/domain/rule-sets/runs';
-import { enqueue, type JobQueue } from '@/lib/platform/jobs/boss';
+import { enqueue, type JobQueue, positiveIntSetting } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { auditDryRun, computeImpact, evaluateDryRun, type DryRunResult, type ImpactResult } from '@/lib/services/rule-sets/comparisons';
 
@@ -27,14 +27,13 @@ import { auditDryRun, computeImpact, evaluateDryRun, type DryRunResult, type Imp
  * routes call (evaluateDryRun, computeImpact).
  */
 
-const positiveInt = (v: string | undefined, fallback: number) => (v && /^\d+$/.test(v) && Number(v) > 0 ? Number(v) : fallback);
 
 export function ruleSetRunConfig() {
   return {
     /** Subjects evaluated between two progress writes. */
-    batchSize: positiveInt(process.env.NOOKPASS_RUN_BATCH_SIZE, 25),
+    batchSize: positiveIntSetting(process.env.NOOKPASS_RUN_BATCH_SIZE, 25),
     /** A claim whose progress has not moved for this long belongs to a worker that died. */
-    staleClaimSeconds: positiveInt(process.env.NOOKPASS_RUN_STALE_SECONDS, 120),
+    staleClaimSeconds: positiveIntSetting(process.env.NOOKPASS_RUN_STALE_SECONDS, 120),
     pollingIntervalSeconds: Number(process.env.NOOKPASS_JOB_POLL_SECONDS ?? 1) || 1,
   };
 }

@@ -10,7 +10,7 @@ import {
   markWebhookDelivered,
 } from '@/db/webhooks';
 import { webhookPayload, type OutcomeRecordedData, type ReportSentData, type WebhookEvent } from '@/lib/domain/webhooks/events';
-import { enqueue, type JobQueue } from '@/lib/platform/jobs/boss';
+import { enqueue, type JobQueue, positiveIntSetting } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { postWebhook } from '@/lib/platform/webhooks/post';
 import { EVENT_ID_HEADER, EVENT_TYPE_HEADER, SIGNATURE_HEADER, signWebhookBody } from '@/lib/platform/webhooks/signature';
@@ -23,17 +23,16 @@ import { EVENT_ID_HEADER, EVENT_TYPE_HEADER, SIGNATURE_HEADER, signWebhookBody }
  * twice (an answer lost on the way back): the event id is the same each time, for them to ignore repeats.
  */
 
-const positiveInt = (v: string | undefined, fallback: number) => (v && /^\d+$/.test(v) && Number(v) > 0 ? Number(v) : fallback);
 
 export function webhookDeliveryConfig() {
   return {
     /** First attempt plus retries; retries wait retryDelaySeconds × 1–2, then ×2–4, … (pg-boss retryBackoff). */
-    maxAttempts: Math.min(20, positiveInt(process.env.NOOKPASS_WEBHOOK_ATTEMPTS, 8)),
-    retryDelaySeconds: positiveInt(process.env.NOOKPASS_WEBHOOK_RETRY_DELAY_SECONDS, 30),
+    maxAttempts: Math.min(20, positiveIntSetting(process.env.NOOKPASS_WEBHOOK_ATTEMPTS, 8)),
+    retryDelaySeconds: positiveIntSetting(process.env.NOOKPASS_WEBHOOK_RETRY_DELAY_SECONDS, 30),
     /** A claim older than this belongs to a worker that died (an attempt ends within 10 s). */
     staleClaimSeconds: 60,
     /** A waiting delivery this far past its due time has lost its job: the periodic pass queues it again. */
-    overdueGraceSeconds: positiveInt(process.env.NOOKPASS_WEBHOOK_OVERDUE_SECONDS, 60),
+    overdueGraceSeconds: positiveIntSetting(process.env.NOOKPASS_WEBHOOK_OVERDUE_SECONDS, 60),
     pollingIntervalSeconds: Number(process.env.NOOKPASS_JOB_POLL_SECONDS ?? 1) || 1,
   };
 }
