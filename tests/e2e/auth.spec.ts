@@ -90,6 +90,9 @@ test('a user creates an API token, sees it once, and revokes it', async ({ page,
 
 test('signing out ends the session', async ({ page }) => {
   await signInAs(page, 'admin@nookpass.demo');
+  // Settle on one page first: a click during the redirect that follows sign-in is lost to that redirect.
+  await page.goto('/rules');
+  await expect(page.getByRole('heading', { name: 'Rule sets' })).toBeVisible();
   await page.getByRole('link', { name: 'Sign out' }).click();
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page).toHaveURL(/\/sign-in/);
