@@ -21,7 +21,7 @@ const nextConfig = {
   poweredByHeader: false,
   reactStrictMode: true,
   // piscina starts its worker threads from its own files by path, which bundling would break.
-  serverExternalPackages: ['pg', 'pino', 'bcrypt', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser', 'piscina'],
+  serverExternalPackages: ['pg', 'pino', 'bcrypt', '@react-pdf/renderer', 'sharp', 'smtp-server', 'mailparser', 'piscina', 'pg-boss'],
   async headers() {
     return [
       {

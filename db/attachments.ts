@@ -1,4 +1,6 @@
+import { sql } from 'kysely';
 import type { DB } from '@/db/index';
+import type { AttachmentDerivatives } from '@/lib/domain/attachments/derivatives';
 import { isUuid } from '@/lib/domain/ids';
 import { writeAudit } from '@/db/audit';
 import { receivedByInspector } from '@/db/reports';
@@ -20,6 +22,8 @@ export type Attachment = {
   caption: string;
   createdBy: string | null;
   createdAt: Date;
+  /** Thumbnail, report-size image and copy without metadata: made by a job after the upload. */
+  derivatives: AttachmentDerivatives;
 };
 
 export function toAttachment(r: Selectable<AttachmentsTable>): Attachment {
@@ -38,16 +42,18 @@ export function toAttachment(r: Selectable<AttachmentsTable>): Attachment {
     caption: r.caption,
     createdBy: r.created_by,
     createdAt: r.created_at,
+    derivatives: { status: r.derivatives_status, attempts: r.derivatives_attempts, maxAttempts: r.derivatives_max_attempts, lastError: r.derivatives_error },
   };
 }
 
+export const thumbnailKeyFor = (storageKey: string) => `${storageKey}.thumb.jpg`;
 export const displayKey = (storageKey: string) => `${storageKey}.display.jpg`;
 /** The photo without its metadata, served to everyone outside the uploader's company. */
 export const withoutMetadataKey = (storageKey: string) => `${storageKey}.no-metadata`;
 
 export async function insertAttachment(
   db: DB,
-  a: Omit<Attachment, 'id' | 'createdAt'> & { id: string },
+  a: Omit<Attachment, 'id' | 'createdAt' | 'derivatives'> & { id: string; derivatives: Pick<AttachmentDerivatives, 'status' | 'maxAttempts'> },
   actorId: string,
 ): Promise<Attachment> {
   return db.transaction().execute(async (trx) => {
@@ -67,11 +73,87 @@ export async function insertAttachment(
         height: a.height,
         caption: a.caption,
         created_by: actorId,
+        derivatives_status: a.derivatives.status,
+        derivatives_max_attempts: a.derivatives.maxAttempts,
       })
       .returningAll()
       .executeTakeFirstOrThrow();
     await writeAudit(trx, { actorUserId: actorId, action: 'attachment.create', entityType: 'attachment', entityId: row.id, details: { projectId: a.projectId, filename: a.filename, bytes: a.byteSize } });
     return toAttachment(row);
+  });
+}
+
+/**
+ * Takes a photo's images for one attempt. Only one caller wins: the row must be waiting (pending or retrying),
+ * or claimed so long ago that its worker must have died. Anyone else gets null and makes nothing.
+ */
+export async function claimAttachmentDerivatives(db: DB, id: string, staleClaimSeconds: number): Promise<Attachment | null> {
+  if (!isUuid(id)) return null;
+  const row = await db
+    .updateTable('attachments')
+    .set({ derivatives_status: 'making', derivatives_attempts: sql<number>`derivatives_attempts + 1`, derivatives_claimed_at: sql<Date>`now()`, derivatives_updated_at: sql<Date>`now()` })
+    .where('id', '=', id)
+    .where('deleted_at', 'is', null)
+    .where((eb) =>
+      eb.or([
+        eb('derivatives_status', 'in', ['pending', 'retrying']),
+        eb.and([eb('derivatives_status', '=', 'making'), eb('derivatives_claimed_at', '<', sql<Date>`now() - make_interval(secs => ${staleClaimSeconds})`)]),
+      ]),
+    )
+    .returningAll()
+    .executeTakeFirst();
+  return row ? toAttachment(row) : null;
+}
+
+export async function markDerivativesReady(db: DB, id: string): Promise<void> {
+  await db
+    .updateTable('attachments')
+    .set({ derivatives_status: 'ready', derivatives_error: null, derivatives_claimed_at: null, derivatives_updated_at: sql<Date>`now()` })
+    .where('id', '=', id)
+    .where('derivatives_status', '=', 'making')
+    .execute();
+}
+
+/** Records a failed attempt: "retrying" while attempts remain, "failed" after the last. Returns the status written. */
+export async function markDerivativesAttemptFailed(db: DB, id: string, error: string, final: boolean): Promise<'retrying' | 'failed' | null> {
+  const row = await db
+    .updateTable('attachments')
+    .set({
+      derivatives_status: final ? 'failed' : sql<'retrying' | 'failed'>`CASE WHEN derivatives_attempts >= derivatives_max_attempts THEN 'failed' ELSE 'retrying' END`,
+      derivatives_error: error.slice(0, 300),
+      derivatives_claimed_at: null,
+      derivatives_updated_at: sql<Date>`now()`,
+    })
+    .where('id', '=', id)
+    .where('derivatives_status', '=', 'making')
+    .returning('derivatives_status')
+    .executeTakeFirst();
+  return (row?.derivatives_status as 'retrying' | 'failed' | undefined) ?? null;
+}
+
+/** The job could not be queued: the person is told at once and may ask again. */
+export async function markDerivativesUnqueued(db: DB, id: string, error: string): Promise<void> {
+  await db
+    .updateTable('attachments')
+    .set({ derivatives_status: 'failed', derivatives_error: error, derivatives_updated_at: sql<Date>`now()` })
+    .where('id', '=', id)
+    .where('derivatives_status', '=', 'pending')
+    .execute();
+}
+
+/** Puts a photo whose images failed their last attempt back in line with a fresh set of attempts. */
+export async function requeueFailedDerivatives(db: DB, id: string, maxAttempts: number, actorId: string): Promise<Attachment | null> {
+  return db.transaction().execute(async (trx) => {
+    const row = await trx
+      .updateTable('attachments')
+      .set({ derivatives_status: 'pending', derivatives_attempts: 0, derivatives_max_attempts: maxAttempts, derivatives_claimed_at: null, derivatives_updated_at: sql<Date>`now()` })
+      .where('id', '=', id)
+      .where('deleted_at', 'is', null)
+      .where('derivatives_status', '=', 'failed')
+      .returningAll()
+      .executeTakeFirst();
+    if (row) await writeAudit(trx, { actorUserId: actorId, action: 'attachment.derivatives-again', entityType: 'attachment', entityId: id });
+    return row ? toAttachment(row) : null;
   });
 }
 

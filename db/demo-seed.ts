@@ -36,6 +36,11 @@ export async function writeDemoScenario(db: DB, { hashAtCurrentCost, needsRehash
       const existing = await trx.selectFrom('jurisdictions').select('id').where('slug', '=', j.slug).executeTakeFirst();
       // An admin may have edited a demo jurisdiction; the seed only creates it.
       const id = existing?.id ?? (await trx.insertInto('jurisdictions').values(j).returning('id').executeTakeFirstOrThrow()).id;
+      // Demo jurisdictions seeded before zones were stored got UTC from the migration; give them theirs.
+      // A zone an admin chose (anything but that default) stays.
+      if (existing && j.time_zone) {
+        await trx.updateTable('jurisdictions').set({ time_zone: j.time_zone }).where('id', '=', id).where('is_demo', '=', true).where('time_zone', '=', 'UTC').execute();
+      }
       jurIds.set(j.slug, id);
     }
 

@@ -20,6 +20,7 @@ export const demoJurisdictions: (NewJurisdiction & { slug: string })[] = [
     fuel_gas_edition: 'IFGC 2018',
     inspector_email: 'inspector@nookpass.demo',
     amendment_notes: 'Demo jurisdiction. Adopts the 2018 I-codes and NEC 2017 without local amendments.',
+    time_zone: 'America/Denver',
     is_demo: true,
   },
   {
@@ -35,6 +36,7 @@ export const demoJurisdictions: (NewJurisdiction & { slug: string })[] = [
     inspector_email: 'permits@nookpass.demo',
     amendment_notes:
       'Demo jurisdiction. Local amendment: a clothes washer installed over finished space needs a drain pan drained to an approved receptor.',
+    time_zone: 'America/Chicago',
     is_demo: true,
   },
 ];

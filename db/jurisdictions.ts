@@ -14,6 +14,8 @@ export type Jurisdiction = {
   editions: JurisdictionEditions;
   inspectorEmail: string | null;
   amendmentNotes: string;
+  /** IANA zone; every date shown for the jurisdiction goes through lib/domain/dates/format in it. */
+  timeZone: string;
   isDemo: boolean;
 };
 
@@ -33,6 +35,7 @@ export function toJurisdiction(row: JurisdictionRow): Jurisdiction {
     },
     inspectorEmail: row.inspector_email,
     amendmentNotes: row.amendment_notes,
+    timeZone: row.time_zone,
     isDemo: row.is_demo,
   };
 }
@@ -58,6 +61,7 @@ export type JurisdictionFields = {
   editions: JurisdictionEditions;
   inspectorEmail: string | null;
   amendmentNotes: string;
+  timeZone?: string;
 };
 
 function toColumns(fields: Partial<JurisdictionFields>) {
@@ -76,6 +80,7 @@ function toColumns(fields: Partial<JurisdictionFields>) {
       : {}),
     ...(fields.inspectorEmail !== undefined ? { inspector_email: fields.inspectorEmail } : {}),
     ...(fields.amendmentNotes !== undefined ? { amendment_notes: fields.amendmentNotes } : {}),
+    ...(fields.timeZone !== undefined ? { time_zone: fields.timeZone } : {}),
   };
 }
 

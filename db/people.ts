@@ -68,12 +68,16 @@ export async function listPeople(db: DB, filter: PeopleFilter = {}, limit = 500)
   if (filter.status === 'deactivated') q = q.where('u.deactivated_at', 'is not', null);
   if (filter.search) {
     const pattern = `%${escapeLike(filter.search)}%`;
+    // Companies and jurisdictions matching by name become lists of ids, so each branch of the OR is on users
+    // and can use its own index (trigram indexes on name and e-mail).
+    const organizationIds = sql<string[]>`array(${db.selectFrom('organizations').select('id').where('name', 'ilike', pattern)})`;
+    const jurisdictionIds = sql<string[]>`array(${db.selectFrom('jurisdictions').select('id').where('name', 'ilike', pattern)})`;
     q = q.where((eb) =>
       eb.or([
         eb('u.name', 'ilike', pattern),
         eb('u.email', 'ilike', pattern),
-        eb('o.name', 'ilike', pattern),
-        eb('j.name', 'ilike', pattern),
+        eb('u.organization_id', '=', eb.fn.any(organizationIds)),
+        eb('u.jurisdiction_id', '=', eb.fn.any(jurisdictionIds)),
       ]),
     );
   }

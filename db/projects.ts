@@ -13,7 +13,7 @@ export type Project = {
   id: string;
   organizationId: string;
   organizationName: string;
-  jurisdiction: { id: string; slug: string; name: string };
+  jurisdiction: { id: string; slug: string; name: string; timeZone: string };
   name: string;
   siteAddress: string;
   permitNumber: string | null;
@@ -90,7 +90,7 @@ function baseQuery(db: DB) {
     .select([
       'p.id', 'p.organization_id', 'o.name as organization_name', 'p.name', 'p.site_address', 'p.permit_number', 'p.notes',
       'p.is_demo', 'p.archived_at', 'p.created_at', 'p.updated_at',
-      'j.id as jurisdiction_id', 'j.slug as jurisdiction_slug', 'j.name as jurisdiction_name',
+      'j.id as jurisdiction_id', 'j.slug as jurisdiction_slug', 'j.name as jurisdiction_name', 'j.time_zone as jurisdiction_time_zone',
       'lc.check_id', 'lc.outcome', 'lc.summary', 'lc.checked_at', 'lr.latest_revision',
       'ls.sent_report_code', 'ls.sent_at', 'lv.review_outcome', 'lv.reviewed_at',
     ]);
@@ -103,7 +103,7 @@ function toProject(r: Row): Project {
     id: r.id,
     organizationId: r.organization_id,
     organizationName: r.organization_name,
-    jurisdiction: { id: r.jurisdiction_id, slug: r.jurisdiction_slug, name: r.jurisdiction_name },
+    jurisdiction: { id: r.jurisdiction_id, slug: r.jurisdiction_slug, name: r.jurisdiction_name, timeZone: r.jurisdiction_time_zone },
     name: r.name,
     siteAddress: r.site_address,
     permitNumber: r.permit_number,
@@ -141,25 +141,38 @@ export function scopeForUser(user: AppUser): { organizationId: string | null } {
 
 export async function listProjects(db: DB, user: AppUser, q: ProjectListQuery): Promise<{ items: Project[]; total: number }> {
   const scope = scopeForUser(user);
-  let query = baseQuery(db);
-  if (scope.organizationId) query = query.where('p.organization_id', '=', scope.organizationId);
-  if (q.archived === '0') query = query.where('p.archived_at', 'is', null);
-  if (q.archived === '1') query = query.where('p.archived_at', 'is not', null);
+  // The filter and the order pick one page of ids first; the latest check, revision and inspection are then
+  // looked up for that page only, and the total counts projects without them (they never drop a row).
+  let filtered = db.selectFrom('projects as p');
+  if (scope.organizationId) filtered = filtered.where('p.organization_id', '=', scope.organizationId);
+  if (q.archived === '0') filtered = filtered.where('p.archived_at', 'is', null);
+  if (q.archived === '1') filtered = filtered.where('p.archived_at', 'is not', null);
   if (q.q) {
     const like = `%${q.q.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
-    query = query.where((eb) =>
-      eb.or([eb('p.name', 'ilike', like), eb('p.site_address', 'ilike', like), eb('j.name', 'ilike', like), eb('p.permit_number', 'ilike', like)]),
+    // Jurisdictions matching by name become a list of ids, so every branch of the OR is on projects and each
+    // can use its own index (trigram indexes on the texts, the jurisdiction index on the ids).
+    const jurisdictionIds = sql<string[]>`array(${db.selectFrom('jurisdictions').select('id').where('name', 'ilike', like)})`;
+    filtered = filtered.where((eb) =>
+      eb.or([
+        eb('p.name', 'ilike', like),
+        eb('p.site_address', 'ilike', like),
+        eb('p.permit_number', 'ilike', like),
+        eb('p.jurisdiction_id', '=', eb.fn.any(jurisdictionIds)),
+      ]),
     );
   }
   const sortColumn = { updated: 'p.updated_at', name: 'p.name', jurisdiction: 'j.name', created: 'p.created_at' } as const;
+  // The page joins jurisdictions for the jurisdiction sort; the count reads projects alone (index-only where it can).
+  const page = filtered
+    .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
+    .select(['p.id as page_id', sql.ref(sortColumn[q.sort]).as('page_key')])
+    .orderBy(sortColumn[q.sort], q.dir)
+    .orderBy('p.id')
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
   const [rows, count] = await Promise.all([
-    query
-      .orderBy(sortColumn[q.sort], q.dir)
-      .orderBy('p.id')
-      .limit(q.pageSize)
-      .offset((q.page - 1) * q.pageSize)
-      .execute(),
-    query.clearSelect().clearOrderBy().select(sql<number>`count(*)`.as('n')).executeTakeFirstOrThrow(),
+    baseQuery(db).innerJoin(page.as('pg'), 'pg.page_id', 'p.id').orderBy('pg.page_key', q.dir).orderBy('p.id').execute(),
+    filtered.select(sql<number>`count(*)`.as('n')).executeTakeFirstOrThrow(),
   ]);
   return { items: rows.map(toProject), total: Number(count.n) };
 }

@@ -94,6 +94,8 @@ export type PublicReportFacts = {
   projectName: string;
   siteAddress: string;
   jurisdictionName: string;
+  /** The project's jurisdiction's IANA zone, for showing the dates. */
+  timeZone: string;
   /** The installer company and its contractor licence number, as printed on the report. */
   companyName: string;
   licenseNumber: string | null;
@@ -114,14 +116,14 @@ export async function publicReportFacts(db: DB, input: string): Promise<PublicRe
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .select([
       'r.code', 'r.sha256', 'r.created_at as issued_at', 'r.page_count', 'r.snapshot', 'p.name as project_name', 'p.site_address',
-      'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name',
+      'c.created_at as checked_at', 'c.summary', 's.version as rule_set_version', 'j.name as jurisdiction_name', 'j.time_zone',
       'o.name as organization_name', 'o.license_number',
     ])
     .where('r.code', '=', code)
     .executeTakeFirst();
   if (!row) return null;
   const snap = readReportSnapshot(row.snapshot);
-  const common = { code: row.code, sha256: row.sha256, issuedAt: row.issued_at, pageCount: row.page_count };
+  const common = { code: row.code, sha256: row.sha256, issuedAt: row.issued_at, pageCount: row.page_count, timeZone: row.time_zone };
   if (snap) {
     return {
       ...common,
@@ -172,30 +174,32 @@ export async function companyHasSentTo(db: DB, organizationId: string, email: st
   return !!row;
 }
 
-export async function recordSend(
-  db: DB,
-  s: { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string; note?: string | null },
-) {
-  return db.transaction().execute(async (trx) => {
-    const row = await trx
-      .insertInto('report_sends')
-      .values({
-        report_id: s.reportId,
-        project_id: s.projectId,
-        jurisdiction_id: s.jurisdictionId,
-        to_email: s.to,
-        to_inspector: s.toInspector,
-        status: s.status,
-        error: s.error,
-        message_id: s.messageId,
-        note: s.note?.trim() || null,
-        created_by: s.actorId,
-      })
-      .returningAll()
-      .executeTakeFirstOrThrow();
-    await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, toInspector: s.toInspector, error: s.error } });
-    return row;
-  });
+type NewSend = { reportId: string; projectId: string; jurisdictionId: string; to: string; toInspector: boolean; status: 'sent' | 'failed'; error: string | null; messageId: string | null; actorId: string; note?: string | null };
+
+export async function recordSend(db: DB, s: NewSend) {
+  return db.transaction().execute((trx) => insertSend(trx, s));
+}
+
+/** Records a send with its audit entry; run it inside the caller's transaction. */
+export async function insertSend(trx: DB, s: NewSend) {
+  const row = await trx
+    .insertInto('report_sends')
+    .values({
+      report_id: s.reportId,
+      project_id: s.projectId,
+      jurisdiction_id: s.jurisdictionId,
+      to_email: s.to,
+      to_inspector: s.toInspector,
+      status: s.status,
+      error: s.error,
+      message_id: s.messageId,
+      note: s.note?.trim() || null,
+      created_by: s.actorId,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+  await writeAudit(trx, { actorUserId: s.actorId, action: `report.send.${s.status}`, entityType: 'report', entityId: s.reportId, details: { to: s.to, toInspector: s.toInspector, error: s.error } });
+  return row;
 }
 
 export async function listProjectSends(db: DB, projectId: string) {
@@ -235,6 +239,8 @@ export type InspectionListItem = {
   checkOutcome: string;
   reviewOutcome: ReviewOutcome | null;
   reviewedAt: Date | null;
+  /** IANA zone of the jurisdiction the report was sent to, for showing its dates. */
+  timeZone: string;
 };
 
 export type InspectionSearch = {
@@ -256,12 +262,12 @@ const asIssuedAddress = sql<string>`coalesce(r.snapshot->'project'->>'siteAddres
 const asIssuedPermit = sql<string | null>`case when r.snapshot is null then p.permit_number else r.snapshot->'project'->>'permitNumber' end`;
 const asIssuedCompany = sql<string>`coalesce(r.snapshot->'company'->>'name', o.name)`;
 
-function inspectionQuery(db: DB, s: InspectionSearch) {
-  // The newest send of each report that reached the inspector's address; copies to anyone else are not in the queue.
+// The newest send of each report that reached the inspector's address; copies to anyone else are not in the queue.
+function newestSends(db: DB, s: InspectionSearch) {
   let sends = db
     .selectFrom('report_sends as s')
     .innerJoin('jurisdictions as sj', 'sj.id', 's.jurisdiction_id')
-    .select(['s.report_id', 's.project_id', 's.created_at as sent_at'])
+    .select(['s.report_id', 's.project_id', 's.created_at as sent_at', 'sj.time_zone'])
     .where('s.status', '=', 'sent')
     .where(receivedByInspector('s', 'sj'))
     .distinctOn('s.report_id')
@@ -270,15 +276,45 @@ function inspectionQuery(db: DB, s: InspectionSearch) {
   if (s.jurisdictionId) sends = sends.where('s.jurisdiction_id', '=', s.jurisdictionId);
   let q = db
     .selectFrom(sends.as('ls'))
-    .innerJoin('reports as r', 'r.id', 'ls.report_id')
-    .innerJoin('projects as p', 'p.id', 'ls.project_id')
-    .innerJoin('organizations as o', 'o.id', 'p.organization_id')
-    .innerJoin('checks as c', 'c.id', 'r.check_id')
     .leftJoinLateral(
       (eb) =>
-        eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'r.id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
+        eb.selectFrom('inspection_reviews as v').select(['v.outcome', 'v.created_at as reviewed_at']).whereRef('v.report_id', '=', 'ls.report_id').orderBy('v.created_at', 'desc').limit(1).as('lv'),
       (join) => join.onTrue(),
     );
+  if (s.outcome === 'awaiting') q = q.where('lv.outcome', 'is', null);
+  else if (s.outcome) q = q.where('lv.outcome', '=', s.outcome);
+  if (s.from) q = q.where('ls.sent_at', '>=', new Date(`${s.from}T00:00:00Z`));
+  if (s.to) q = q.where('ls.sent_at', '<', new Date(Date.parse(`${s.to}T00:00:00Z`) + 86_400_000));
+  return q;
+}
+
+/*
+ * The sends with their report, project, company and check. Each is looked up by its key for each send (a
+ * lateral subquery with LIMIT 1 is never turned into a join), so a jurisdiction's queue reads its own rows
+ * through indexes however many reports other jurisdictions hold. Every send has all four (foreign keys).
+ */
+function withReports(sends: ReturnType<typeof newestSends>) {
+  return sends
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('reports as r').select(['r.id', 'r.code', 'r.snapshot', 'r.check_id']).whereRef('r.id', '=', 'ls.report_id').limit(1).as('r'),
+      (join) => join.onTrue(),
+    )
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('projects as p').select(['p.name', 'p.site_address', 'p.permit_number', 'p.organization_id']).whereRef('p.id', '=', 'ls.project_id').limit(1).as('p'),
+      (join) => join.onTrue(),
+    )
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('organizations as o').select(['o.name']).whereRef('o.id', '=', 'p.organization_id').limit(1).as('o'),
+      (join) => join.onTrue(),
+    )
+    .innerJoinLateral(
+      (eb) => eb.selectFrom('checks as c').select(['c.summary', 'c.outcome']).whereRef('c.id', '=', 'r.check_id').limit(1).as('c'),
+      (join) => join.onTrue(),
+    );
+}
+
+function inspectionQuery(db: DB, s: InspectionSearch) {
+  let q = withReports(newestSends(db, s));
   if (s.q) {
     const pattern = likePattern(s.q);
     // Codes are read out and retyped with spaces or without dashes.
@@ -294,10 +330,6 @@ function inspectionQuery(db: DB, s: InspectionSearch) {
       ]),
     );
   }
-  if (s.outcome === 'awaiting') q = q.where('lv.outcome', 'is', null);
-  else if (s.outcome) q = q.where('lv.outcome', '=', s.outcome);
-  if (s.from) q = q.where('ls.sent_at', '>=', new Date(`${s.from}T00:00:00Z`));
-  if (s.to) q = q.where('ls.sent_at', '<', new Date(Date.parse(`${s.to}T00:00:00Z`) + 86_400_000));
   return q;
 }
 
@@ -305,10 +337,12 @@ function inspectionQuery(db: DB, s: InspectionSearch) {
 export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ items: InspectionListItem[]; total: number; page: number; pageSize: number }> {
   const pageSize = Math.min(Math.max(s.pageSize ?? INSPECTIONS_PAGE_SIZE, 1), 100);
   const page = Math.max(s.page ?? 1, 1);
+  // Without a search the count needs no report, project or company: every send has them.
+  const counted = s.q ? inspectionQuery(db, s) : newestSends(db, s);
   const [rows, count] = await Promise.all([
     inspectionQuery(db, s)
       .select([
-        'r.id as report_id', 'r.code', 'r.snapshot', 'ls.sent_at', 'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at',
+        'r.id as report_id', 'r.code', 'r.snapshot', 'ls.sent_at', 'c.summary', 'c.outcome as check_outcome', 'lv.outcome as review_outcome', 'lv.reviewed_at', 'ls.time_zone',
         asIssuedName.as('project_name'), asIssuedAddress.as('site_address'), asIssuedPermit.as('permit_number'), asIssuedCompany.as('organization_name'),
       ])
       .orderBy('ls.sent_at', 'desc')
@@ -316,7 +350,7 @@ export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ 
       .limit(pageSize)
       .offset((page - 1) * pageSize)
       .execute(),
-    inspectionQuery(db, s).select((eb) => eb.fn.countAll<string>().as('n')).executeTakeFirstOrThrow(),
+    counted.select((eb) => eb.fn.countAll<string>().as('n')).executeTakeFirstOrThrow(),
   ]);
   const items = rows.map((r): InspectionListItem => {
     const snap = readReportSnapshot(r.snapshot);
@@ -333,6 +367,7 @@ export async function searchInspections(db: DB, s: InspectionSearch): Promise<{ 
       checkOutcome: snap?.check.outcome ?? r.check_outcome,
       reviewOutcome: r.review_outcome ?? null,
       reviewedAt: r.reviewed_at ?? null,
+      timeZone: r.time_zone,
     };
   });
   return { items, total: Number(count.n), page, pageSize };
@@ -371,11 +406,11 @@ export async function findReportHeading(db: DB, projectId: string) {
     .selectFrom('projects as p')
     .innerJoin('organizations as o', 'o.id', 'p.organization_id')
     .innerJoin('jurisdictions as j', 'j.id', 'p.jurisdiction_id')
-    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'p.is_demo'])
+    .select(['p.id', 'p.name', 'p.site_address', 'p.permit_number', 'o.name as organization_name', 'o.license_number', 'j.name as jurisdiction_name', 'j.time_zone', 'p.is_demo'])
     .where('p.id', '=', projectId)
     .executeTakeFirst();
   return row
-    ? { id: row.id, name: row.name, siteAddress: row.site_address, permitNumber: row.permit_number, organizationName: row.organization_name, licenseNumber: row.license_number, jurisdictionName: row.jurisdiction_name, isDemo: row.is_demo }
+    ? { id: row.id, name: row.name, siteAddress: row.site_address, permitNumber: row.permit_number, organizationName: row.organization_name, licenseNumber: row.license_number, jurisdictionName: row.jurisdiction_name, timeZone: row.time_zone, isDemo: row.is_demo }
     : null;
 }
 

@@ -6,9 +6,13 @@ type Json<T> = ColumnType<T, string, string>;
 
 import type { CheckOutcome } from '@/lib/domain/checks/outcome';
 import type { PlumbingFamily } from '@/lib/domain/editions';
+import type { MailKind, MailStatus } from '@/lib/domain/mail/outbox';
+import type { AttachmentDerivativesStatus } from '@/lib/domain/attachments/derivatives';
 import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
 import type { Role } from '@/lib/domain/roles';
 import type { RuleSetStatus } from '@/lib/domain/rule-sets/status';
+import type { WebhookDeliveryStatus, WebhookEventType } from '@/lib/domain/webhooks/events';
+import type { RuleSetRunKind, RuleSetRunState } from '@/lib/domain/rule-sets/runs';
 
 export type { CheckOutcome, PlumbingFamily, ReviewOutcome, Role, RuleSetStatus };
 
@@ -38,6 +42,8 @@ export interface JurisdictionsTable {
   inspector_email: string | null;
   amendment_notes: Generated<string>;
   is_demo: Generated<boolean>;
+  /** IANA time zone dates of the jurisdiction are shown in; UTC for rows made before zones were stored. */
+  time_zone: Generated<string>;
   created_at: CreatedAt;
   updated_at: Timestamp;
 }
@@ -234,6 +240,12 @@ export interface AttachmentsTable {
   created_by: string | null;
   created_at: CreatedAt;
   deleted_at: Timestamp | null;
+  derivatives_status: ColumnType<AttachmentDerivativesStatus, AttachmentDerivativesStatus | undefined, AttachmentDerivativesStatus>;
+  derivatives_attempts: Generated<number>;
+  derivatives_max_attempts: Generated<number>;
+  derivatives_error: string | null;
+  derivatives_claimed_at: Timestamp | null;
+  derivatives_updated_at: Timestamp;
 }
 
 export interface ReportsTable {
@@ -335,6 +347,87 @@ export interface ApplianceModelsTable {
   updated_at: Timestamp;
 }
 
+export type MailAttachmentRef = { filename: string; objectKey: string; contentType: string };
+
+export interface MailOutboxTable {
+  id: Generated<string>;
+  kind: MailKind;
+  to_email: string;
+  reply_to: ColumnType<{ name: string; address: string } | string | null, string | null | undefined, never>;
+  subject: string;
+  body_text: string;
+  attachments: ColumnType<MailAttachmentRef[], string | undefined, never>;
+  status: ColumnType<MailStatus, MailStatus | undefined, MailStatus>;
+  attempts: ColumnType<number, number | undefined, number>;
+  max_attempts: number;
+  last_error: string | null;
+  message_id: string | null;
+  next_attempt_at: ColumnType<Date, Date | string | undefined, Date | string>;
+  claimed_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  sent_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  report_id: string | null;
+  report_send_id: string | null;
+  review_id: string | null;
+  invitation_id: string | null;
+  user_id: string | null;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: ColumnType<Date, Date | string | undefined, Date | string>;
+}
+
+export interface WebhookEndpointsTable {
+  id: Generated<string>;
+  organization_id: string;
+  url: string;
+  events: ColumnType<WebhookEventType[], WebhookEventType[], WebhookEventType[]>;
+  secret: string;
+  is_active: ColumnType<boolean, boolean | undefined, boolean>;
+  secret_rotated_at: ColumnType<Date | null, never, Date | string | null>;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+}
+
+/** What was sent (endpoint, event, payload) never changes; a trigger lets only the state columns move. */
+export interface WebhookDeliveriesTable {
+  id: Generated<string>;
+  endpoint_id: ColumnType<string, string, never>;
+  event_id: ColumnType<string, string, never>;
+  event_type: ColumnType<WebhookEventType, WebhookEventType, never>;
+  payload: ColumnType<unknown, string, never>;
+  status: ColumnType<WebhookDeliveryStatus, WebhookDeliveryStatus | undefined, WebhookDeliveryStatus>;
+  attempts: ColumnType<number, number | undefined, number>;
+  max_attempts: number;
+  last_response_status: number | null;
+  last_error: string | null;
+  next_attempt_at: Timestamp;
+  claimed_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  delivered_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  created_at: CreatedAt;
+  updated_at: Timestamp;
+}
+
+export interface RuleSetRunsTable {
+  id: Generated<string>;
+  kind: RuleSetRunKind;
+  jurisdiction_id: string;
+  rule_set_id: string | null;
+  rule_set_version: number;
+  draft_revision: number | null;
+  state: ColumnType<RuleSetRunState, RuleSetRunState | undefined, RuleSetRunState>;
+  done_count: ColumnType<number, number | undefined, number>;
+  total_count: number | null;
+  result: ColumnType<unknown | null, string | null | undefined, string | null>;
+  error: string | null;
+  attempts: ColumnType<number, number | undefined, number>;
+  claim_token: string | null;
+  claimed_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  requested_by: string | null;
+  created_at: CreatedAt;
+  started_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  finished_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+}
+
 export interface Database {
   organizations: OrganizationsTable;
   jurisdictions: JurisdictionsTable;
@@ -358,6 +451,10 @@ export interface Database {
   correction_answers: CorrectionAnswersTable;
   rate_limits: RateLimitsTable;
   appliance_models: ApplianceModelsTable;
+  mail_outbox: MailOutboxTable;
+  webhook_endpoints: WebhookEndpointsTable;
+  webhook_deliveries: WebhookDeliveriesTable;
+  rule_set_runs: RuleSetRunsTable;
 }
 
 export type OrganizationRow = Selectable<OrganizationsTable>;

@@ -26,9 +26,15 @@ export DATABASE_URL="$(database_url "$DB_NAME")" NOOKPASS_ADMIN_DATABASE_URL="$(
 export NEXTAUTH_SECRET="bench-$$" NEXTAUTH_URL="http://127.0.0.1:$PORT_BENCH" NOOKPASS_BASE_URL="http://127.0.0.1:$PORT_BENCH" NEXT_TELEMETRY_DISABLED=1
 npx tsx db/migrate.ts
 npx tsx scripts/seed.ts
+if [ "${NOOKPASS_BENCH_SCALE:-1}" != "0" ]; then
+  say "Adding the scale scenario (10,000 demo projects) to the bench database…"
+  npx tsx scripts/seed-scale.ts --database "$DB_NAME"
+fi
 build_if_needed
 start_fakes -bench
-node_modules/.bin/next start -H 127.0.0.1 -p "$PORT_BENCH" > "$NP_DATA/bench-app.log" 2>&1 &
+# The throughput run sends far more than an honest integration would; the limits are raised so it measures the server.
+NOOKPASS_EVALUATIONS_PER_TOKEN_PER_MINUTE=10000000 NOOKPASS_EVALUATIONS_PER_USER_PER_MINUTE=10000000 \
+  node_modules/.bin/next start -H 127.0.0.1 -p "$PORT_BENCH" > "$NP_DATA/bench-app.log" 2>&1 &
 APP_PID=$!
 for _ in $(seq 1 120); do port_busy "$PORT_BENCH" && break; sleep 0.5; done
 mkdir -p test-results

@@ -49,6 +49,14 @@ export NEXTAUTH_SECRET="test-secret-$(date +%s)-$$"
 export NEXTAUTH_URL="http://127.0.0.1:$TEST_PORT"
 export NOOKPASS_BASE_URL="$NEXTAUTH_URL"
 export NEXT_TELEMETRY_DISABLED=1
+# The served app works the job queue in its own process (instrumentation.ts); e-mail retries are short here so
+# the outbox tests see a message fail its last attempt within seconds (4 attempts, 1 s doubling).
+export NOOKPASS_MAIL_ATTEMPTS=4 NOOKPASS_MAIL_RETRY_DELAY_SECONDS=1
+# Webhook deliveries likewise; the webhook tests run their receiver on 127.0.0.1, which a production server
+# refuses unless local receivers are allowed.
+export NOOKPASS_WEBHOOK_ATTEMPTS=4 NOOKPASS_WEBHOOK_RETRY_DELAY_SECONDS=1 NOOKPASS_WEBHOOKS_ALLOW_LOCAL=1
+# Likewise a photo whose thumbnail cannot be made ends "failed" within seconds.
+export NOOKPASS_DERIVATIVE_ATTEMPTS=4 NOOKPASS_DERIVATIVE_RETRY_DELAY_SECONDS=1
 
 say "Unit tests…"
 npx vitest run tests/unit

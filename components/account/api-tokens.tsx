@@ -3,6 +3,7 @@
 import { useState } from 'react';
 import useSWR from 'swr';
 import { DEFAULT_TOKEN_DAYS, TOKEN_LIFETIME_CHOICES } from '@/lib/platform/auth/api-token-form';
+import { DEFAULT_TIME_ZONE, formatDate, formatDateTime } from '@/lib/domain/dates/format';
 
 type Token = { id: string; name: string; prefix: string; createdAt: string; lastUsedAt: string | null; revokedAt: string | null; expiresAt: string; isExpired: boolean };
 
@@ -16,8 +17,9 @@ async function fetchJson<T>(url: string, init?: RequestInit): Promise<T> {
   return body as T;
 }
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString() : 'never');
-const day = (iso: string) => new Date(iso).toLocaleDateString();
+// An account belongs to no jurisdiction: its times are in UTC, labelled so.
+const when = (iso: string | null) => (iso ? formatDateTime(iso, DEFAULT_TIME_ZONE) : 'never');
+const day = (iso: string) => formatDate(iso, DEFAULT_TIME_ZONE);
 
 export function ApiTokens() {
   const { data, error, isLoading, mutate } = useSWR('/api/tokens', (u: string) => fetchJson<{ tokens: Token[] }>(u));

@@ -1,5 +1,9 @@
 import type { SessionSummary } from '@/db/sessions';
 import { SignOutOthers } from '@/components/account/sign-out-others';
+import { DEFAULT_TIME_ZONE, formatDateTime } from '@/lib/domain/dates/format';
+
+// An account belongs to no jurisdiction: its times are in UTC, labelled so.
+const when = (d: Date) => formatDateTime(d, DEFAULT_TIME_ZONE);
 
 /** The account's signed-in browsers, this one marked, with "sign out everywhere else". */
 export function Sessions({ sessions, currentId }: { sessions: SessionSummary[]; currentId: string }) {
@@ -19,7 +23,7 @@ export function Sessions({ sessions, currentId }: { sessions: SessionSummary[]; 
             </div>
             {s.userAgent && <div className="truncate text-xs text-ink-faint" title={s.userAgent}>{s.userAgent}</div>}
             <div className="text-xs text-ink-soft">
-              signed in {s.createdAt.toLocaleString()} · last seen {s.lastSeenAt.toLocaleString()} · ends {s.expiresAt.toLocaleString()}
+              signed in {when(s.createdAt)} · last seen {when(s.lastSeenAt)} · ends {when(s.expiresAt)}
             </div>
           </li>
         ))}

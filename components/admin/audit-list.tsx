@@ -1,4 +1,5 @@
 import type { AuditItem } from '@/db/audit';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 const actionLabels: Record<string, string> = {
   'jurisdiction.create': 'created the jurisdiction',
@@ -29,14 +30,14 @@ function detailText(item: AuditItem): string {
   return parts.join(' · ');
 }
 
-export function AuditList({ items }: { items: AuditItem[] }) {
+export function AuditList({ items, timeZone }: { items: AuditItem[]; timeZone: string }) {
   if (items.length === 0) return <p className="text-sm text-ink-soft">Nothing recorded yet.</p>;
   return (
     <ol className="divide-y divide-rule text-sm" data-testid="audit-trail">
       {items.map((item) => (
         <li key={item.id} className="py-2" data-action={item.action}>
           <span className="font-semibold">{item.actorEmail ?? 'former user'}</span> {actionLabels[item.action] ?? item.action}
-          <span className="text-ink-faint"> · {item.at.toLocaleString()}</span>
+          <span className="text-ink-faint"> · {formatDateTime(item.at, timeZone)}</span>
           <div className="text-ink-soft">{detailText(item)}</div>
         </li>
       ))}

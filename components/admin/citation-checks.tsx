@@ -2,8 +2,8 @@
 
 import { useState } from 'react';
 import type { CitationStatus } from '@/lib/domain/rule-sets/citation-checks';
-import { reportDate } from '@/lib/domain/rule-sets/citation-checks';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
+import { formatDate } from '@/lib/domain/dates/format';
 
 export type CitationList = { citations: CitationStatus[]; uncheckedMemory: { ruleKey: string; title: string; citation: string }[] };
 
@@ -14,7 +14,7 @@ function holds(c: CitationStatus): boolean {
 }
 
 /** One citation: its status and, on a draft, the form that marks it checked or withdraws the mark. */
-function Row({ c, url, readOnly, onChange }: { c: CitationStatus; url: string; readOnly: boolean; onChange?: () => Promise<unknown> }) {
+function Row({ c, url, readOnly, onChange, timeZone }: { c: CitationStatus; url: string; readOnly: boolean; onChange?: () => Promise<unknown>; timeZone: string }) {
   const [against, setAgainst] = useState(c.mark?.against ?? '');
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
@@ -44,7 +44,7 @@ function Row({ c, url, readOnly, onChange }: { c: CitationStatus; url: string; r
       </div>
       <p className="mt-1 text-sm" data-testid="citation-state">
         {checked
-          ? `Checked by ${c.mark!.checkedBy} on ${reportDate(c.mark!.checkedAt)} against ${c.mark!.against}${c.mark!.carriedFromVersion ? ` (in version ${c.mark!.carriedFromVersion})` : ''}.`
+          ? `Checked by ${c.mark!.checkedBy} on ${formatDate(c.mark!.checkedAt, timeZone)} against ${c.mark!.against}${c.mark!.carriedFromVersion ? ` (in version ${c.mark!.carriedFromVersion})` : ''}.`
           : c.mark?.checked
             ? `Checked as ${c.mark.citation}; the citation changed since, so it is not checked.`
             : 'Not yet checked against the adopted text.'}
@@ -83,7 +83,7 @@ function Row({ c, url, readOnly, onChange }: { c: CitationStatus; url: string; r
  * The citations of a version with the jurisdiction's checks against its adopted text. Marks are
  * appended, never edited: who, when and against what stay on record, also after publishing.
  */
-export function CitationChecks({ list, url, readOnly, onChange }: { list: CitationList; url: string; readOnly: boolean; onChange?: () => Promise<unknown> }) {
+export function CitationChecks({ list, url, readOnly, onChange, timeZone }: { list: CitationList; url: string; readOnly: boolean; onChange?: () => Promise<unknown>; timeZone: string }) {
   const code = list.citations.filter((c) => c.checkable);
   const done = code.filter(holds).length;
   return (
@@ -92,7 +92,7 @@ export function CitationChecks({ list, url, readOnly, onChange }: { list: Citati
         {done} of {code.length} code citations checked against the adopted text · {list.uncheckedMemory.length} from memory still unchecked
       </p>
       <ul className="mt-2">
-        {code.map((c) => <Row key={`${c.ruleKey}-${c.mark?.checkedAt ?? ''}`} c={c} url={url} readOnly={readOnly} onChange={onChange} />)}
+        {code.map((c) => <Row key={`${c.ruleKey}-${c.mark?.checkedAt ?? ''}`} c={c} url={url} readOnly={readOnly} onChange={onChange} timeZone={timeZone} />)}
       </ul>
     </div>
   );

@@ -15,9 +15,11 @@ import { FactReference, RuleTable } from '@/components/admin/rule-editor';
 import { CitationChecks, type CitationList } from '@/components/admin/citation-checks';
 import { BusyButton } from '@/components/busy-button';
 import type { ComparedWith } from '@/lib/services/rule-sets/comparisons';
+import { isFinished, pollRun, RunProgress, type RunStatus } from '@/components/admin/run-progress';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 type DraftSet = Omit<RuleSetWithRules, 'createdAt' | 'updatedAt' | 'publishedAt' | 'retiredAt'> & { updatedAt: string | Date };
-type DryRun = { published: { version: number } | null; comparedWith?: ComparedWith; draft: { version: number; revision: number }; subjects: SubjectComparison[]; totals: { subjects: number; changed: number; newlyFailing: number; newlyPassing: number }; adminNotes?: Array<{ ruleKey: string; title: string; note: string }> };
+type DryRun = { published: { version: number } | null; comparedWith?: ComparedWith; draft: { id: string; version: number; revision: number }; subjects: SubjectComparison[]; totals: { subjects: number; changed: number; newlyFailing: number; newlyPassing: number }; adminNotes?: Array<{ ruleKey: string; title: string; note: string }> };
 
 /** Where a write started: its conflict is shown next to that button. */
 type Source = 'parameters' | 'rules' | 'note' | 'publish' | 'discard';
@@ -38,7 +40,10 @@ function Conflict({ message, onReload }: { message: string; onReload: () => void
  * never conflict with each other. A 409 means another admin saved first; the page keeps what was
  * typed, shows the conflict beside the button that met it and offers to reload their version.
  */
-export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: string }) {
+/** The draft's latest dry run as the server found it: where it stands, and its result once done. */
+export type LatestDryRun = { run: RunStatus; result: unknown } | null;
+
+export function DraftWorkspace({ initial, slug, timeZone, latestDryRun }: { initial: DraftSet; slug: string; timeZone: string; latestDryRun: LatestDryRun }) {
   const router = useRouter();
   const url = `/api/rule-sets/${initial.id}`;
   // The revision must stay the one the form's values came from: a silent refetch on mount would
@@ -58,8 +63,16 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
   const queue = useRef<Promise<unknown>>(Promise.resolve());
   const [confirming, setConfirming] = useState(false);
   const [reloads, setReloads] = useState(0);
-  const [dryRun, setDryRun] = useState<DryRun | null>(null);
-  const [dryRunState, setDryRunState] = useState<'idle' | 'running' | 'stale'>('idle');
+  const shownRun = latestDryRun?.run.state === 'done' ? latestDryRun : null;
+  const [dryRun, setDryRun] = useState<DryRun | null>((shownRun?.result as DryRun | undefined) ?? null);
+  const working = latestDryRun && !isFinished(latestDryRun.run) ? latestDryRun.run : null;
+  const [dryRunState, setDryRunState] = useState<'idle' | 'running' | 'stale'>(
+    working ? 'running' : shownRun && (shownRun.result as DryRun).draft.revision !== initial.revision ? 'stale' : 'idle',
+  );
+  // The job's progress while a dry run works, and when the one shown finished.
+  const [dryRunProgress, setDryRunProgress] = useState<RunStatus | null>(working);
+  const [dryRunFinishedAt, setDryRunFinishedAt] = useState<string | Date | null>(shownRun?.run.finishedAt ?? null);
+  const gone = useRef(false);
   const [changelog, setChangelog] = useState(initial.changelog);
   const [publishError, setPublishError] = useState<string | null>(null);
   const [publishing, setPublishing] = useState(false);
@@ -88,7 +101,8 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
         setConflictState(null);
         await mutate(next, { revalidate: false });
         // The changelog note changes no finding.
-        if (dryRun && source !== 'note') setDryRunState('stale');
+        // A dry run still working decides for itself when it ends (by the revision it read).
+        if (dryRun && source !== 'note') setDryRunState((state) => (state === 'running' ? state : 'stale'));
         void citations.mutate();
         return next;
       } catch (err) {
@@ -126,20 +140,64 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
     }
   };
 
-  // Waits for saves under way, so the dry run evaluates what was just saved.
-  async function runDryRun(): Promise<DryRun | null> {
+  /**
+   * The dry run is a job: it is queued after the saves under way (so it evaluates what was just saved), its
+   * progress is polled, and its result is for the revision the job read, which may be older than the draft by
+   * the time it is done.
+   */
+  async function followDryRun(started: RunStatus, cancelled: () => boolean): Promise<DryRun | null> {
+    const finished = await pollRun<RunStatus & { result: DryRun | null }>(`${url}/dry-runs/${started.id}`, setDryRunProgress, cancelled);
+    if (!finished) return null;
+    setDryRunProgress(null);
+    if (finished.state === 'failed' || !finished.result) throw new Error(`The dry run did not finish: ${finished.error ?? 'unknown error'}`);
+    setDryRun(finished.result);
+    setDryRunFinishedAt(finished.finishedAt);
+    setDryRunState(finished.result.draft.revision === revision.current ? 'idle' : 'stale');
+    return finished.result;
+  }
+
+  async function runDryRun(cancelled: () => boolean = () => gone.current): Promise<DryRun | null> {
     setDryRunState('running');
     try {
-      const result = await inTurn(() => fetchJson<DryRun>(`${url}/dry-run`, { method: 'POST', json: {} }));
-      setDryRun(result);
-      setDryRunState('idle');
-      return result;
+      const started = await inTurn(() => fetchJson<RunStatus>(`${url}/dry-runs`, { method: 'POST', json: {} }));
+      if (cancelled()) return null;
+      setDryRunProgress(started);
+      return await followDryRun(started, cancelled);
     } catch (err) {
+      if (cancelled()) return null;
       setPublishError((err as Error).message);
-      setDryRunState('idle');
+      setDryRunProgress(null);
+      setDryRunState(dryRun ? 'stale' : 'idle');
       return null;
     }
   }
+
+  // The latest dry run is shown when it is for this revision; one still working is followed; otherwise a new one starts.
+  useEffect(() => {
+    let cancelled = false;
+    gone.current = false;
+    const latest = latestDryRun?.run;
+    const matches = latest && latest.draftRevision === initial.revision && latest.state !== 'failed';
+    const kickoff = setTimeout(() => {
+      if (latest && !isFinished(latest)) {
+        followDryRun(latest, () => cancelled).catch((err: Error) => {
+          if (!cancelled) {
+            setPublishError(err.message);
+            setDryRunState('idle');
+          }
+        });
+      } else if (!matches) {
+        void runDryRun(() => cancelled);
+      }
+    }, 0);
+    return () => {
+      clearTimeout(kickoff);
+      cancelled = true;
+      gone.current = true;
+    };
+    // Once per page load: later runs are started by the buttons.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
 
   /** Opens the confirmation: the changelog and the projects the dry run finds, run afresh when stale. */
   async function askToPublish() {
@@ -213,7 +271,7 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
           citations the jurisdiction checked and when; marks are kept on record and carried into the next draft while the citation stays the same.
         </p>
         {citations.data ? (
-          <div className="mt-3"><CitationChecks list={citations.data} url={`${url}/citations`} readOnly={false} onChange={() => citations.mutate()} /></div>
+          <div className="mt-3"><CitationChecks list={citations.data} url={`${url}/citations`} readOnly={false} onChange={() => citations.mutate()} timeZone={timeZone} /></div>
         ) : (
           <p className="mt-3 text-sm text-ink-soft">{citations.error ? (citations.error as Error).message : 'Loading citations…'}</p>
         )}
@@ -222,12 +280,23 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
       <section className="card p-5" aria-labelledby="dry-h">
         <div className="flex flex-wrap items-center justify-between gap-3">
           <h2 id="dry-h" className="text-lg font-bold">Dry run</h2>
-          <BusyButton className="btn-secondary" onClick={runDryRun} busy={dryRunState === 'running'} busyText="Running the dry run…">Dry-run this draft</BusyButton>
+          <BusyButton className="btn-secondary" onClick={() => runDryRun()} busy={dryRunState === 'running'} busyText="Running the dry run…">Dry-run this draft</BusyButton>
         </div>
-        <p className="mt-1 text-sm text-ink-soft">Evaluates the demo plans and the latest plan revision of every open project in this jurisdiction under the published version and this draft. Nothing is stored.</p>
-        {dryRunState === 'stale' && <p role="status" className="mt-2 text-sm text-status-caution">The draft changed since this dry run; run it again.</p>}
+        <p className="mt-1 text-sm text-ink-soft">
+          Evaluates the demo plans and the latest plan revision of every open project in this jurisdiction under the published version and this draft, as a
+          background job; you may leave the page and come back. The draft and the projects are not changed; the result is kept with the run.
+        </p>
+        {dryRunProgress && <RunProgress run={dryRunProgress} label="Dry run under way" />}
+        {dryRunState === 'stale' && dryRun && (
+          <p role="status" className="mt-2 text-sm text-status-caution" data-testid="dry-run-stale">
+            The draft changed since this dry run (it is for revision {dryRun.draft.revision}; the draft is at revision {set.revision}); run it again.
+          </p>
+        )}
         {dryRun && (
           <div className="mt-3" data-testid="dry-run">
+            <p className="mb-1 text-xs text-ink-faint" data-testid="dry-run-of">
+              Dry run of revision {dryRun.draft.revision}{dryRunFinishedAt ? `, finished ${formatDateTime(dryRunFinishedAt, timeZone)}` : ''}
+            </p>
             <p className="mb-2 text-sm font-semibold" data-testid="dry-run-totals">
               {dryRun.totals.changed} of {dryRun.totals.subjects} plans would change status · {dryRun.totals.newlyFailing} would newly fail · {dryRun.totals.newlyPassing} would newly pass
             </p>
@@ -265,6 +334,7 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
             version={set.version}
             changelog={changelog}
             dryRun={dryRunState === 'running' ? null : dryRun}
+            progress={dryRunState === 'running' ? dryRunProgress : null}
             changing={changing}
             unchecked={unchecked}
             publishing={publishing}
@@ -299,10 +369,11 @@ export function DraftWorkspace({ initial, slug }: { initial: DraftSet; slug: str
  * run says would change, and any from-memory citations nobody checked. A modal <dialog>, so focus
  * stays inside it and Escape cancels.
  */
-function PublishDialog({ version, changelog, dryRun, changing, unchecked, publishing, onPublish, onCancel }: {
+function PublishDialog({ version, changelog, dryRun, progress, changing, unchecked, publishing, onPublish, onCancel }: {
   version: number;
   changelog: string;
   dryRun: DryRun | null;
+  progress: RunStatus | null;
   changing: SubjectComparison[];
   unchecked: CitationList['uncheckedMemory'];
   publishing: boolean;
@@ -325,7 +396,10 @@ function PublishDialog({ version, changelog, dryRun, changing, unchecked, publis
       <blockquote className="mt-1 whitespace-pre-wrap border-l-4 border-rule pl-3 text-sm" data-testid="publish-dialog-changelog">{changelog}</blockquote>
       <h4 className="mt-3 text-sm font-semibold">Projects whose outcome would change</h4>
       {!dryRun ? (
-        <p role="status" className="mt-1 text-sm">Running the dry run…</p>
+        <>
+          <p role="status" className="mt-1 text-sm">Running the dry run…</p>
+          {progress && <RunProgress run={progress} label="Dry run under way" />}
+        </>
       ) : (
         <div data-testid="publish-dialog-impact">
           {projects.length === 0 ? (

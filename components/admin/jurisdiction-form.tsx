@@ -9,6 +9,7 @@ import { z } from 'zod';
 import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { BusyButton } from '@/components/busy-button';
+import { DEFAULT_TIME_ZONE } from '@/lib/domain/dates/format';
 
 type Values = {
   slug: string;
@@ -17,6 +18,7 @@ type Values = {
   editions: Editions;
   inspectorEmail: string;
   amendmentNotes: string;
+  timeZone: string;
   startFrom: string;
 };
 
@@ -40,9 +42,12 @@ function errorAt(errors: FieldErrors<Values>, path: string): string | undefined 
 export function JurisdictionForm({
   jurisdiction,
   startOptions = [],
+  timeZones,
 }: {
   jurisdiction?: Omit<Values, 'startFrom' | 'inspectorEmail'> & { inspectorEmail: string | null };
   startOptions?: { slug: string; name: string; version: number }[];
+  /** The server's list, so the options rendered on the server and in the browser agree. */
+  timeZones: string[];
 }) {
   const router = useRouter();
   const editing = !!jurisdiction;
@@ -55,7 +60,7 @@ export function JurisdictionForm({
     resolver: zodResolver((editing ? editFormSchema : jurisdictionCreateSchema) as never),
     defaultValues: jurisdiction
       ? { ...jurisdiction, inspectorEmail: jurisdiction.inspectorEmail ?? '', startFrom: 'baseline' }
-      : { slug: '', name: '', region: '', editions: { building: '', electrical: '', plumbing: '', plumbingFamily: 'IPC', mechanical: '', fuelGas: '' }, inspectorEmail: '', amendmentNotes: '', startFrom: 'baseline' },
+      : { slug: '', name: '', region: '', editions: { building: '', electrical: '', plumbing: '', plumbingFamily: 'IPC', mechanical: '', fuelGas: '' }, inspectorEmail: '', amendmentNotes: '', timeZone: DEFAULT_TIME_ZONE, startFrom: 'baseline' },
   });
 
   async function onSubmit(values: Values) {
@@ -109,6 +114,17 @@ export function JurisdictionForm({
           editing ? 'Fixed once created: projects and reports refer to it.' : 'Lower-case, e.g. north-county.',
         )}
         {field('region', 'State or region', <input {...register('region')} {...aria('region')} className="field-input" />)}
+        {field(
+          'timeZone',
+          'Time zone',
+          <select {...register('timeZone')} {...aria('timeZone')} className="field-input">
+            {/* A stored alias (e.g. Asia/Kolkata) the runtime lists under another name stays choosable. */}
+            {(jurisdiction && !timeZones.includes(jurisdiction.timeZone) ? [jurisdiction.timeZone, ...timeZones] : timeZones).map((z) => (
+              <option key={z} value={z}>{z.replaceAll('_', ' ')}</option>
+            ))}
+          </select>,
+          'Pages, e-mails and reports show this jurisdiction’s dates on this clock, with the zone’s abbreviation.',
+        )}
         {field('inspectorEmail', 'Inspector e-mail (optional)', <input type="email" {...register('inspectorEmail')} {...aria('inspectorEmail')} className="field-input" />, 'Where installers send reports for this jurisdiction.')}
       </div>
       <fieldset className="space-y-3">

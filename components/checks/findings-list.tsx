@@ -7,6 +7,7 @@ import { areaOrder, areaTitles, citationText, confidenceLabel } from '@/lib/doma
 import { amendmentCitationText, checkedOnFor, citationStatusText } from '@/lib/domain/rule-sets/citation-checks';
 import type { FindingCommentsByKey } from '@/lib/domain/reports/finding-comments';
 import { FindingComments } from '@/components/checks/finding-comments';
+import { DEFAULT_TIME_ZONE, formatDate } from '@/lib/domain/dates/format';
 
 type Filter = 'all' | 'problems' | 'fail';
 
@@ -17,7 +18,7 @@ const filterLabel: Record<Filter, string> = { all: 'All findings', problems: 'Fa
  * then says whether the jurisdiction checked it against its adopted code, instead of the source
  * confidence admins and installers see.
  */
-export function FindingsList({ findings, changedKeys, citationChecks, comments }: { findings: Finding[]; changedKeys?: string[]; citationChecks?: Record<string, { citation: string; checkedOn: string }>; comments?: FindingCommentsByKey }) {
+export function FindingsList({ findings, changedKeys, citationChecks, comments, timeZone = DEFAULT_TIME_ZONE }: { findings: Finding[]; changedKeys?: string[]; citationChecks?: Record<string, { citation: string; checkedOn: string }>; comments?: FindingCommentsByKey; timeZone?: string }) {
   const [filter, setFilter] = useState<Filter>(findings.some((f) => f.status === 'fail') ? 'problems' : 'all');
   const changed = useMemo(() => new Set(changedKeys ?? []), [changedKeys]);
   const shown = findings.filter((f) =>
@@ -56,7 +57,7 @@ export function FindingsList({ findings, changedKeys, citationChecks, comments }
                       <div className="font-mono font-semibold text-ink" data-testid="citation">{citationText(f.citation)}</div>
                       {amendmentCitationText(f) && <div className="font-mono text-ink" data-testid="amendment-citation">Local amendment {amendmentCitationText(f)}</div>}
                       {citationChecks
-                        ? <div data-testid="citation-status">{citationStatusText(f.citation, checkedOnFor(f, citationChecks))}</div>
+                        ? <div data-testid="citation-status">{citationStatusText(f.citation, checkedOnFor(f, citationChecks), (at) => formatDate(at, timeZone))}</div>
                         : <div>{confidenceLabel[f.confidence] ?? f.confidence}</div>}
                       {changed.has(f.ruleKey) && <div className="mt-1 inline-block rounded bg-brass-soft px-1.5 font-semibold text-ink">changed since last check</div>}
                     </div>
@@ -78,7 +79,7 @@ export function FindingsList({ findings, changedKeys, citationChecks, comments }
                     </p>
                   )}
                   {f.citationNote && <p className="mt-1 text-xs text-ink-faint">{f.citationNote}</p>}
-                  <FindingComments comments={comments?.[f.ruleKey]} />
+                  <FindingComments comments={comments?.[f.ruleKey]} timeZone={timeZone} />
                 </li>
               ))}
             </ul>

@@ -1,9 +1,8 @@
 import Link from 'next/link';
 import type { InspectionListItem } from '@/db/reports';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
-const utcDay = (d: Date) => d.toISOString().slice(0, 10);
-const utcTime = (d: Date) => d.toISOString().slice(11, 16);
 
 function Outcome({ r }: { r: InspectionListItem }) {
   if (r.reviewOutcome === 'approved') return <StatusBadge status="pass" label="Approved" />;
@@ -22,7 +21,7 @@ export function InspectionsTable({ rows }: { rows: InspectionListItem[] }) {
         <caption className="sr-only">Reports sent to your jurisdiction, newest first</caption>
         <thead className="bg-paper-deep text-left text-xs uppercase tracking-wide text-ink-soft">
           <tr>
-            <th scope="col" className="hidden px-4 py-3 md:table-cell">Received (UTC)</th>
+            <th scope="col" className="hidden px-4 py-3 md:table-cell">Received</th>
             <th scope="col" className="px-4 py-3">Project and site address</th>
             <th scope="col" className="hidden px-4 py-3 md:table-cell">Permit</th>
             <th scope="col" className="hidden px-4 py-3 lg:table-cell">Installer</th>
@@ -34,14 +33,14 @@ export function InspectionsTable({ rows }: { rows: InspectionListItem[] }) {
           {rows.map((r) => (
             <tr key={r.reportId} data-testid="inspection-row" data-code={r.code}>
               <td className="hidden whitespace-nowrap px-4 py-3 align-top md:table-cell">
-                {utcDay(r.sentAt)} <span className="text-ink-soft">{utcTime(r.sentAt)}</span>
+                {formatDateTime(r.sentAt, r.timeZone)}
               </td>
               <td className="px-4 py-3 align-top">
                 <Link href={`/inspections/${r.reportId}`} className="font-semibold underline underline-offset-2">{r.projectName}</Link>
                 <div data-testid="site-address">{r.siteAddress}</div>
                 <div className="font-mono text-xs text-ink-soft">report {r.code}</div>
                 <div className="mt-1 space-y-0.5 text-xs text-ink-soft md:hidden">
-                  <div>Received {utcDay(r.sentAt)} {utcTime(r.sentAt)} UTC</div>
+                  <div>Received {formatDateTime(r.sentAt, r.timeZone)}</div>
                   <div>Permit {r.permitNumber ?? 'not given'}</div>
                   <div className="lg:hidden">{r.organizationName} · {r.summary.fail} fail · {r.summary.caution} caution · {r.summary.needsInfo} info</div>
                 </div>

@@ -4,6 +4,9 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { invitedRoleLabels, type InvitedRole } from '@/lib/domain/accounts/people';
 import { fetchJson } from '@/lib/platform/client/fetch-json';
+import { DEFAULT_TIME_ZONE, formatDate } from '@/lib/domain/dates/format';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import type { MailDeliveryProps } from '@/lib/domain/mail/outbox';
 
 export type PendingInvitation = {
   id: string;
@@ -14,9 +17,11 @@ export type PendingInvitation = {
   invitedByEmail: string | null;
   createdAt: string;
   expiresAt: string;
+  mail?: MailDeliveryProps | null;
 };
 
-const day = (iso: string) => iso.slice(0, 10);
+// People pages serve a company or the whole service, not one jurisdiction: UTC, labelled so.
+const day = (iso: string) => formatDate(iso, DEFAULT_TIME_ZONE);
 
 export function PendingInvitations({ invitations }: { invitations: PendingInvitation[] }) {
   const router = useRouter();
@@ -49,6 +54,11 @@ export function PendingInvitations({ invitations }: { invitations: PendingInvita
                   {i.invitedByEmail ? ` by ${i.invitedByEmail}` : ''} ·{' '}
                   {i.state === 'expired' ? <strong className="text-status-fail">expired {day(i.expiresAt)}; send a new one</strong> : `expires ${day(i.expiresAt)}`}
                 </div>
+                {i.mail && (
+                  <div className="mt-1 text-xs">
+                    <MailDelivery initial={i.mail} label="Invitation e-mail" />
+                  </div>
+                )}
               </div>
               <button type="button" className="btn-danger" onClick={() => revoke(i.id)} aria-label={`Revoke the invitation to ${i.email}`}>
                 Revoke

@@ -1,5 +1,6 @@
 import type { Person } from '@/db/people';
 import { PersonActions } from '@/components/people/person-actions';
+import { DEFAULT_TIME_ZONE, formatDate } from '@/lib/domain/dates/format';
 
 const roleName = (p: Person) => (p.role === 'installer' ? (p.isOwner ? 'Owner' : 'Installer') : p.role === 'inspector' ? 'Inspector' : 'Admin');
 
@@ -40,7 +41,7 @@ export function PeopleTable({
               <td className="px-4 py-3">{roleName(p)}</td>
               {showPlace && <td className="px-4 py-3">{p.organizationName ?? p.jurisdictionName ?? '—'}</td>}
               <td className="px-4 py-3" data-testid="person-status">
-                {p.deactivatedAt ? <span className="text-status-fail">Deactivated {p.deactivatedAt.toISOString().slice(0, 10)}</span> : 'Active'}
+                {p.deactivatedAt ? <span className="text-status-fail">Deactivated {formatDate(p.deactivatedAt, DEFAULT_TIME_ZONE)}</span> : 'Active'}
               </td>
               <td className="px-4 py-3">
                 <PersonActions

@@ -2,14 +2,34 @@
 
 import { useRef, useState } from 'react';
 import useSWR from 'swr';
-import { fetchJson, swrFetcher } from '@/lib/platform/client/fetch-json';
+import { ThumbnailState } from '@/components/attachments/thumbnail-state';
+import { BusyButton } from '@/components/busy-button';
+import { derivativesState, type AttachmentDerivatives } from '@/lib/domain/attachments/derivatives';
+import { ApiError, fetchJson, swrFetcher } from '@/lib/platform/client/fetch-json';
 import { MAX_PHOTO_SIDE_PX, preparePhoto, uploadWithProgress } from '@/lib/platform/client/photo-upload';
 
-type A = { id: string; kind: 'photo' | 'document'; filename: string; caption: string; byteSize: number; createdAt: string };
+type A = { id: string; kind: 'photo' | 'document'; filename: string; caption: string; byteSize: number; createdAt: string; derivatives: AttachmentDerivatives };
+
+const THUMBNAIL_POLL_MS = 2_000;
+const THUMBNAIL_POLL_FOR_MS = 10 * 60_000;
+const isWaiting = (a: A) => a.kind === 'photo' && ['pending', 'making', 'retrying'].includes(a.derivatives.status);
 
 export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; canEdit: boolean }) {
   const url = `/api/projects/${projectId}/attachments`;
-  const { data, error, isLoading, mutate } = useSWR<{ attachments: A[] }>(url, swrFetcher);
+  // While a thumbnail is on its way the list is read again every few seconds (for ten minutes at most; a reload
+  // shows the latest state); otherwise only on change. The clock restarts whenever nothing is waiting.
+  const waitingSince = useRef<number | null>(null);
+  const { data, error, isLoading, mutate } = useSWR<{ attachments: A[] }>(url, swrFetcher, {
+    refreshInterval: (latest) => {
+      if (!latest?.attachments.some(isWaiting)) {
+        waitingSince.current = null;
+        return 0;
+      }
+      waitingSince.current ??= Date.now();
+      return Date.now() - waitingSince.current < THUMBNAIL_POLL_FOR_MS ? THUMBNAIL_POLL_MS : 0;
+    },
+  });
+  const [againError, setAgainError] = useState<string | null>(null);
   const [caption, setCaption] = useState('');
   const [busy, setBusy] = useState(false);
   const [uploadError, setUploadError] = useState<string | null>(null);
@@ -51,6 +71,16 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
     await mutate();
   }
 
+  async function makeAgain(a: A) {
+    setAgainError(null);
+    try {
+      await fetchJson(`/api/attachments/${a.id}/derivatives`, { method: 'POST' });
+    } catch (err) {
+      setAgainError(err instanceof ApiError ? err.message : 'The thumbnail could not be queued again; try again in a moment.');
+    }
+    await mutate();
+  }
+
   async function remove(a: A) {
     if (!window.confirm(`Delete ${a.filename}? Reports already issued keep their copy.`)) return;
     await fetchJson(`/api/attachments/${a.id}`, { method: 'DELETE' });
@@ -87,12 +117,22 @@ export function AttachmentsPanel({ projectId, canEdit }: { projectId: string; ca
       )}
       {isLoading && <p className="mt-3 text-sm text-ink-soft">Loading files…</p>}
       {error && <p role="alert" className="mt-3 text-sm text-status-fail">Files could not be loaded: {(error as Error).message}</p>}
+      {againError && <p role="alert" className="mt-3 text-sm text-status-fail">{againError}</p>}
       {data && data.attachments.length === 0 && <p className="mt-3 text-sm text-ink-faint">Nothing attached yet.</p>}
       {data && data.attachments.length > 0 && (
         <ul className="mt-4 grid gap-4 sm:grid-cols-2 lg:grid-cols-3" data-testid="attachments">
           {data.attachments.map((a) => (
             <li key={a.id} className="rounded-md border border-rule bg-white p-3 text-sm">
-              {a.kind === 'photo' ? (
+              {a.kind === 'photo' && a.derivatives.status !== 'ready' ? (
+                <>
+                  <ThumbnailState derivatives={a.derivatives} filename={a.filename} />
+                  {canEdit && derivativesState(a.derivatives).canMakeAgain && (
+                    <BusyButton className="btn-secondary mt-2 px-2 py-1 text-xs" busyText="Queuing…" onClick={() => makeAgain(a)} aria-label={`Make the thumbnail of ${a.filename} again`}>
+                      Make again
+                    </BusyButton>
+                  )}
+                </>
+              ) : a.kind === 'photo' ? (
                 // eslint-disable-next-line @next/next/no-img-element
                 <img src={`/api/attachments/${a.id}?variant=thumb`} alt={a.caption || a.filename} className="aspect-[4/3] w-full rounded object-cover" />
               ) : (

@@ -6,12 +6,13 @@ import useSWR from 'swr';
 import { swrFetcher } from '@/lib/platform/client/fetch-json';
 import { ProjectsCsvLink } from '@/components/projects/projects-csv-link';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { formatDate } from '@/lib/domain/dates/format';
 
 type Item = {
   id: string;
   name: string;
   siteAddress: string;
-  jurisdiction: { slug: string; name: string };
+  jurisdiction: { slug: string; name: string; timeZone: string };
   latestCheck: {
     outcome: 'pass' | 'fail' | 'incomplete';
     summary: { fail: number; needsInfo: number; caution: number; pass: number };
@@ -168,7 +169,7 @@ export function ProjectsTable() {
                   <td className="hidden px-4 py-3 md:table-cell">{p.jurisdiction.name}</td>
                   <td className="hidden px-4 py-3 md:table-cell"><CheckResult check={p.latestCheck} /></td>
                   <td className="hidden px-4 py-3 md:table-cell"><Inspection inspection={p.inspection} /></td>
-                  <td className="hidden px-4 py-3 text-ink-soft md:table-cell"><time dateTime={p.updatedAt}>{new Date(p.updatedAt).toLocaleDateString()}</time></td>
+                  <td className="hidden px-4 py-3 text-ink-soft md:table-cell"><time dateTime={p.updatedAt}>{formatDate(p.updatedAt, p.jurisdiction.timeZone)}</time></td>
                 </tr>
               ))}
             </tbody>

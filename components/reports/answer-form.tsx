@@ -6,6 +6,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { ApiError, fetchJson } from '@/lib/platform/client/fetch-json';
 import { answerSchema, ANSWER_NOTE_MAX_CHARS, type AnswerInput } from '@/lib/domain/reports/thread';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 type LatestCheck = { id: string; createdAt: string; counts: string };
 
@@ -13,7 +14,7 @@ type LatestCheck = { id: string; createdAt: string; counts: string };
  * The installer answers the inspector's corrections with the project's latest check (a report is issued
  * for it) and a note. A check no newer than the one the inspector saw cannot answer: run one first.
  */
-export function AnswerForm({ open, reportCode, latestCheck, reviewedAt, projectId }: { open: boolean; reportCode: string; latestCheck: LatestCheck | null; reviewedAt: string; projectId: string }) {
+export function AnswerForm({ open, reportCode, latestCheck, reviewedAt, projectId, timeZone }: { open: boolean; reportCode: string; latestCheck: LatestCheck | null; reviewedAt: string; projectId: string; timeZone: string }) {
   const router = useRouter();
   const [formError, setFormError] = useState<string | null>(null);
   const [done, setDone] = useState<string | null>(null);
@@ -41,7 +42,7 @@ export function AnswerForm({ open, reportCode, latestCheck, reviewedAt, projectI
     setFormError(null);
     try {
       const res = await fetchJson<{ report: { code: string }; mailed: number }>(`/api/reports/${reportCode}/answers`, { method: 'POST', json: values });
-      setDone(`Answer sent with report ${res.report.code}${res.mailed ? '; the inspector was e-mailed' : ''}.`);
+      setDone(`Answer sent with report ${res.report.code}${res.mailed ? '; the e-mail to the inspector is queued' : ''}.`);
       router.refresh();
     } catch (err) {
       if (err instanceof ApiError && err.errors.length) for (const e of err.errors) setError((e.path === 'checkId' ? 'checkId' : 'note') as never, { message: e.message });
@@ -54,7 +55,7 @@ export function AnswerForm({ open, reportCode, latestCheck, reviewedAt, projectI
       <form onSubmit={handleSubmit(onSubmit)} noValidate className="mt-3 space-y-3 rounded border border-rule p-4" aria-label={`Answer the corrections on report ${reportCode}`}>
         <p className="font-semibold">Answer the corrections</p>
         <p className="text-ink-soft">
-          With the latest check, run {new Date(latestCheck.createdAt).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' })} ({latestCheck.counts}). A report is issued for it and sent with your note.
+          With the latest check, run {formatDateTime(latestCheck.createdAt, timeZone)} ({latestCheck.counts}). A report is issued for it and sent with your note.
         </p>
         <input type="hidden" {...register('checkId')} />
         {errors.checkId && <p className="field-error" role="alert">{errors.checkId.message}</p>}

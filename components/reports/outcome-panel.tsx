@@ -5,6 +5,7 @@ import { ReviewForm } from '@/components/reports/review-form';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { OUTCOME_LABEL } from '@/lib/domain/reports/thread';
 import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 type Finding = { ruleKey: string; title: string; status: string };
 export type StandingOutcome = { id: string; outcome: ReviewOutcome; comment: string; findingComments: Record<string, string>; inspectorName: string | null; createdAt: string };
@@ -14,8 +15,10 @@ export type StandingOutcome = { id: string; outcome: ReviewOutcome; comment: str
  * stands it shows that outcome (which, when, by whom) and the installer's latest note, and recording again
  * is an explicit "Revise outcome" that opens the form with the standing values.
  */
-export function OutcomePanel({ reportId, findings, standing, installerNote, onAnswer }: {
+export function OutcomePanel({ reportId, findings, standing, installerNote, onAnswer, timeZone }: {
   reportId: string;
+  /** The project's jurisdiction's IANA zone. */
+  timeZone: string;
   findings: Finding[];
   standing: StandingOutcome | null;
   installerNote: { text: string; by: string | null } | null;
@@ -43,7 +46,7 @@ export function OutcomePanel({ reportId, findings, standing, installerNote, onAn
             {standing.outcome === 'approved' ? <StatusBadge status="pass" label={OUTCOME_LABEL.approved} /> : <StatusBadge status="fail" label={OUTCOME_LABEL['corrections-needed']} />}
           </p>
           <p className="text-ink-soft">
-            {standing.inspectorName ?? 'Inspector'} · {new Date(standing.createdAt).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' })}
+            {standing.inspectorName ?? 'Inspector'} · {formatDateTime(standing.createdAt, timeZone)}
           </p>
           {standing.comment && <p className="whitespace-pre-line">{standing.comment}</p>}
           {Object.entries(standing.findingComments).map(([k, c]) => (

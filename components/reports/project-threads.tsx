@@ -18,8 +18,10 @@ const STATE_TEXT: Record<ThreadState['kind'], string> = {
 };
 
 /** The project's inspection threads, one per report that reached the inspector, with the answer form where corrections wait. */
-export function ProjectThreads({ projectId, threads, latestCheck, canAnswer }: {
+export function ProjectThreads({ projectId, threads, latestCheck, canAnswer, timeZone }: {
   projectId: string;
+  /** The project's jurisdiction's IANA zone. */
+  timeZone: string;
   threads: ProjectThread[];
   latestCheck: { id: string; createdAt: Date; counts: string } | null;
   canAnswer: boolean;
@@ -35,6 +37,7 @@ export function ProjectThreads({ projectId, threads, latestCheck, canAnswer }: {
             findingLinks={{ projectId, reportedCheckId: t.reportedCheckId }}
             headingId={`thread-${t.rootReport.code}`}
             heading={`Report ${t.rootReport.code}: ${STATE_TEXT[t.state.kind]}`}
+            timeZone={timeZone}
           />
           {canAnswer && (
             // Kept mounted while the thread waits for the outcome, so the answer's confirmation outlives the refresh
@@ -46,6 +49,7 @@ export function ProjectThreads({ projectId, threads, latestCheck, canAnswer }: {
               reportCode={t.rootReport.code}
               reviewedAt={t.underReview.createdAt.toISOString()}
               latestCheck={latestCheck && { id: latestCheck.id, createdAt: latestCheck.createdAt.toISOString(), counts: latestCheck.counts }}
+              timeZone={timeZone}
             />
           )}
         </div>

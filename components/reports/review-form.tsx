@@ -44,7 +44,7 @@ export function ReviewForm({ reportId, findings, revises, onCancel, onDone }: {
     const values = parsed.data;
     try {
       const res = await fetchJson<{ mailed: number }>(`/api/inspections/${reportId}/review`, { method: 'POST', json: values });
-      const message = `${revises ? 'Outcome revised' : 'Outcome recorded'}${res.mailed ? ' and the installer was e-mailed' : ''}.`;
+      const message = `${revises ? 'Outcome revised' : 'Outcome recorded'}${res.mailed ? ' and the e-mail to the installer is queued' : ''}.`;
       if (onDone) onDone(message);
       else setDone(message);
       router.refresh();

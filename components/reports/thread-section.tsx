@@ -1,11 +1,11 @@
 import type { FindingChange } from '@/lib/domain/checks/compare';
 import { OUTCOME_LABEL, type ThreadEntry } from '@/lib/domain/reports/thread';
 import { StatusBadge, statusLabel } from '@/components/ui/status-badge';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 type PlanValueChange = { path: string; label: string; from: string; to: string };
 export type ThreadSectionEntry = ThreadEntry | (Extract<ThreadEntry, { kind: 'answer' }> & { changes: { findings: FindingChange[]; plan: PlanValueChange[] } });
 
-const when = (d: Date | string) => new Date(d).toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' });
 const statusText = (s: FindingChange['from']) => (s ? statusLabel[s] : 'not in this check');
 
 /**
@@ -13,14 +13,17 @@ const statusText = (s: FindingChange['from']) => (s ? statusLabel[s] : 'not in t
  * the send and its note, each outcome (revisions say which one they replace), each answer with what
  * changed between the check the inspector saw and the answering one.
  */
-export function ThreadSection({ entries, findingTitles, headingId, heading = 'Inspection thread', findingLinks }: {
+export function ThreadSection({ entries, findingTitles, headingId, heading = 'Inspection thread', findingLinks, timeZone }: {
   entries: ThreadSectionEntry[];
+  /** The project's jurisdiction's IANA zone. */
+  timeZone: string;
   findingTitles: Record<string, string>;
   headingId: string;
   heading?: string;
   /** On the installer's project page: each commented finding links to it on the check the outcome was about. */
   findingLinks?: { projectId: string; reportedCheckId: string };
 }) {
+  const when = (d: Date | string) => formatDateTime(d, timeZone);
   const outcomeAt = new Map(entries.filter((e) => e.kind === 'outcome').map((e) => [e.id, e.at]));
   const answerCheck = new Map(entries.flatMap((e) => (e.kind === 'answer' ? [[e.id, e.checkId] as const] : [])));
   const findingHref = (e: Extract<ThreadEntry, { kind: 'outcome' }>, ruleKey: string) => {

@@ -74,6 +74,9 @@ export async function readMultipartUpload(request: Request, limits: MultipartLim
     const chunks: Buffer[] = [];
     stream.on('data', (c: Buffer) => chunks.push(c));
     stream.on('limit', () => fail(new PayloadTooLargeError(limits.tooLargeMessage)));
+    // A body cut off inside the file (or the parser destroyed after a refusal) errors this stream; the refusal
+    // is already recorded, and an error with no listener would be thrown out of the process.
+    stream.on('error', () => fail(new ValidationError([{ path: limits.fileField, message: 'The upload was cut off before the file ended.' }])));
     stream.on('end', () => {
       if (!stream.truncated) state.file = { filename: info.filename ?? '', mimeType: info.mimeType, bytes: Buffer.concat(chunks) };
     });

@@ -1,5 +1,5 @@
 import 'server-only';
-import { CreateBucketCommand, DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
+import { CreateBucketCommand, DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3';
 import { ServiceUnavailableError } from '@/lib/domain/errors';
 import { log } from '@/lib/platform/log';
 
@@ -77,4 +77,20 @@ export async function deleteObject(key: string): Promise<void> {
   } catch (err) {
     unavailable(err);
   }
+}
+
+/** Every stored object under `prefix`, page by page (ListObjectsV2). */
+export async function* listObjects(prefix: string): AsyncGenerator<{ key: string; lastModified: Date | null }> {
+  let token: string | undefined;
+  do {
+    let page;
+    try {
+      await ensureBucket();
+      page = await client().send(new ListObjectsV2Command({ Bucket: storageConfig().bucket, Prefix: prefix, ContinuationToken: token }));
+    } catch (err) {
+      unavailable(err);
+    }
+    for (const o of page.Contents ?? []) if (o.Key) yield { key: o.Key, lastModified: o.LastModified ?? null };
+    token = page.IsTruncated ? page.NextContinuationToken : undefined;
+  } while (token);
 }

@@ -25,6 +25,11 @@ export function safeFilename(name: string): string {
   return [...(cleaned || 'upload')].slice(0, 120).join('');
 }
 
+/** The thumbnail's longest side on pages, in pixels. */
+export const THUMBNAIL_MAX_SIDE_PX = 480;
+/** The report-size image's longest side; smaller photos keep their size. */
+export const REPORT_IMAGE_MAX_SIDE_PX = 1400;
+
 export type CheckedUpload = {
   kind: 'photo' | 'document';
   contentType: string;
@@ -33,10 +38,6 @@ export type CheckedUpload = {
   sha256: string;
   width: number | null;
   height: number | null;
-  thumbnail: Buffer | null;
-  display: Buffer | null;
-  /** A photo re-encoded without EXIF/XMP (camera, GPS position), for everyone outside the uploader's company. */
-  withoutMetadata: Buffer | null;
 };
 
 /**
@@ -44,13 +45,39 @@ export type CheckedUpload = {
  * .rotate() bakes the EXIF orientation into the pixels first so the picture stays the right way up.
  */
 export async function stripPhotoMetadata(bytes: Buffer, contentType: string): Promise<Buffer> {
-  const image = sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate();
+  const image = sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' }).rotate();
   if (contentType === 'image/png') return image.png().toBuffer();
   if (contentType === 'image/webp') return image.webp({ quality: 92 }).toBuffer();
   return image.jpeg({ quality: 92 }).toBuffer();
 }
 
-/** Checks the real type from the bytes (not the name or the browser's claim), the size and the image itself. */
+/** The moderate JPEG a report embeds, re-encoded so no metadata rides along. */
+export async function makeReportImage(bytes: Buffer): Promise<Buffer> {
+  return sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' })
+    .rotate()
+    .resize(REPORT_IMAGE_MAX_SIDE_PX, REPORT_IMAGE_MAX_SIDE_PX, { fit: 'inside', withoutEnlargement: true })
+    .jpeg({ quality: 80 })
+    .toBuffer();
+}
+
+export type PhotoDerivatives = { thumbnail: Buffer; display: Buffer; withoutMetadata: Buffer };
+
+/** Everything made from a stored photo: the same bytes every time for the same photo, so a second run changes nothing. */
+export async function makePhotoDerivatives(bytes: Buffer, contentType: string): Promise<PhotoDerivatives> {
+  const thumbnail = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' })
+    .rotate()
+    .resize(THUMBNAIL_MAX_SIDE_PX, THUMBNAIL_MAX_SIDE_PX, { fit: 'inside' })
+    .jpeg({ quality: 78 })
+    .toBuffer();
+  const display = await makeReportImage(bytes);
+  const withoutMetadata = await stripPhotoMetadata(bytes, contentType);
+  return { thumbnail, display, withoutMetadata };
+}
+
+/**
+ * Checks the real type from the bytes (not the name or the browser's claim), the size and the image's header.
+ * Only the header is read here: decoding and resizing happen in the job that makes the thumbnails.
+ */
 export async function checkUpload(bytes: Buffer, declaredName: string): Promise<CheckedUpload> {
   if (bytes.length === 0) throw new ValidationError([{ path: 'file', message: 'The file is empty.' }]);
   if (bytes.length > MAX_UPLOAD_BYTES) throw new PayloadTooLargeError(`Files can be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
@@ -66,22 +93,20 @@ export async function checkUpload(bytes: Buffer, declaredName: string): Promise<
   }
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   if (DOCUMENT_TYPES.has(type)) {
-    return { kind: 'document', contentType: type, filename, bytes, sha256, width: null, height: null, thumbnail: null, display: null, withoutMetadata: null };
+    return { kind: 'document', contentType: type, filename, bytes, sha256, width: null, height: null };
   }
+  let width: number | undefined;
+  let height: number | undefined;
   try {
-    const image = sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS, failOn: 'error' });
-    const meta = await image.metadata();
-    if (!meta.width || !meta.height) throw new Error('no dimensions');
-    // Thumbnails for the page, a moderate JPEG for the report; both re-encoded, so no metadata rides along.
-    const thumbnail = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate().resize(480, 480, { fit: 'inside' }).jpeg({ quality: 78 }).toBuffer();
-    const display = await sharp(bytes, { limitInputPixels: MAX_IMAGE_PIXELS }).rotate().resize(1400, 1400, { fit: 'inside', withoutEnlargement: true }).jpeg({ quality: 80 }).toBuffer();
-    const withoutMetadata = await stripPhotoMetadata(bytes, type);
-    return { kind: 'photo', contentType: type, filename, bytes, sha256, width: meta.width, height: meta.height, thumbnail, display, withoutMetadata };
-  } catch (err) {
-    const msg = String((err as Error).message);
-    if (/pixel limit/i.test(msg)) {
-      throw new ValidationError([{ path: 'file', message: `The image has more than ${MAX_IMAGE_PIXELS / 1e6} megapixels; resize it before uploading.` }]);
-    }
-    throw new ValidationError([{ path: 'file', message: 'The image could not be read; it may be damaged.' }]);
+    // Header only: nothing is decoded, so the pixel limit is checked below with a message of its own.
+    ({ width, height } = await sharp(bytes, { limitInputPixels: false, failOn: 'error' }).metadata());
+  } catch {
+    // An unreadable header is refused here; damage further in shows when the job decodes the photo.
   }
+  if (!width || !height) throw new ValidationError([{ path: 'file', message: 'The image could not be read; it may be damaged.' }]);
+  // The header states the size, so a decompression bomb is refused before anything decodes it.
+  if (width * height > MAX_IMAGE_PIXELS) {
+    throw new ValidationError([{ path: 'file', message: `The image has more than ${MAX_IMAGE_PIXELS / 1e6} megapixels; resize it before uploading.` }]);
+  }
+  return { kind: 'photo', contentType: type, filename, bytes, sha256, width, height };
 }

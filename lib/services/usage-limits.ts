@@ -9,20 +9,35 @@ import { sharedLimiter } from '@/lib/platform/rate-limit';
  * judgement, not a published source (common practice, no published source); the README states them.
  */
 
-/** Per API token: 1,200 evaluations a minute (20 a second, sustained). */
+/**
+ * A per-minute figure an operator may raise for a deployment (a load test, a large integrator) through the
+ * environment; anything but a positive whole number there is refused at start rather than read as "no limit".
+ */
+function perMinute(envName: string, fallback: number): number {
+  const raw = process.env[envName];
+  if (raw === undefined || raw === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1) throw new Error(`${envName} must be a positive whole number of requests a minute; it is "${raw}".`);
+  return n;
+}
+
+const perToken = perMinute('NOOKPASS_EVALUATIONS_PER_TOKEN_PER_MINUTE', 1200);
+const perUser = perMinute('NOOKPASS_EVALUATIONS_PER_USER_PER_MINUTE', 2400);
+
+/** Per API token: 1,200 evaluations a minute (20 a second, sustained) unless the deployment says otherwise. */
 export const EVALUATIONS_PER_TOKEN: LimitPolicy = {
   name: 'evaluations-token',
-  points: 1200,
+  points: perToken,
   durationSeconds: 60,
-  message: 'This API token has asked for 1,200 evaluations in the last minute, the most NookPass answers for one token; wait a moment.',
+  message: `This API token has asked for ${perToken.toLocaleString('en-US')} evaluations in the last minute, the most NookPass answers for one token; wait a moment.`,
 };
 
-/** Per person, whatever token or browser they use: 2,400 evaluations a minute. */
+/** Per person, whatever token or browser they use: 2,400 evaluations a minute unless the deployment says otherwise. */
 export const EVALUATIONS_PER_USER: LimitPolicy = {
   name: 'evaluations-user',
-  points: 2400,
+  points: perUser,
   durationSeconds: 60,
-  message: 'Your account has asked for 2,400 evaluations in the last minute across all its tokens; wait a moment.',
+  message: `Your account has asked for ${perUser.toLocaleString('en-US')} evaluations in the last minute across all its tokens; wait a moment.`,
 };
 
 /** Per person: 120 reports issued an hour (each renders a PDF). */

@@ -12,7 +12,7 @@ const tag = () => randomBytes(4).toString('hex');
 const address = () => `2001:db8:e2e::${randomBytes(2).toString('hex')}:${randomBytes(2).toString('hex')}`;
 
 async function linkFromInbox(request: APIRequestContext, to: string, path: string): Promise<string> {
-  for (let i = 0; i < 40; i++) {
+  for (let i = 0; i < 80; i++) {
     const messages = (await (await request.get(`${inbox}/api/messages`)).json()) as { id: string; to: string; text: string }[];
     const mine = messages.filter((m) => m.to === to && m.text.includes(path)).sort((a, b) => a.id.localeCompare(b.id));
     const m = mine.length ? new RegExp(`https?://\\S+${path}[A-Za-z0-9_-]+`).exec(mine.at(-1)!.text) : null;

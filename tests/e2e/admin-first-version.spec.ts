@@ -36,6 +36,9 @@ test('a new jurisdiction: created once, compared with the baseline before its fi
   await page.getByLabel('Plumbing code family').selectOption('IPC');
   await page.getByLabel('Mechanical code').fill('IMC 2021');
   await page.getByLabel('Fuel gas code').fill('IFGC 2021');
+  // The jurisdiction's clock: new ones start on UTC until the admin picks their zone.
+  await expect(page.getByLabel('Time zone')).toHaveValue('UTC');
+  await page.getByLabel('Time zone').selectOption('America/Denver');
 
   // Slow the create and the page it leads to, as a busy server would: the button must say it is
   // working and stay pressed until the draft page is there, or a second press re-sends the slug.
@@ -58,6 +61,8 @@ test('a new jurisdiction: created once, compared with the baseline before its fi
   await expect(create).toHaveAttribute('aria-busy', 'true');
   await expect(page.getByRole('heading', { name: 'Rule set version 1' })).toBeVisible({ timeout: 30_000 });
   await expect(page.getByText(/already used/)).toHaveCount(0);
+  const listed = (await (await page.request.get('/api/jurisdictions')).json()) as { slug: string; timeZone: string }[];
+  expect(listed.find((j) => j.slug === slug)?.timeZone).toBe('America/Denver');
   await page.unrouteAll({ behavior: 'wait' });
 
   // Before the first publication the draft is compared with the model-code baseline, without crashing.

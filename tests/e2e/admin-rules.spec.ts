@@ -82,7 +82,7 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
   // Dry run: the installer's project flips to fail on the length rule.
   await admin.getByRole('button', { name: 'Dry-run this draft' }).click();
   const row = admin.locator(`[data-subject="${PROJECT}"]`);
-  await expect(row).toHaveAttribute('data-changed', 'true');
+  await expect(row).toHaveAttribute('data-changed', 'true', { timeout: 60_000 });
   const change = row.locator('[data-change="exhaust.developed-length"]');
   await expect(change).toHaveAttribute('data-from', 'pass');
   await expect(change).toHaveAttribute('data-to', 'fail');
@@ -97,7 +97,8 @@ test('an admin amends the maximum developed length for Demo City, dry-runs, publ
   await expect(admin.getByTestId('publish-confirm')).toBeVisible();
   await admin.getByRole('button', { name: 'Publish with them unchecked' }).click();
   await expect(admin.getByTestId('published-notice')).toContainText(`Version ${before + 1} is published`);
-  await expect(admin.getByTestId('impact-changing').locator(`[data-project="${PROJECT}"]`)).toContainText('Exhaust duct developed length');
+  // The impact is worked out by a job: the page shows its progress, then the result.
+  await expect(admin.getByTestId('impact-changing').locator(`[data-project="${PROJECT}"]`)).toContainText('Exhaust duct developed length', { timeout: 60_000 });
   await admin.screenshot({ path: `${shots}/admin-impact.png`, fullPage: true });
 
   // The published version shows read-only, and the diff shows the amendment.

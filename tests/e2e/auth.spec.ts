@@ -1,5 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { signInAs } from './helpers';
+import { formatDate } from '@/lib/domain/dates/format';
 
 const roles = [
   { email: 'installer@nookpass.demo', role: 'Installer', nav: ['Projects', 'Quick check', 'Appliance library', 'Company', 'People', 'Audit', 'Account'], lands: '/projects' },
@@ -74,7 +75,9 @@ test('a user creates an API token, sees it once, and revokes it', async ({ page,
   expect(token).toMatch(/^np_/);
   const in30Days = new Date(Date.now() + 30 * 24 * 3600_000);
   const row = page.getByRole('listitem').filter({ has: page.getByRole('button', { name: 'Revoke token e2e laptop' }) }).first();
-  await expect(row.getByTestId('token-expiry')).toHaveText(await page.evaluate((ms) => `expires ${new Date(ms).toLocaleDateString()}`, in30Days.getTime()));
+  // Account pages belong to no jurisdiction: the day is UTC's and says so, whatever the browser's zone.
+  await expect(row.getByTestId('token-expiry')).toHaveText(`expires ${formatDate(in30Days, 'UTC')}`);
+  await expect(row.getByTestId('token-expiry')).toContainText(', UTC');
 
   const me = await request.get('/api/me', { headers: { authorization: `Bearer ${token}` } });
   expect(me.status()).toBe(200);
@@ -87,6 +90,9 @@ test('a user creates an API token, sees it once, and revokes it', async ({ page,
 
 test('signing out ends the session', async ({ page }) => {
   await signInAs(page, 'admin@nookpass.demo');
+  // Settle on one page first: a click during the redirect that follows sign-in is lost to that redirect.
+  await page.goto('/rules');
+  await expect(page.getByRole('heading', { name: 'Rule sets' })).toBeVisible();
   await page.getByRole('link', { name: 'Sign out' }).click();
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page).toHaveURL(/\/sign-in/);

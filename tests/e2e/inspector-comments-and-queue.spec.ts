@@ -2,6 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import { expect, test, type Page } from '@playwright/test';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
 import { signInAs } from './helpers';
+import { formatDate } from '@/lib/domain/dates/format';
 
 // WCAG 2.2 level AA, as axe-core tags its rules.
 const WCAG_22_AA = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
@@ -57,7 +58,11 @@ test('the inspector comments on a passed finding and the installer sees it besid
   await expect(finding).toHaveAttribute('data-status', 'pass');
   const comment = finding.getByTestId('inspector-comment');
   await expect(comment).toContainText('Checked on site: matches the drawing.');
-  await expect(comment).toContainText(new Date().toISOString().slice(0, 10).slice(0, 8)); // the date, YYYY-MM- (a run across midnight keeps the month)
+  // The day on Demo County's clock (America/Denver), named by its abbreviation (tz database: MST or MDT); a run
+  // across midnight there may show either day.
+  const shownDays = [Date.now() - 5 * 60_000, Date.now()].map((ms) => formatDate(ms, 'America/Denver'));
+  expect(shownDays.some((d) => /^\w{3} \d{1,2}, \d{4}, M[SD]T$/.test(d))).toBe(true);
+  await expect(comment).toContainText(new RegExp(shownDays.map((d) => d.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')).join('|')));
   await expect(comment).toContainText(/Inspector’s comment · \S+/);
   await expect(comment).toContainText(`report ${code}`);
   await finding.scrollIntoViewIfNeeded();

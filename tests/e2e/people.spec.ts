@@ -7,7 +7,7 @@ const PASSWORD = 'teammate-e2e-password';
 
 /** The invitation link in the newest message to `email`, from the local test inbox. */
 async function invitationLink(email: string): Promise<string> {
-  for (let i = 0; i < 100; i++) {
+  for (let i = 0; i < 200; i++) {
     const messages = (await (await fetch(`${inbox}/api/messages`)).json()) as Array<{ to: string; text: string }>;
     const link = messages.find((m) => m.to.toLowerCase().includes(email))?.text.match(/https?:\/\/\S+\/invitations\/[A-Za-z0-9_-]{43}/)?.[0];
     if (link) return new URL(link).pathname;

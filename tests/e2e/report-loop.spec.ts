@@ -66,7 +66,7 @@ test('installer downloads and sends a report, the verification page accepts it, 
   await insp.getByLabel('Comment to the installer').fill('Shorten the exhaust run and add the closet opening.');
   await insp.getByLabel(/Exhaust duct developed length/).fill('Over the 35 ft limit.');
   await insp.getByRole('button', { name: 'Record outcome' }).click();
-  await expect(insp.getByText('Outcome recorded and the installer was e-mailed.')).toBeVisible();
+  await expect(insp.getByText('Outcome recorded and the e-mail to the installer is queued.')).toBeVisible();
   await insp.screenshot({ path: `${shots}/inspection.png`, fullPage: true });
   await ctx.close();
 

@@ -26,7 +26,7 @@ type Mail = { id: string; to: string; subject: string; text: string };
 
 /** The newest message to `to` whose text holds a link under `path`, waiting briefly (the reset mail leaves after the answer). */
 async function linkIn(to: string, path: string, after = 0): Promise<string> {
-  for (let i = 0; i < 40; i++) {
+  for (let i = 0; i < 120; i++) {
     const messages = (await (await fetch(`${inbox}/api/messages`)).json()) as Mail[];
     // Oldest first by the inbox's ids (arrival order), whatever order the inbox lists them in.
     const mine = messages.filter((m) => m.to.toLowerCase() === to.toLowerCase() && m.text.includes(path)).sort((a, b) => a.id.localeCompare(b.id));

@@ -14,9 +14,9 @@ const PASSWORD = 'people-test-password-1';
 const rand = () => randomBytes(4).toString('hex');
 const fresh = (what: string) => `${what}-${rand()}@example.test`;
 
-/** The invitation link mailed to `email`: the fake relay's inbox, polled for a few seconds. */
+/** The invitation link mailed to `email`: the fake relay's inbox, polled while the outbox delivers it (up to 20 s). */
 async function invitationToken(email: string): Promise<string> {
-  for (let i = 0; i < 50; i++) {
+  for (let i = 0; i < 200; i++) {
     const messages = (await (await fetch(`${inbox}/api/messages`)).json()) as Array<{ to: string; text: string }>;
     const mine = messages.find((m) => m.to.toLowerCase().includes(email));
     const m = mine?.text.match(/\/invitations\/([A-Za-z0-9_-]{43})/);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans/hall-closet-pass';
-import { api, appDb, baseUrl, postJson, signIn } from './helpers';
+import { api, appDb, baseUrl, postJson, signIn, waitForMail } from './helpers';
 
 /*
  * The inspector's outcome and the correction thread on one report: the outcome stands until revised on
@@ -53,6 +53,8 @@ describe('the recorded outcome', () => {
       postJson({ outcome: 'corrections-needed', comment: 'Add arrestors before the final.', findingComments: { 'plumbing.hammer-arrestors': 'Required here.' } }, { cookie: inspector }),
     );
     expect(first.status).toBe(201);
+    // The outcome e-mail leaves through the outbox; wait for it so a late delivery is not counted as a second one.
+    await waitForMail((m) => m.subject.includes('Inspection outcome') && m.text.includes(code));
     const mailsBefore = (await messages()).filter((m) => m.subject.includes('Inspection outcome') && m.text.includes(code)).length;
     const again = await api(`/api/inspections/${reportId}/review`, postJson({ outcome: 'approved' }, { cookie: inspector }));
     expect(again.status).toBe(409);
@@ -60,6 +62,9 @@ describe('the recorded outcome', () => {
     expect(again.body.error).toContain('Jordan Demo (inspector)');
     const mailsAfter = (await messages()).filter((m) => m.subject.includes('Inspection outcome') && m.text.includes(code)).length;
     expect(mailsAfter).toBe(mailsBefore);
+    // Nor is one queued to go later.
+    const queued = await db.selectFrom('mail_outbox').select('id').where('report_id', '=', reportId).where('kind', '=', 'inspection-outcome').execute();
+    expect(queued).toHaveLength(1);
     const rows = await db.selectFrom('inspection_reviews').select('id').where('report_id', '=', reportId).execute();
     expect(rows).toHaveLength(1);
   });
@@ -113,7 +118,7 @@ describe('the correction thread', () => {
     const res = await api(`/api/reports/${reportId}/answers`, postJson({ checkId: newCheckId, note: 'Arrestors fitted at both valves.' }, { cookie: installer }));
     expect(res.status).toBe(201);
     expect(res.body.mailed).toBe(1);
-    const mail = (await messages()).find((m) => m.subject.includes('Corrections answered') && m.text.includes(res.body.report.code))!;
+    const [mail] = await waitForMail((m) => m.subject.includes('Corrections answered') && m.text.includes(res.body.report.code));
     expect(mail.to).toContain('inspector@nookpass.demo');
     expect(mail.text).toContain('Arrestors fitted at both valves.');
     // Answered once: a second answer waits for the inspector's outcome.

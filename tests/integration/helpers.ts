@@ -335,3 +335,61 @@ export async function newInstallerCompany(db: DB, label: string): Promise<{ cook
   await db.insertInto('users').values({ email, name: `Installer ${tag}`, role: 'installer', organization_id: org.id, password_hash: await bcrypt.hash(password, 4) }).execute();
   return { cookie: await signIn(email, password), organizationId: org.id, organizationName, email };
 }
+
+/** A message in the fake relay's inbox (lib/platform/fakes). */
+export type InboxMessage = { id: string; to: string; replyTo?: string; subject: string; text: string; attachments: { filename: string; contentType: string; size: number }[] };
+
+export const inboxUrl = () => process.env.NOOKPASS_INBOX_URL ?? 'http://127.0.0.1:54326';
+
+export async function inboxMessages(): Promise<InboxMessage[]> {
+  return (await (await fetch(`${inboxUrl()}/api/messages`)).json()) as InboxMessage[];
+}
+
+/**
+ * E-mails leave through the outbox: a job delivers them a moment after the request that queued them. Polls the
+ * inbox until `count` messages match (default one), up to `ms`; returns the matches, oldest first.
+ */
+export async function waitForMail(match: (m: InboxMessage) => boolean, opts: { ms?: number; count?: number } = {}): Promise<InboxMessage[]> {
+  const deadline = Date.now() + (opts.ms ?? 30_000);
+  const count = opts.count ?? 1;
+  let found: InboxMessage[] = [];
+  while (Date.now() < deadline) {
+    found = (await inboxMessages()).filter(match).sort((a, b) => a.id.localeCompare(b.id));
+    if (found.length >= count) return found;
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`waited ${opts.ms ?? 30_000} ms for ${count} message(s), found ${found.length}`);
+}
+
+/** Polls an e-mail's delivery state (GET /api/mail/<id>) until `done` holds, up to `ms`; returns the last state. */
+export async function waitForMailState(id: string, cookie: string, done: (s: { status: string; attempts: number }) => boolean, ms = 30_000, base = baseUrl) {
+  const deadline = Date.now() + ms;
+  let last: any = null;
+  while (Date.now() < deadline) {
+    const res = await apiAt(base, `/api/mail/${id}`, { cookie });
+    if (res.status !== 200) throw new Error(`GET /api/mail/${id} answered ${res.status}`);
+    last = res.body;
+    if (done(last)) return last as { status: string; attempts: number; maxAttempts: number; lastError: string | null; label: string };
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`mail ${id} still ${last?.status} after ${ms} ms`);
+}
+
+export type ThumbnailStateBody = { id: string; status: string; attempts: number; maxAttempts: number; lastError: string | null; label: string; canMakeAgain: boolean };
+
+/**
+ * A photo's thumbnail and report-size image are made by a job after the upload answers. Polls
+ * GET /api/attachments/<id>/derivatives until `done` holds (by default: ready or failed), up to `ms`.
+ */
+export async function waitForThumbnail(id: string, cookie: string, done: (s: ThumbnailStateBody) => boolean = (s) => s.status === 'ready' || s.status === 'failed', ms = 60_000): Promise<ThumbnailStateBody> {
+  const deadline = Date.now() + ms;
+  let last: ThumbnailStateBody | null = null;
+  while (Date.now() < deadline) {
+    const res = await api(`/api/attachments/${id}/derivatives`, { cookie });
+    if (res.status !== 200) throw new Error(`GET /api/attachments/${id}/derivatives answered ${res.status}`);
+    last = res.body as ThumbnailStateBody;
+    if (done(last)) return last;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`attachment ${id} thumbnail still ${last?.status} after ${ms} ms`);
+}

@@ -133,6 +133,17 @@ describe('the OpenAPI description matches what the routes accept', () => {
     });
   });
 
+  it('POST /api/webhooks', async () => {
+    // The .test name never resolves (RFC 2606): nothing is ever delivered there.
+    const url = `https://hooks-${unique()}.contract.example.test/in`;
+    try {
+      await expectContract({ path: '/api/webhooks', url: '/api/webhooks', method: 'post', okStatus: 201, valid: () => ({ url, events: ['report.sent'] }) });
+    } finally {
+      // The demo company's endpoint stops at once, so other tests' sends record nothing for it.
+      await db.updateTable('webhook_endpoints').set({ is_active: false }).where('url', '=', url).execute();
+    }
+  });
+
   it('POST /api/evaluations: a demo plan is valid by the described plan schema and evaluated; a broken one is refused', async () => {
     await expectContract({ path: '/api/evaluations', url: '/api/evaluations', method: 'post', okStatus: 200, valid: () => ({ jurisdiction: 'demo-county', plan: hallClosetPassPlan }) });
     // Inside the plan: the described enum of a field is what the route takes.

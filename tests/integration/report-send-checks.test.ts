@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, newInstallerCompany, postJson, signIn } from './helpers';
+import { api, appDb, newInstallerCompany, postJson, signIn, waitForMail, type InboxMessage } from './helpers';
 
 /*
  * What a send asks before it goes: a check with failing findings is confirmed first (409 with
@@ -10,9 +10,6 @@ import { api, appDb, newInstallerCompany, postJson, signIn } from './helpers';
  */
 
 const db = appDb();
-const inbox = process.env.NOOKPASS_INBOX_URL ?? 'http://127.0.0.1:54326';
-
-type InboxMessage = { to: string; replyTo: string; subject: string };
 
 async function newCheck(cookie: string, plan: object): Promise<{ checkId: string; summary: { fail: number } }> {
   const p = await api('/api/projects', postJson({ name: `Send checks ${randomBytes(3).toString('hex')} (test)`, siteAddress: '9 Reply Lane', jurisdiction: 'demo-county' }, { cookie }));
@@ -28,9 +25,9 @@ async function reportCount(checkId: string): Promise<number> {
   return Number(r.n);
 }
 
+/** The report e-mail leaves through the outbox, a moment after the send answers. */
 async function messageWithSubject(part: string): Promise<InboxMessage | undefined> {
-  const messages = (await (await fetch(`${inbox}/api/messages`)).json()) as InboxMessage[];
-  return messages.find((m) => m.subject.includes(part));
+  return (await waitForMail((m) => m.subject.includes(part)))[0];
 }
 
 beforeAll(async () => {

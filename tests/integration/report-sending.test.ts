@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { SharedLimiter } from '@/lib/platform/rate-limit';
 import { REPORT_SEND_LIMIT } from '@/lib/services/reports/limits';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
-import { api, appDatabaseUrl, appDb, newInstallerCompany, postJson, signIn, testPool } from './helpers';
+import { api, appDatabaseUrl, appDb, newInstallerCompany, postJson, signIn, testPool, waitForMail } from './helpers';
 
 /*
  * E-mailing reports: the inspector address and addresses the company used before go straight out, any
@@ -62,6 +62,8 @@ describe('sending a report by e-mail', () => {
     const confirmed = await send({ to: stranger, confirm: true });
     expect(confirmed.status, JSON.stringify(confirmed.body)).toBe(201);
     expect(confirmed.body).toMatchObject({ sent: true, to: stranger, toInspector: false });
+    // The e-mail leaves through the outbox a moment later, once.
+    await waitForMail((m) => m.to.toLowerCase().includes(stranger.toLowerCase()));
     expect(await mailsTo(stranger)).toBe(1);
     const again = await send({ to: stranger.toUpperCase() });
     expect(again.status, JSON.stringify(again.body)).toBe(201);

@@ -1,11 +1,11 @@
-import { createHash, randomBytes } from 'node:crypto';
+import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 import bcrypt from 'bcryptjs';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
-import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, testAddress } from './helpers';
+import { api, appDb, baseUrl, deactivateTestPeople, postJson, signIn, testAddress, waitForThumbnail } from './helpers';
 
 /*
  * Who may do what, for every route handler and every page, from the file system: a route file,
@@ -37,18 +37,25 @@ type Ids = {
   checkId: string;
   attachmentId: string;
   attachmentToDeleteId: string;
+  failedDerivativesAttachmentId: string;
   reportId: string;
   reportCode: string;
+  mailId: string;
   tokenId: string;
   slug: string;
   publishedId: string;
   draftId: string;
+  dryRunId: string;
+  impactRunId: string;
   ruleKey: string;
   applianceId: string;
   applianceToDeleteId: string;
   invitationId: string;
   invitationToken: string;
   memberId: string;
+  webhookId: string;
+  webhookToDeleteId: string;
+  webhookDeliveryId: string;
 };
 
 type Send =
@@ -69,6 +76,8 @@ const uniqueTag = () => randomBytes(5).toString('hex');
 const UNISSUED_TOKEN = 'A'.repeat(43);
 
 const NIL_UUID = '00000000-0000-4000-8000-000000000000';
+// The .test top-level name never resolves (RFC 2606), so deliveries to it fail at once and reach nobody.
+const MATRIX_HOOK_URL = 'https://hooks.matrix.example.test/nookpass';
 
 async function smallPng(shade: string): Promise<Buffer> {
   return sharp({ create: { width: 24, height: 16, channels: 3, background: shade } }).png().toBuffer();
@@ -141,6 +150,9 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/attachments/[id]':                   { path: (i) => `/api/attachments/${i.attachmentId}`, expect: a(401, 200, 404, 200, 404, 200) },
   'PATCH /api/attachments/[id]':                 { path: (i) => `/api/attachments/${i.attachmentId}`, send: { json: () => ({ caption: 'Matrix caption' }) }, expect: a(401, 200, 404, 403, 403, 403) },
   'DELETE /api/attachments/[id]':                { path: (i) => `/api/attachments/${i.attachmentToDeleteId}`, expect: a(401, 200, 404, 403, 403, 403) },
+  'GET /api/attachments/[id]/derivatives':       { path: (i) => `/api/attachments/${i.attachmentId}/derivatives`, expect: a(401, 200, 404, 200, 404, 200) },
+  // The photo's images ended failed (set in the setup), so the company's installer may queue them again.
+  'POST /api/attachments/[id]/derivatives':      { path: (i) => `/api/attachments/${i.failedDerivativesAttachmentId}/derivatives`, expect: a(401, 202, 404, 403, 403, 403) },
   'GET /api/checks/[id]':                        { path: (i) => `/api/checks/${i.checkId}`, expect: a(401, 200, 404, 403, 403, 200) },
   'GET /api/checks/[id]/findings.csv':           { path: (i) => `/api/checks/${i.checkId}/findings.csv`, expect: a(401, 200, 404, 403, 403, 200) },
   'POST /api/checks/[id]/report':                { path: (i) => `/api/checks/${i.checkId}/report`, expect: a(401, 200, 404, 403, 403, 200) },
@@ -153,6 +165,9 @@ const apiMatrix: Record<string, ApiRow> = {
   // No outcome asks for corrections on the matrix report, so the owner's answer is a 409 (and changes nothing).
   'POST /api/reports/[code]/answers':            { path: (i) => `/api/reports/${i.reportCode}/answers`, send: { json: (i) => ({ checkId: i.checkId, note: 'Matrix answer.' }) }, expect: a(401, 409, 404, 403, 403, 403) },
   'GET /api/inspections':                        { path: () => '/api/inspections', expect: a(401, 403, 403, 200, 200, 200) },
+  // The report e-mail: seen by whoever can read the report; sent again only after its last attempt failed.
+  'GET /api/mail/[id]':                          { path: (i) => `/api/mail/${i.mailId}`, expect: a(401, 200, 404, 200, 404, 200) },
+  'POST /api/mail/[id]/send-again':              { path: (i) => `/api/mail/${i.mailId}/send-again`, expect: a(401, 409, 404, 409, 404, 409) },
   'GET /api/inspections/[reportId]':             { path: (i) => `/api/inspections/${i.reportId}`, expect: a(401, 403, 403, 200, 404, 200) },
   'POST /api/inspections/[reportId]/review':     { path: (i) => `/api/inspections/${i.reportId}/review`, send: { json: () => ({ outcome: 'approved', comment: 'Matrix review.' }) }, expect: a(401, 403, 403, 201, 404, 403) },
   'GET /api/jurisdictions':                      { path: () => '/api/jurisdictions', expect: a(401, 200, 200, 200, 200, 200) },
@@ -161,6 +176,8 @@ const apiMatrix: Record<string, ApiRow> = {
   'PATCH /api/jurisdictions/[slug]':             { path: (i) => `/api/jurisdictions/${i.slug}`, send: { json: () => ({ amendmentNotes: 'Edited by the authorization matrix.' }) }, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/audit':         { path: (i) => `/api/jurisdictions/${i.slug}/audit`, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/impact':        { path: (i) => `/api/jurisdictions/${i.slug}/impact`, expect: a(401, 403, 403, 403, 403, 200) },
+  'POST /api/jurisdictions/[slug]/impact-runs':  { path: (i) => `/api/jurisdictions/${i.slug}/impact-runs`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 202) },
+  'GET /api/jurisdictions/[slug]/impact-runs/[runId]': { path: (i) => `/api/jurisdictions/${i.slug}/impact-runs/${i.impactRunId}`, expect: a(401, 403, 403, 403, 403, 200) },
   'GET /api/jurisdictions/[slug]/published/[version]': { path: (i) => `/api/jurisdictions/${i.slug}/published/1`, expect: a(401, 200, 200, 200, 200, 200) },
   'GET /api/jurisdictions/[slug]/rule-sets':     { path: (i) => `/api/jurisdictions/${i.slug}/rule-sets`, expect: a(401, 403, 403, 403, 403, 200) },
   // A jurisdiction has at most one open draft; the admin passes the role check and meets that rule.
@@ -174,6 +191,8 @@ const apiMatrix: Record<string, ApiRow> = {
   'GET /api/rule-sets/[id]/citations':          { path: (i) => `/api/rule-sets/${i.draftId}/citations`, expect: a(401, 403, 403, 403, 403, 200) },
   'POST /api/rule-sets/[id]/citations':         { path: (i) => `/api/rule-sets/${i.draftId}/citations`, send: { json: () => ({ ruleKey: 'exhaust.developed-length', checked: true, against: 'IRC 2018 as adopted (matrix test)' }) }, expect: a(401, 403, 403, 403, 403, 201) },
   'POST /api/rule-sets/[id]/dry-run':            { path: (i) => `/api/rule-sets/${i.draftId}/dry-run`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 200) },
+  'POST /api/rule-sets/[id]/dry-runs':           { path: (i) => `/api/rule-sets/${i.draftId}/dry-runs`, send: { json: () => ({}) }, expect: a(401, 403, 403, 403, 403, 202) },
+  'GET /api/rule-sets/[id]/dry-runs/[runId]':    { path: (i) => `/api/rule-sets/${i.draftId}/dry-runs/${i.dryRunId}`, expect: a(401, 403, 403, 403, 403, 200) },
   // The three rows below would end the draft, so the admin sends a stale revision on purpose:
   // past the role check, the revision check refuses (409) and the draft stays for the pages.
   'POST /api/rule-sets/[id]/publish':            { path: (i) => `/api/rule-sets/${i.draftId}/publish`, send: { json: () => ({ revision: 9999, changelog: 'Never published.' }) }, expect: a(401, 403, 403, 403, 403, 409) },
@@ -204,6 +223,15 @@ const apiMatrix: Record<string, ApiRow> = {
   // An installer reads their own company; only its owner changes it (the matrix owner owns Demo Closet Works).
   'GET /api/organization':                       { path: () => '/api/organization', expect: a(401, 200, 200, 403, 403, 403) },
   'PATCH /api/organization':                     { path: () => '/api/organization', send: { json: () => ({ name: 'Demo Closet Works', licenseNumber: 'DEMO-HIC-000123' }) }, expect: a(401, 200, 403, 403, 403, 403) },
+  // Webhooks follow the company settings: its installers read, its owners change; another company's endpoint is 404.
+  'GET /api/webhooks':                           { path: () => '/api/webhooks', expect: a(401, 200, 200, 403, 403, 403) },
+  'POST /api/webhooks':                          { path: () => '/api/webhooks', send: { json: () => ({ url: MATRIX_HOOK_URL, events: ['report.sent'] }) }, expect: a(401, 201, 403, 403, 403, 403) },
+  'PATCH /api/webhooks/[id]':                    { path: (i) => `/api/webhooks/${i.webhookId}`, send: { json: () => ({ events: ['report.sent', 'inspection.outcome_recorded'] }) }, expect: a(401, 200, 403, 403, 403, 403) },
+  'DELETE /api/webhooks/[id]':                   { path: (i) => `/api/webhooks/${i.webhookToDeleteId}`, expect: a(401, 200, 403, 403, 403, 403) },
+  'POST /api/webhooks/[id]/rotate-secret':       { path: (i) => `/api/webhooks/${i.webhookId}/rotate-secret`, expect: a(401, 200, 403, 403, 403, 403) },
+  'GET /api/webhooks/[id]/deliveries':           { path: (i) => `/api/webhooks/${i.webhookId}/deliveries`, expect: a(401, 200, 404, 403, 403, 403) },
+  // The matrix delivery was delivered already: past the checks, the owner meets a 409 and nothing is sent.
+  'POST /api/webhook-deliveries/[id]/send-again': { path: (i) => `/api/webhook-deliveries/${i.webhookDeliveryId}/send-again`, expect: a(401, 409, 403, 403, 403, 403) },
 };
 
 // DELETE carries the revision in the query; it is filled in just before the call.
@@ -411,8 +439,13 @@ beforeAll(async () => {
   ids.attachmentId = await uploadPhoto(owner, '#336699');
   const sent = await must(await api(`/api/checks/${ids.checkId}/send`, postJson({ confirmFailingFindings: true }, { cookie: owner })), 201, 'send');
   ids.reportCode = sent.report.code;
+  ids.mailId = sent.mail.id;
   ids.reportId = (await db.selectFrom('reports').select('id').where('code', '=', ids.reportCode).executeTakeFirstOrThrow()).id;
   ids.attachmentToDeleteId = await uploadPhoto(owner, '#993366');
+  ids.failedDerivativesAttachmentId = await uploadPhoto(owner, '#669933');
+  // Once its job is done, the photo's images are recorded as failed, as after a last attempt.
+  await waitForThumbnail(ids.failedDerivativesAttachmentId, owner);
+  await db.updateTable('attachments').set({ derivatives_status: 'failed', derivatives_error: 'matrix: held as failed' }).where('id', '=', ids.failedDerivativesAttachmentId).execute();
   ids.applianceId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance')).id;
   ids.applianceToDeleteId = (await must(await api('/api/appliances', postJson(matrixWasher(), { cookie: owner })), 201, 'appliance to delete')).id;
   ids.tokenId = (await must(await api('/api/tokens', postJson({ name: 'matrix: to be revoked' }, { cookie: owner })), 201, 'token')).id;
@@ -423,6 +456,8 @@ beforeAll(async () => {
   const set = await must(await api(`/api/rule-sets/${ids.draftId}`, { cookie: admin }), 200, 'draft read');
   draftRule = set.rules.find((r: { key: string }) => r.key === 'exhaust.developed-length');
   ids.ruleKey = 'local.matrix-copy';
+  ids.dryRunId = (await must(await api(`/api/rule-sets/${ids.draftId}/dry-runs`, postJson({}, { cookie: admin })), 202, 'dry run')).id;
+  ids.impactRunId = (await must(await api(`/api/jurisdictions/${ids.slug}/impact-runs`, postJson({}, { cookie: admin })), 202, 'impact run')).id;
 
   ids.invitationId = (await must(await api('/api/invitations', postJson({ email: `matrix-revokable-${randomBytes(4).toString('hex')}@example.test`, role: 'installer' }, { cookie: owner })), 201, 'invitation')).id;
   // An invitation with a token of our own making, stored as the app stores them (SHA-256 hex), for the accept row.
@@ -435,10 +470,20 @@ beforeAll(async () => {
     email: `matrix-member-${randomBytes(4).toString('hex')}@example.test`, name: 'Matrix Member', role: 'installer', organization_id: firstCompany.id,
     password_hash: await bcrypt.hash('matrix-member-pw', 4),
   }).returning('id').executeTakeFirstOrThrow()).id;
+
+  ids.webhookId = (await must(await api('/api/webhooks', postJson({ url: MATRIX_HOOK_URL, events: ['report.sent'] }, { cookie: owner })), 201, 'webhook')).id;
+  ids.webhookToDeleteId = (await must(await api('/api/webhooks', postJson({ url: MATRIX_HOOK_URL, events: ['report.sent'] }, { cookie: owner })), 201, 'webhook to delete')).id;
+  // Nothing the matrix does should reach them; they stay only for their rows.
+  await db.updateTable('webhook_endpoints').set({ is_active: false }).where('id', 'in', [ids.webhookId, ids.webhookToDeleteId]).execute();
+  ids.webhookDeliveryId = (await db.insertInto('webhook_deliveries').values({
+    endpoint_id: ids.webhookId, event_id: randomUUID(), event_type: 'report.sent', payload: JSON.stringify({ matrix: true }), max_attempts: 1, status: 'delivered', attempts: 1, last_response_status: 204, delivered_at: new Date(),
+  }).returning('id').executeTakeFirstOrThrow()).id;
 }, 120_000);
 
 afterAll(async () => {
   await deactivateTestPeople(db, cityEmail, ...ownEmails);
+  // The endpoints the matrix added stop receiving (and stop counting against the company's limit).
+  await db.updateTable('webhook_endpoints').set({ is_active: false }).where('url', '=', MATRIX_HOOK_URL).execute();
   await db.destroy();
 });
 

@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import fc from 'fast-check';
@@ -302,9 +303,13 @@ describe('chunked bodies with no length on the routes that take files and forms'
   it('an attachment upload is refused once the file passes 15 MB, without holding more', { timeout: 120_000 }, async () => {
     const boundary = 'hostile-boundary-7f3a';
     const head = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="endless.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.7\n`;
+    const logBefore = appLog().length;
     const res = await chunkedUpload({ path: `/api/projects/${projectId}/attachments`, headers: { cookie: installer, 'content-type': `multipart/form-data; boundary=${boundary}` }, prefix: head, pauseAfterBytes: 16 * MiB });
     expect(res.status).toBe(413);
     expect(res.rssGrowthMiB!).toBeLessThan(64);
+    // The cut-off file part is put away quietly: nothing thrown out of the server process.
+    await new Promise((r) => setTimeout(r, 500));
+    expect(appLog().slice(logBefore)).not.toMatch(/uncaughtException|Unexpected end of file/);
   });
 
   it('the sign-in form is refused past 16 KiB before next-auth reads it', { timeout: 120_000 }, async () => {
@@ -313,6 +318,13 @@ describe('chunked bodies with no length on the routes that take files and forms'
     expect(res.rssGrowthMiB!).toBeLessThan(64);
   });
 });
+
+/** The served app's own log (scripts/test.sh writes it to NOOKPASS_APP_LOG). */
+function appLog(): string {
+  const file = process.env.NOOKPASS_APP_LOG;
+  if (!file) throw new Error('NOOKPASS_APP_LOG is not set: run the integration tests through npm test.');
+  return readFileSync(file, 'utf8');
+}
 
 /** Writes a JSON-looking body in 64 KiB chunks until the server answers, holding it open after 2 MiB (the limit is 512 KiB); returns the status and bytes sent. */
 function endlessUpload(method: string, path: string, cookie: string): Promise<{ status: number }> {

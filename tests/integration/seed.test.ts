@@ -45,6 +45,23 @@ describe('demo seed', () => {
       ['demo-county', 'IRC 2018', 'NEC 2017', 'IPC'],
     ]);
     expect(jur.every((j) => j.is_demo)).toBe(true);
+    expect(jur.map((j) => [j.slug, j.time_zone])).toEqual([
+      ['demo-city', 'America/Chicago'],
+      ['demo-county', 'America/Denver'],
+    ]);
+  });
+
+  it('gives demo jurisdictions seeded before zones were stored their zone, and leaves one an admin chose', async () => {
+    // As the migration left them: UTC for rows that existed before the column.
+    await scratch.db.updateTable('jurisdictions').set({ time_zone: 'UTC' }).where('slug', '=', 'demo-county').execute();
+    await scratch.db.updateTable('jurisdictions').set({ time_zone: 'America/Boise' }).where('slug', '=', 'demo-city').execute();
+    await seedDemo(scratch.db);
+    const jur = await scratch.db.selectFrom('jurisdictions').select(['slug', 'time_zone']).orderBy('slug').execute();
+    expect(jur.map((j) => [j.slug, j.time_zone])).toEqual([
+      ['demo-city', 'America/Boise'],
+      ['demo-county', 'America/Denver'],
+    ]);
+    await scratch.db.updateTable('jurisdictions').set({ time_zone: 'America/Chicago' }).where('slug', '=', 'demo-city').execute();
   });
 
   it('gives the demo company an invented appliance catalog marked demo, and the other company none', async () => {

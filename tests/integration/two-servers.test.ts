@@ -4,7 +4,10 @@ import { createServer } from 'node:net';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { hallClosetPassPlan } from '@/tests/fixtures/plans';
-import { api, apiAt, appDb, baseUrl, newInstallerCompany, postJson, signIn, signOut, until } from './helpers';
+import bcrypt from 'bcryptjs';
+import { sql } from 'kysely';
+import PgBoss from 'pg-boss';
+import { api, apiAt, appDatabaseUrl, appDb, baseUrl, inboxMessages, newInstallerCompany, postJson, signIn, signOut, testAddress, until } from './helpers';
 
 /*
  * NookPass as two app servers over one database and one file store: the served test app (A) and a second
@@ -132,5 +135,51 @@ describe('two app servers over one database', () => {
     expect(b.status).toBe(200);
     expect(b.body).toEqual(a.body);
     expect(baseUrl).not.toBe(serverB);
+  });
+
+  it('an e-mail queued by one server is delivered once with both servers working the queue, even when its job is queued twice', { timeout: 90_000 }, async () => {
+    // Both servers run the job workers (instrumentation.ts); B's own log says so.
+    await until('the second server’s workers', async () => (output.includes('job workers started') ? true : null), 30_000, 250);
+    const db = appDb();
+    const tag = randomBytes(4).toString('hex');
+    const org = await db.insertInto('organizations').values({ name: `IT two-server mail ${tag} (test)` }).returning('id').executeTakeFirstOrThrow();
+    const ownerEmail = `it-owner-${tag}@example.test`;
+    await db.insertInto('users').values({ email: ownerEmail, name: `Owner ${tag}`, role: 'installer', is_owner: true, organization_id: org.id, password_hash: await bcrypt.hash(`pw-${tag}`, 4) }).execute();
+    const cookie = await signIn(ownerEmail, `pw-${tag}`);
+
+    // Six invitations, three through each server; each answers at once with its e-mail queued.
+    const invitees = Array.from({ length: 6 }, (_, i) => `it-two-${tag}-${i}@example.test`);
+    const mailIds: string[] = [];
+    for (const [i, email] of invitees.entries()) {
+      const res = await apiAt(i % 2 ? serverB : baseUrl, '/api/invitations', postJson({ email, role: 'installer' }, { cookie, headers: { 'x-forwarded-for': testAddress() } }));
+      expect(res.status, JSON.stringify(res.body)).toBe(201);
+      expect(res.body.mail.status).toBe('queued');
+      mailIds.push(res.body.mail.id);
+    }
+    // A second job for every message, as a crash between commit and enqueue followed by the periodic pass would make.
+    const boss = new PgBoss({ connectionString: appDatabaseUrl(), schema: 'pgboss', supervise: false, schedule: false, migrate: false });
+    boss.on('error', () => undefined);
+    await boss.start();
+    try {
+      for (const outboxId of mailIds) expect(await boss.send('mail-deliver', { outboxId })).toBeTruthy();
+      // Every job, first and second, is finished by one of the servers.
+      await until(
+        'every delivery job finished',
+        async () => {
+          const open = await sql<{ n: number }>`SELECT count(*)::int AS n FROM pgboss.job WHERE name = 'mail-deliver' AND state < 'completed' AND data->>'outboxId' = ANY(${mailIds})`.execute(db);
+          return open.rows[0].n === 0 ? true : null;
+        },
+        60_000,
+        250,
+      );
+    } finally {
+      await boss.stop({ graceful: false, wait: true });
+    }
+    const inbox = await inboxMessages();
+    for (const email of invitees) expect(inbox.filter((m) => m.to.toLowerCase().includes(email)), email).toHaveLength(1);
+    const rows = await db.selectFrom('mail_outbox').select(['status', 'attempts']).where('id', 'in', mailIds).execute();
+    expect(rows).toHaveLength(6);
+    for (const r of rows) expect(r).toEqual({ status: 'sent', attempts: 1 });
+    await db.destroy();
   });
 });

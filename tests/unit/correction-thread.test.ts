@@ -28,22 +28,24 @@ const answer = (id: string, reviewId: string, minute: number): ThreadAnswer => (
 describe('the standing outcome of a thread', () => {
   it('is nothing before the first outcome, so the first one needs no revise', () => {
     expect(threadState([], [])).toEqual({ kind: 'awaiting-outcome', answerId: null });
-    expect(placeOutcome([], [], {})).toEqual({ revisesId: null, answerId: null });
-    expect(() => placeOutcome([], [], { revise: true })).toThrow(ConflictError);
+    expect(placeOutcome([], [], {}, 'UTC')).toEqual({ revisesId: null, answerId: null });
+    expect(() => placeOutcome([], [], { revise: true }, 'UTC')).toThrow(ConflictError);
   });
 
   it('refuses a second outcome without revise, naming the standing one', () => {
     const first = outcome('o1', 1);
-    expect(() => placeOutcome([first], [], {})).toThrow(/already recorded: Corrections needed \(recorded 2026-12-06 04:01 UTC by Demo Inspector\)/);
+    expect(() => placeOutcome([first], [], {}, 'UTC')).toThrow(/already recorded: Corrections needed \(recorded Dec 6, 2026, 4:01 AM UTC by Demo Inspector\)/);
+    // tz database: America/Denver is UTC-7 in December; the outcome is named on the jurisdiction's clock.
+    expect(() => placeOutcome([first], [], {}, 'America/Denver')).toThrow(/recorded Dec 5, 2026, 9:01 PM MST by Demo Inspector/);
   });
 
   it('revises the head of the chain, never an outcome already revised', () => {
     const first = outcome('o1', 1);
     const second = outcome('o2', 2, { revisesId: 'o1', outcome: 'approved' });
     expect(currentOutcome([first, second], [])?.id).toBe('o2');
-    expect(placeOutcome([first, second], [], { revise: true })).toEqual({ revisesId: 'o2', answerId: null });
-    expect(placeOutcome([first, second], [], { revises: 'o2' })).toEqual({ revisesId: 'o2', answerId: null });
-    expect(() => placeOutcome([first, second], [], { revises: 'o1' })).toThrow(/not the standing outcome/);
+    expect(placeOutcome([first, second], [], { revise: true }, 'UTC')).toEqual({ revisesId: 'o2', answerId: null });
+    expect(placeOutcome([first, second], [], { revises: 'o2' }, 'UTC')).toEqual({ revisesId: 'o2', answerId: null });
+    expect(() => placeOutcome([first, second], [], { revises: 'o1' }, 'UTC')).toThrow(/not the standing outcome/);
     expect(threadState([first, second], []).kind).toBe('approved');
   });
 
@@ -51,10 +53,10 @@ describe('the standing outcome of a thread', () => {
     const first = outcome('o1', 1);
     const a1 = answer('a1', 'o1', 5);
     expect(threadState([first], [a1])).toEqual({ kind: 'awaiting-outcome', answerId: 'a1' });
-    expect(placeOutcome([first], [a1], {})).toEqual({ revisesId: null, answerId: 'a1' });
+    expect(placeOutcome([first], [a1], {}, 'UTC')).toEqual({ revisesId: null, answerId: 'a1' });
     const onAnswer = outcome('o3', 6, { answerId: 'a1' });
     expect(threadState([first, onAnswer], [a1])).toMatchObject({ kind: 'awaiting-corrections', current: { id: 'o3' } });
-    expect(() => placeOutcome([first, onAnswer], [a1], {})).toThrow(ConflictError);
+    expect(() => placeOutcome([first, onAnswer], [a1], {}, 'UTC')).toThrow(ConflictError);
   });
 });
 

@@ -76,6 +76,14 @@ describe('OpenAPI description', () => {
     expect(query.map((p) => p.name).sort()).toEqual(['archived', 'dir', 'q', 'sort']);
   });
 
+  it('describes the jurisdictions list with each one’s time zone', () => {
+    const ok = document.paths?.['/api/jurisdictions']?.get?.responses?.['200'] as { content: Record<string, { schema: { type?: string; items?: { $ref?: string } } }> };
+    expect(ok.content['application/json'].schema).toMatchObject({ type: 'array', items: { $ref: '#/components/schemas/JurisdictionListItem' } });
+    const item = document.components?.schemas?.JurisdictionListItem as { required?: string[]; properties?: Record<string, { type?: string }> };
+    expect(item.required).toEqual(expect.arrayContaining(['slug', 'timeZone', 'publishedVersion']));
+    expect(item.properties?.timeZone).toMatchObject({ type: 'string' });
+  });
+
   it('maps route files to URL paths', () => {
     expect(apiPathOf('projects/[id]/plans/[number]/route.ts')).toBe('/api/projects/{id}/plans/{number}');
     expect(apiPathOf('auth/[...nextauth]/route.ts')).toBe('/api/auth/{nextauth}');

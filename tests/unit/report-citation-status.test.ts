@@ -8,13 +8,14 @@ import { parsePlan } from '@/lib/domain/plan';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 import { checkedOnFor, citationStatusText, markHolds, uncheckedMemoryCitations } from '@/lib/domain/rule-sets/citation-checks';
 import { citationText } from '@/lib/domain/vocabulary';
+import { formatDate } from '@/lib/domain/dates/format';
 import { renderReportPdf } from '@/lib/platform/pdf/render';
 import { buildRuleSet } from '@/rules';
 import { longExhaustFailPlan } from '@/tests/fixtures/plans';
 
 const editions = { building: 'IRC 2018', electrical: 'NEC 2017', plumbing: 'IPC 2018', plumbingFamily: 'IPC' as const, mechanical: 'IMC 2018', fuelGas: 'IFGC 2018' };
 const built = buildRuleSet(editions);
-const CHECKED = 'checked against the adopted code by the jurisdiction on 2026-11-20';
+const CHECKED = 'checked against the adopted code by the jurisdiction on Nov 20, 2026, UTC';
 const NOT_CHECKED = 'not yet checked by the jurisdiction';
 
 // The demo route's developed length is cited to IRC 2018 M1502.4.5.1 (TRADE.md, dryer exhaust, V).
@@ -23,9 +24,12 @@ const checks = { 'exhaust.developed-length': { citation: 'IRC 2018 M1502.4.5.1',
 
 describe('a citation’s status in the inspector’s terms', () => {
   it('says checked with the date, or not yet checked; never the confidence letters', () => {
-    expect(citationStatusText(lengthRule.citation, '2026-11-20T15:04:00.000Z')).toBe(CHECKED);
-    expect(citationStatusText(lengthRule.citation, null)).toBe(NOT_CHECKED);
-    expect(citationStatusText({ code: 'common practice', edition: null, section: null }, null)).toBe('common practice, not a code section');
+    const utcDay = (at: Date | string) => formatDate(at, 'UTC');
+    expect(citationStatusText(lengthRule.citation, '2026-11-20T15:04:00.000Z', utcDay)).toBe(CHECKED);
+    // tz database `australasia`: Pacific/Auckland is UTC+13 in November, already the next day.
+    expect(citationStatusText(lengthRule.citation, '2026-11-20T15:04:00.000Z', (at) => formatDate(at, 'Pacific/Auckland'))).toMatch(/on Nov 21, 2026, GMT\+13$/);
+    expect(citationStatusText(lengthRule.citation, null, utcDay)).toBe(NOT_CHECKED);
+    expect(citationStatusText({ code: 'common practice', edition: null, section: null }, null, utcDay)).toBe('common practice, not a code section');
   });
 
   it('a mark holds only for the citation it checked: a re-cited rule is unchecked again', () => {
@@ -62,7 +66,7 @@ describe('reports never say "from memory"', () => {
       code: 'NP-TEST-2345', verifyUrl: 'http://127.0.0.1/verify/NP-TEST-2345', generatedAt: new Date('2026-12-02T10:00:00Z'),
       project: { name: 'Test closet', siteAddress: '1 Test Street', permitNumber: null, isDemo: true },
       organization: { name: 'Test Company', licenseNumber: null },
-      jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '' },
+      jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '', timeZone: 'UTC' },
       ruleSet: { version: 3, publishedAt: new Date('2026-11-21T00:00:00Z'), changelog: 'Test version' },
       planRevision: { number: 1, savedBy: 'Tester', savedAt: new Date('2026-12-01T09:00:00Z') },
       check: { id: 'c', createdAt: new Date('2026-12-01T09:05:00Z'), runBy: 'Tester', summary: evaluation.summary, outcome: 'fail' },

@@ -3,7 +3,6 @@ import { extractImages, getDocumentProxy } from 'unpdf';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { evaluate } from '@/lib/domain/engine';
 import { parsePlan, type PlanInput } from '@/lib/domain/plan';
-import { formatReportDateTime } from '@/lib/domain/reports/report-date';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 import { areaTitles } from '@/lib/domain/vocabulary';
 import { renderReportPdf } from '@/lib/platform/pdf/render';
@@ -39,7 +38,7 @@ async function reportFor(input: PlanInput, extra: Partial<ReportData> = {}): Pro
     generatedAt: new Date('2026-12-03T17:42:10Z'),
     project: { name: 'Layout test closet (invented)', siteAddress: '12 Test Lane', permitNumber: 'T-1', isDemo: true },
     organization: { name: 'Test Company', licenseNumber: null },
-    jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '' },
+    jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '', timeZone: 'America/Denver' },
     ruleSet: { version: 2, publishedAt: new Date('2026-11-01T08:00:00Z'), changelog: '' },
     planRevision: { number: 4, savedBy: 'Tester', savedAt: new Date('2026-12-01T09:00:00Z') },
     check: { id: 'c', createdAt: new Date('2026-12-01T09:05:00Z'), runBy: 'Tester', summary: evaluation.summary, outcome: 'fail' },
@@ -122,29 +121,41 @@ describe('report lengths read as the web writes them', () => {
 });
 
 describe('report dates', () => {
-  it('formats an instant one way, in UTC, and says so', () => {
-    // RFC 3339: +02:00 is two hours ahead of UTC, so 01:30+02:00 is 23:30 UTC the day before.
-    expect(formatReportDateTime('2026-12-02T01:30:00+02:00')).toBe('2026-12-01 23:30 UTC');
-    expect(formatReportDateTime(new Date('2026-12-01T09:05:59.999Z'))).toBe('2026-12-01 09:05 UTC');
-    expect(formatReportDateTime('not a date')).toBe('unknown date');
-  });
-
-  it('prints every date of the report in that one format: issue, check, revision, rule set, citation check, photos', async () => {
+  it('prints every date of the report on the jurisdiction’s clock with its abbreviation: issue, check, revision, rule set, citation check, photos', async () => {
     const png = await import('qrcode').then((q) => q.toBuffer('photo', { type: 'png' }));
     const data = await reportFor(hallClosetPassPlan, {
       citationChecks: { 'exhaust.developed-length': { citation: 'IRC 2021 M1502.4.6.1', checkedOn: '2026-11-20T15:04:00.000Z' } },
       photos: [{ caption: 'Rough-in, back wall', filename: 'p1.png', image: png, width: 100, height: 100, addedAt: new Date('2026-11-30T22:10:00Z') }],
       documents: [{ caption: 'Dryer instructions', filename: 'dryer.pdf', contentType: 'application/pdf', addedAt: new Date('2026-11-29T07:00:00Z') }],
     });
+    expect(data.jurisdiction.timeZone).toBe('America/Denver');
     const text = allText(await pagesOf((await renderReportPdf(data)).pdf));
-    for (const expected of ['2026-12-03 17:42 UTC', '2026-12-01 09:05 UTC', '2026-12-01 09:00 UTC', '2026-11-01 08:00 UTC', 'jurisdiction on 2026-11-20 15:04 UTC', '2026-11-30 22:10 UTC', '2026-11-29 07:00 UTC']) {
+    // tz database `northamerica`: America/Denver is UTC-7 (MST) after 2026-11-01 08:00 UTC, when daylight time ends.
+    for (const expected of [
+      'Dec 3, 2026, 10:42 AM MST (times in America/Denver)', // issued 17:42 UTC
+      'Dec 1, 2026, 2:05 AM MST', // check 09:05 UTC
+      'Dec 1, 2026, 2:00 AM MST', // revision 09:00 UTC
+      'Nov 1, 2026, 1:00 AM MST', // published 08:00 UTC, the first instant of standard time
+      'jurisdiction on Nov 20, 2026, MST', // citation checked 15:04 UTC
+      'Nov 30, 2026, 3:10 PM MST', // photo 22:10 UTC
+      'Nov 29, 2026, 12:00 AM MST', // document 07:00 UTC
+    ]) {
       expect(text).toContain(expected);
     }
-    // Any date in the text is in the one format: year-month-day, hours:minutes, UTC.
-    const dates = text.match(/\d{4}-\d{2}-\d{2}[^,.;)]{0,10}/g) ?? [];
+    // Any date in the text is in the one format and names the zone; nothing is left in UTC or ISO form.
+    const dates = text.match(/\b(?:Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec) \d{1,2}, \d{4}[^;)]{0,14}/g) ?? [];
     expect(dates.length).toBeGreaterThanOrEqual(7);
-    for (const d of dates) expect(d).toMatch(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC/);
-    expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}T\d{2}/);
+    for (const d of dates) expect(d).toMatch(/^\w{3} \d{1,2}, \d{4}, (?:\d{1,2}:\d{2} [AP]M )?MST/);
+    expect(text).not.toMatch(/\d{4}-\d{2}-\d{2}[ T]\d{2}:\d{2}/);
+    expect(text).not.toMatch(/\bUTC\b/);
+  });
+
+  it('prints a zone with a half-hour offset as such', async () => {
+    const data = await reportFor(hallClosetPassPlan);
+    data.jurisdiction.timeZone = 'America/St_Johns';
+    const text = allText(await pagesOf((await renderReportPdf(data)).pdf));
+    // tz database `northamerica`: America/St_Johns is UTC-3:30 in December; 17:42 UTC is 14:12 there.
+    expect(text).toContain('Dec 3, 2026, 2:12 PM GMT-3:30 (times in America/St_Johns)');
   });
 });
 

@@ -20,7 +20,7 @@ async function sampleData(): Promise<ReportData> {
     generatedAt: new Date('2026-12-02T10:00:00Z'),
     project: { name: 'Test closet <b>not bold</b>', siteAddress: '1 Test Street', permitNumber: null, isDemo: true },
     organization: { name: 'Test Company', licenseNumber: null },
-    jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '' },
+    jurisdiction: { name: 'Test County', region: 'Test State', editions, amendmentNotes: '', timeZone: 'UTC' },
     ruleSet: { version: 3, publishedAt: new Date('2026-11-01T00:00:00Z'), changelog: 'Test version' },
     planRevision: { number: 2, savedBy: 'Tester', savedAt: new Date('2026-12-01T09:00:00Z') },
     check: { id: 'c', createdAt: new Date('2026-12-01T09:05:00Z'), runBy: 'Tester', summary: evaluation.summary, outcome: 'fail' },

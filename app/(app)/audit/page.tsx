@@ -6,6 +6,7 @@ import { accountActionLabels, auditFilterSchema } from '@/lib/domain/accounts/pe
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
 import { readAudit } from '@/lib/services/accounts/account-audit';
+import { DEFAULT_TIME_ZONE, formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Audit' };
 
@@ -85,7 +86,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Search
           <tbody className="divide-y divide-rule">
             {result.rows.map((r) => (
               <tr key={r.id} data-action={r.action}>
-                <td className="whitespace-nowrap px-4 py-2 font-mono text-xs">{r.at.toISOString().slice(0, 19).replace('T', ' ')}</td>
+                <td className="whitespace-nowrap px-4 py-2 font-mono text-xs">{formatDateTime(r.at, DEFAULT_TIME_ZONE, { seconds: true })}</td>
                 <td className="px-4 py-2">{accountActionLabels[r.action] ?? r.action}</td>
                 <td className="px-4 py-2">{r.actorName ?? '—'}{r.actorEmail ? <span className="block font-mono text-xs text-ink-soft">{r.actorEmail}</span> : null}</td>
                 <td className="px-4 py-2 text-xs">{summary(r.details)}</td>

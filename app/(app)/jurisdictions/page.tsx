@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { getDb } from '@/db';
 import { listJurisdictionOverview } from '@/db/jurisdictions';
+import { timeZoneAbbreviation } from '@/lib/domain/dates/format';
 import { EmptyState } from '@/components/ui/empty-state';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';
@@ -12,6 +13,7 @@ export const metadata: Metadata = { title: 'Jurisdictions' };
 export default async function JurisdictionsPage() {
   await requirePageUser(pageRoles['/jurisdictions'], '/jurisdictions');
   const list = await listJurisdictionOverview(getDb());
+  const now = new Date();
   return (
     <>
       <PageHeader kicker="Administration" title="Jurisdictions">
@@ -42,7 +44,7 @@ export default async function JurisdictionsPage() {
                   <td className="px-4 py-3">
                     <Link href={`/jurisdictions/${j.slug}`} className="font-semibold underline-offset-2 hover:underline">{j.name}</Link>
                     {j.isDemo && <span className="ml-1 rounded bg-brass-soft px-1.5 text-xs">demo</span>}
-                    <div className="text-xs text-ink-faint">{j.region} · <code className="font-mono">{j.slug}</code></div>
+                    <div className="text-xs text-ink-faint">{j.region} · <code className="font-mono">{j.slug}</code> · {j.timeZone} ({timeZoneAbbreviation(now, j.timeZone)})</div>
                   </td>
                   <td className="px-4 py-3">{j.editions.building}</td>
                   <td className="px-4 py-3">{j.editions.electrical}</td>

@@ -2,7 +2,7 @@ import { getDb } from '@/db';
 import { listJurisdictions } from '@/db/jurisdictions';
 import { createJurisdictionWithDraft } from '@/lib/services/rule-sets/rule-admin';
 import { publishedVersionsByJurisdiction } from '@/db/rule-sets';
-import { jurisdictionCreateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
+import { jurisdictionCreateSchema, type JurisdictionListItem } from '@/lib/domain/rule-sets/jurisdiction-schema';
 import { publishErrors } from '@/lib/domain/rule-sets/publish-check';
 import { ValidationError } from '@/lib/domain/errors';
 import { assertUncheckedConfirmed } from '@/lib/services/rule-sets/citations';
@@ -14,13 +14,16 @@ export const GET = route(async (request) => {
   const db = getDb();
   const [list, published] = await Promise.all([listJurisdictions(db), publishedVersionsByJurisdiction(db)]);
   return json(
-    list.map((j) => ({
-      slug: j.slug,
-      name: j.name,
-      region: j.region,
-      editions: j.editions,
-      publishedVersion: published.get(j.id) ?? null,
-    })),
+    list.map(
+      (j): JurisdictionListItem => ({
+        slug: j.slug,
+        name: j.name,
+        region: j.region,
+        editions: j.editions,
+        timeZone: j.timeZone,
+        publishedVersion: published.get(j.id) ?? null,
+      }),
+    ),
   );
 });
 

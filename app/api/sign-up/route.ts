@@ -11,7 +11,7 @@ export const POST = route(async (request) => {
   const result = await signUpCompany(getDb(), input, { address: clientAddress(request) });
   const cookie = await signInAs(result.user, request);
   return signedInResponse(
-    { user: result.user, organization: { id: result.organizationId, name: input.company }, emailConfirmed: false, welcomeMailSent: result.welcomeMailSent },
+    { user: result.user, organization: { id: result.organizationId, name: input.company }, emailConfirmed: false, welcomeMail: result.welcomeMail },
     201,
     cookie,
   );

@@ -6,6 +6,7 @@ import { AcceptInvitationForm } from '@/components/people/accept-invitation-form
 import { Wordmark } from '@/components/ui/logo';
 import { invitationStateMessage, invitedRoleLabels } from '@/lib/domain/accounts/people';
 import { describeInvitation } from '@/lib/services/accounts/invitations';
+import { DEFAULT_TIME_ZONE, formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Invitation', referrer: 'no-referrer' };
 export const dynamic = 'force-dynamic';
@@ -24,7 +25,7 @@ export default async function InvitationPage({ params }: { params: Promise<{ tok
             <h1 className="text-2xl font-bold">Join {place}</h1>
             <p className="mt-1 text-sm text-ink-soft">
               {invitation.invitedByEmail ?? 'Someone'} invited you as {invitedRoleLabels[invitation.role].toLowerCase()}. The invitation
-              works until {invitation.expiresAt.toISOString().slice(0, 10)}.
+              works until {formatDateTime(invitation.expiresAt, DEFAULT_TIME_ZONE)}.
             </p>
             <div className="mt-6">
               <AcceptInvitationForm token={token} email={invitation.email} />

@@ -10,6 +10,7 @@ import { SafetyNotice } from '@/components/ui/safety-notice';
 import { TooManyRequestsError } from '@/lib/domain/errors';
 import { clientAddressOf } from '@/lib/platform/rate-limit';
 import { countReportLookup, REPORT_LOOKUP_LIMIT } from '@/lib/services/reports/limits';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Verify a report' };
 export const dynamic = 'force-dynamic';
@@ -66,8 +67,8 @@ export default async function VerifyPage({ params }: { params: Promise<{ code: s
             <div><dt className="text-ink-faint">Installer company</dt><dd data-testid="verify-company">{facts.companyName}</dd></div>
             <div><dt className="text-ink-faint">Contractor licence number</dt><dd data-testid="verify-license">{facts.licenseNumber ?? 'not given'}</dd></div>
             <div><dt className="text-ink-faint">Rule set version</dt><dd>{facts.ruleSetVersion}</dd></div>
-            <div><dt className="text-ink-faint">Check date</dt><dd>{facts.checkedAt.toUTCString()}</dd></div>
-            <div><dt className="text-ink-faint">Report issued</dt><dd>{facts.issuedAt.toUTCString()} · {facts.pageCount} pages</dd></div>
+            <div><dt className="text-ink-faint">Check date</dt><dd>{formatDateTime(facts.checkedAt, facts.timeZone)}</dd></div>
+            <div><dt className="text-ink-faint">Report issued</dt><dd>{formatDateTime(facts.issuedAt, facts.timeZone)} · {facts.pageCount} pages</dd></div>
             <div className="sm:col-span-2"><dt className="text-ink-faint">SHA-256 of the issued PDF</dt><dd className="break-all font-mono text-xs" data-testid="verify-hash">{facts.sha256}</dd></div>
           </dl>
           <div className="mt-4"><SummaryCounts summary={facts.summary} /></div>

@@ -83,6 +83,11 @@ export const accountActionLabels: Record<string, string> = {
   'user.deactivate': 'Deactivated',
   'user.reactivate': 'Reactivated',
   'user.jurisdiction-change': 'Jurisdiction changed',
+  'webhook.create': 'Webhook endpoint added',
+  'webhook.update': 'Webhook endpoint changed',
+  'webhook.rotate-secret': 'Webhook secret rotated',
+  'webhook.deactivate': 'Webhook endpoint deactivated',
+  'webhook.delete': 'Webhook endpoint removed',
 };
 
 const day = z.iso.date('Give a date as YYYY-MM-DD.');

@@ -15,6 +15,8 @@ export type ReportData = {
     region: string;
     editions: Editions;
     amendmentNotes: string;
+    /** IANA zone every date in the report is printed in (lib/domain/dates/format). */
+    timeZone: string;
   };
   ruleSet: { version: number; publishedAt: Date | null; changelog: string };
   planRevision: { number: number; savedBy: string | null; savedAt: Date };

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { ConflictError } from '@/lib/domain/errors';
 import type { ReviewOutcome } from '@/lib/domain/reports/review-schema';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 /**
  * The conversation on one sent report: the inspector's outcomes and the installer's answers, in order.
@@ -59,15 +60,15 @@ export function threadState(outcomes: ThreadOutcome[], answers: ThreadAnswer[]):
 /** How the request asks to revise: `revise: true`, or the id of the outcome it replaces. */
 export type ReviseRequest = { revise?: boolean; revises?: string };
 
-function describe(o: ThreadOutcome): string {
-  return `${OUTCOME_LABEL[o.outcome]} (recorded ${o.createdAt.toISOString().slice(0, 16).replace('T', ' ')} UTC${o.inspectorName ? ` by ${o.inspectorName}` : ''})`;
+function describe(o: ThreadOutcome, timeZone: string): string {
+  return `${OUTCOME_LABEL[o.outcome]} (recorded ${formatDateTime(o.createdAt, timeZone)}${o.inspectorName ? ` by ${o.inspectorName}` : ''})`;
 }
 
 /**
  * Where a new outcome goes: a first outcome on what is under review, or an explicit revision of the
  * standing one. Recording over a standing outcome without saying so is refused, naming that outcome.
  */
-export function placeOutcome(outcomes: ThreadOutcome[], answers: ThreadAnswer[], request: ReviseRequest): { revisesId: string | null; answerId: string | null } {
+export function placeOutcome(outcomes: ThreadOutcome[], answers: ThreadAnswer[], request: ReviseRequest, timeZone: string): { revisesId: string | null; answerId: string | null } {
   const current = currentOutcome(outcomes, answers);
   const answerId = latest(answers)?.id ?? null;
   const revising = request.revise === true || request.revises !== undefined;
@@ -76,10 +77,10 @@ export function placeOutcome(outcomes: ThreadOutcome[], answers: ThreadAnswer[],
     return { revisesId: null, answerId };
   }
   if (!revising) {
-    throw new ConflictError(`An outcome is already recorded: ${describe(current)}. To change it, revise that outcome (send revise: true or revises: "${current.id}").`);
+    throw new ConflictError(`An outcome is already recorded: ${describe(current, timeZone)}. To change it, revise that outcome (send revise: true or revises: "${current.id}").`);
   }
   if (request.revises !== undefined && request.revises !== current.id) {
-    throw new ConflictError(`Outcome ${request.revises} is not the standing outcome; the standing outcome is ${describe(current)}, id ${current.id}.`);
+    throw new ConflictError(`Outcome ${request.revises} is not the standing outcome; the standing outcome is ${describe(current, timeZone)}, id ${current.id}.`);
   }
   return { revisesId: current.id, answerId };
 }

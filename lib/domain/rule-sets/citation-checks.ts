@@ -66,11 +66,6 @@ export function uncheckedMemoryCitations(
     .map((r) => ({ ruleKey: r.key, title: r.title, citation: citationText(r.citation) }));
 }
 
-/** A date as the report prints it: unambiguous in every locale. */
-export function reportDate(at: Date | string): string {
-  return new Date(at).toISOString().slice(0, 10);
-}
-
 /**
  * A finding's citation status in the inspector's terms, for reports (PDF and web). The source
  * confidence letters are for admins; the inspector reads whether the jurisdiction checked the
@@ -79,11 +74,12 @@ export function reportDate(at: Date | string): string {
 export function citationStatusText(
   citation: Citation,
   checkedOn: Date | string | null,
-  formatDate: (at: Date | string) => string = reportDate,
+  /** The day in the jurisdiction's zone: `(at) => formatDate(at, timeZone)` from lib/domain/dates/format. */
+  formatDay: (at: Date | string) => string,
 ): string {
   if (citation.code === 'common practice') return 'common practice, not a code section';
   if (citation.code === "manufacturer's instructions") return "the appliance maker's installation instructions";
-  return checkedOn ? `checked against the adopted code by the jurisdiction on ${formatDate(checkedOn)}` : 'not yet checked by the jurisdiction';
+  return checkedOn ? `checked against the adopted code by the jurisdiction on ${formatDay(checkedOn)}` : 'not yet checked by the jurisdiction';
 }
 
 /** What an admin sends to mark one citation checked, or to withdraw the mark. */

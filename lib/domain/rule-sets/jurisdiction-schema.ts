@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { editionsSchema } from '@/lib/domain/editions';
 import { editionConsistencyErrors } from '@/lib/domain/edition-consistency';
+import { timeZoneSchema } from '@/lib/domain/dates/time-zone-schema';
 
 const optionalEmail = z.preprocess(
   (value) => (typeof value === 'string' && value.trim() === '' ? null : value),
@@ -19,6 +20,7 @@ const fields = {
   editions: consistentEditions,
   inspectorEmail: optionalEmail,
   amendmentNotes: z.string().max(4000, 'Keep the notes under 4000 characters.'),
+  timeZone: timeZoneSchema,
 };
 
 /** Creating a jurisdiction: its identity, adopted editions, and where its first draft comes from. */
@@ -30,6 +32,8 @@ export const jurisdictionCreateSchema = z
       .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Use lower-case letters, digits and single hyphens, e.g. north-county.')
       .max(60),
     ...fields,
+    // Left out, the jurisdiction starts on UTC; an admin sets its own zone here or later.
+    timeZone: timeZoneSchema.optional(),
     // 'baseline' = the model codes for the adopted editions; otherwise another jurisdiction's slug.
     startFrom: z.string().trim().min(1, 'Choose where the first draft comes from.'),
     // Set to publish the starting rules unchanged at once, with this changelog note.
@@ -43,3 +47,17 @@ export const jurisdictionUpdateSchema = z.object(fields).partial().strict();
 
 export type JurisdictionCreateInput = z.infer<typeof jurisdictionCreateSchema>;
 export type JurisdictionUpdateInput = z.infer<typeof jurisdictionUpdateSchema>;
+
+/** One entry of `GET /api/jurisdictions`, as the route builds it and the OpenAPI document describes it. */
+export const jurisdictionListItemSchema = z
+  .object({
+    slug: z.string(),
+    name: z.string(),
+    region: z.string(),
+    editions: z.object({ building: z.string(), electrical: z.string(), plumbing: z.string(), plumbingFamily: z.string(), mechanical: z.string(), fuelGas: z.string() }),
+    timeZone: z.string().describe('IANA time zone (e.g. America/Denver) in which the jurisdiction’s dates are shown.'),
+    publishedVersion: z.number().int().nullable(),
+  })
+  .meta({ id: 'JurisdictionListItem' });
+
+export type JurisdictionListItem = z.infer<typeof jurisdictionListItemSchema>;

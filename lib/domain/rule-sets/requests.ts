@@ -40,3 +40,11 @@ export const retireSchema = z
 export const revisionQuerySchema = z.object({
   revision: z.coerce.number({ error: 'Send the draft revision you loaded (?revision=<n>).' }).pipe(positiveIntSchema('The draft revision')),
 });
+
+/** Starts a dry run as a job; `revision`, when sent, is the draft revision the admin sees (409 if it moved on). */
+export const dryRunStartSchema = z.object({ revision: revision.optional() }).strict();
+
+/** Starts an impact run as a job; `version`, when sent, is the published version the admin expects (409 if another is published). */
+export const impactRunStartSchema = z
+  .object({ version: z.number({ error: 'Send the published version you expect.' }).pipe(positiveIntSchema('The version')).optional() })
+  .strict();

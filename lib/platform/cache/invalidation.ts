@@ -95,6 +95,16 @@ export function startListening(): Promise<void> {
   return s.connecting;
 }
 
+/**
+ * Drops every copy this server holds, at once. A service calls it after committing a change to what the caches
+ * copy (a revocation, a deactivation, a publication), so the next request to this server sees the change even
+ * before the database's announcement comes back over the listening connection; other servers hear the
+ * announcement as usual. Such changes are rare, so dropping everything costs a few reloads.
+ */
+export function forgetCachedCopies(): void {
+  broadcast('all');
+}
+
 export function isListening(): boolean {
   return state().listening;
 }

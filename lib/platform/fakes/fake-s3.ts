@@ -1,4 +1,4 @@
-// A local stand-in for an S3 bucket: path-style PUT/GET/HEAD/DELETE of objects on loopback, kept as
+// A local stand-in for an S3 bucket: path-style PUT/GET/HEAD/DELETE of objects and ListObjectsV2 on loopback, kept as
 // files. The app talks to it with the real AWS SDK, so a hosted bucket is only a change of endpoint.
 import { createHash } from 'node:crypto';
 import { promises as fs } from 'node:fs';
@@ -48,7 +48,10 @@ export async function startFakeS3(opts: FakeS3Options): Promise<{ close: () => P
           res.writeHead(ok ? 200 : 404).end();
           return;
         }
-        return xmlError(res, 405, 'MethodNotAllowed', 'Only object operations are supported');
+        if (req.method === 'GET' && url.searchParams.get('list-type') === '2') {
+          return listObjects(res, bucket, bucketDir, url.searchParams);
+        }
+        return xmlError(res, 405, 'MethodNotAllowed', 'Only object operations and ListObjectsV2 are supported');
       }
       const file = objectPath(opts.dir, bucket, key);
       if (!file) return xmlError(res, 400, 'InvalidObjectName', 'Object key not allowed');
@@ -104,6 +107,40 @@ export async function startFakeS3(opts: FakeS3Options): Promise<{ close: () => P
     server.listen(opts.port, host, () => resolve());
   });
   return { close: () => new Promise<void>((resolve) => server.close(() => resolve())) };
+}
+
+const xmlText = (t: string) => t.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+
+/** ListObjectsV2: keys in order, at most max-keys (1,000) a page, the next page after the continuation token. */
+async function listObjects(res: http.ServerResponse, bucket: string, bucketDir: string, q: URLSearchParams) {
+  const root = path.join(bucketDir, 'objects');
+  const keys: { key: string; size: number; modified: Date }[] = [];
+  async function walk(dir: string) {
+    for (const entry of await fs.readdir(dir, { withFileTypes: true }).catch(() => [])) {
+      const full = path.join(dir, entry.name);
+      if (entry.isDirectory()) await walk(full);
+      else if (!entry.name.endsWith('.meta.json') && !entry.name.endsWith('.tmp')) {
+        const st = await fs.stat(full);
+        keys.push({ key: path.relative(root, full).split(path.sep).join('/'), size: st.size, modified: st.mtime });
+      }
+    }
+  }
+  await walk(root);
+  const prefix = q.get('prefix') ?? '';
+  const after = q.get('continuation-token') ? Buffer.from(q.get('continuation-token')!, 'base64url').toString('utf8') : (q.get('start-after') ?? '');
+  const maxKeys = Math.min(1000, Number(q.get('max-keys') ?? 1000) || 1000);
+  const matching = keys.filter((k) => k.key.startsWith(prefix) && k.key > after).sort((a, b) => (a.key < b.key ? -1 : 1));
+  const page = matching.slice(0, maxKeys);
+  const truncated = matching.length > page.length;
+  res.writeHead(200, { 'content-type': 'application/xml' });
+  res.end(
+    `<?xml version="1.0" encoding="UTF-8"?><ListBucketResult xmlns="http://s3.amazonaws.com/doc/2006-03-01/">` +
+      `<Name>${xmlText(bucket)}</Name><Prefix>${xmlText(prefix)}</Prefix><KeyCount>${page.length}</KeyCount><MaxKeys>${maxKeys}</MaxKeys>` +
+      `<IsTruncated>${truncated}</IsTruncated>` +
+      page.map((k) => `<Contents><Key>${xmlText(k.key)}</Key><LastModified>${k.modified.toISOString()}</LastModified><Size>${k.size}</Size><StorageClass>STANDARD</StorageClass></Contents>`).join('') +
+      (truncated ? `<NextContinuationToken>${Buffer.from(page.at(-1)!.key).toString('base64url')}</NextContinuationToken>` : '') +
+      `</ListBucketResult>`,
+  );
 }
 
 function decodeAwsChunked(body: Buffer): Buffer {

@@ -18,10 +18,11 @@ import { reviewSchema } from '@/lib/domain/reports/review-schema';
 import { answerSchema } from '@/lib/domain/reports/thread';
 import { sendSchema } from '@/lib/domain/reports/send-schema';
 import { citationCheckSchema } from '@/lib/domain/rule-sets/citation-checks';
-import { jurisdictionCreateSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
-import { draftCreateSchema, draftSaveSchema, publishSchema, retireSchema, revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
+import { jurisdictionCreateSchema, jurisdictionListItemSchema, jurisdictionUpdateSchema } from '@/lib/domain/rule-sets/jurisdiction-schema';
+import { draftCreateSchema, draftSaveSchema, dryRunStartSchema, impactRunStartSchema, publishSchema, retireSchema, revisionQuerySchema, ruleSaveSchema } from '@/lib/domain/rule-sets/requests';
 import type { Role } from '@/lib/domain/roles';
 import { newTokenSchema } from '@/lib/platform/auth/api-token-form';
+import { webhookCreateSchema, webhookDeliveriesQuerySchema, webhookUpdateSchema } from '@/lib/domain/webhooks/schema';
 
 /**
  * Who may call an operation: anyone; any signed-in person or API token; only these roles; or only a signed-in
@@ -60,6 +61,7 @@ const inspectorsAndAdmins = ['inspector', 'admin'] as const;
 const ok200 = (description: string, schema?: z.ZodType) => ({ status: 200 as const, description, schema });
 const ok201 = (description: string, schema?: z.ZodType) => ({ status: 201 as const, description, schema });
 const noContent = (description: string) => ({ status: 204 as const, description });
+const accepted = (description: string) => ({ status: 202 as const, description });
 const csv = (description: string) => ({ status: 200 as const, description, contentType: 'text/csv' as const });
 
 // The plan as the routes take it, described once in the document's components.
@@ -89,9 +91,13 @@ export const apiRoutes: Record<string, RouteEntry> = {
     post: { summary: 'Import appliance models from CSV', access: installers, body: { raw: 'text/csv', description: 'The CSV file (header line first), up to 1 MiB.' }, ok: ok201('What was added and changed.') },
   },
   'attachments/[id]/route.ts': {
-    get: { summary: 'Download an attachment', access: 'signed-in', ok: { status: 200, description: 'The file.', contentType: 'application/octet-stream' } },
+    get: { summary: 'Download an attachment (`?variant=thumb` or `display` for a photo\'s thumbnail or report-size image)', access: 'signed-in', ok: { status: 200, description: 'The file.', contentType: 'application/octet-stream' }, conflict: 'The thumbnail or report-size image is not made yet.' },
     patch: { summary: "Change an attachment's caption", access: installers, body: json(attachmentUpdateSchema), ok: ok200('The caption as stored.'), conflict: 'The attachment was already sent with a report.' },
     delete: { summary: 'Delete an attachment', access: installers, ok: noContent('Deleted.'), conflict: 'The attachment was already sent with a report.' },
+  },
+  'attachments/[id]/derivatives/route.ts': {
+    get: { summary: "Where a photo's thumbnail and report-size image are (pending, making, retrying, ready, failed)", access: 'signed-in', ok: ok200('The state, attempts made and the last error.') },
+    post: { summary: "Make a photo's thumbnail and report-size image again after the last attempt failed", access: installers, ok: { status: 202, description: 'Queued again with a fresh set of attempts.' }, conflict: 'The images are made, or are still being made.' },
   },
   'auth/[...nextauth]/route.ts': { undocumented: 'Browser sign-in, handled by the authentication library; integrators use API tokens.' },
   'checks/[id]/route.ts': { get: { summary: 'One check with its findings', access: installersAndAdmins, ok: ok200('The check as stored.') } },
@@ -116,7 +122,7 @@ export const apiRoutes: Record<string, RouteEntry> = {
   'invitations/[id]/route.ts': { delete: { summary: 'Withdraw an invitation', access: installersAndAdmins, ok: ok200('The withdrawn invitation.') } },
   'invitations/[id]/accept/route.ts': { post: { summary: 'Accept an invitation (signs in)', access: 'public', body: json(acceptInvitationSchema), ok: ok201('The new account; a session cookie is set.'), conflict: 'The invitation expired or was used.' } },
   'jurisdictions/route.ts': {
-    get: { summary: 'Jurisdictions', access: 'signed-in', ok: ok200('Jurisdictions and their published versions.') },
+    get: { summary: 'Jurisdictions', access: 'signed-in', ok: ok200('Jurisdictions with their adopted editions, IANA time zone and published version.', z.array(jurisdictionListItemSchema)) },
     post: { summary: 'Add a jurisdiction', access: admins, body: json(jurisdictionCreateSchema), ok: ok201('The jurisdiction.'), conflict: 'The slug is taken.' },
   },
   'jurisdictions/[slug]/route.ts': {
@@ -125,10 +131,18 @@ export const apiRoutes: Record<string, RouteEntry> = {
   },
   'jurisdictions/[slug]/audit/route.ts': { get: { summary: "A jurisdiction's audit log", access: admins, ok: ok200('Audit entries.') } },
   'jurisdictions/[slug]/impact/route.ts': { get: { summary: 'Projects a draft would change', access: admins, ok: ok200('Impact.') } },
+  'jurisdictions/[slug]/impact-runs/route.ts': {
+    post: { summary: 'Start an impact run of the published version (a job)', access: admins, body: json(impactRunStartSchema), ok: accepted('The run, queued (or the one already working on this version, joined: true); poll its Location.'), conflict: 'Nothing is published, or another version is published than the one sent.' },
+  },
+  'jurisdictions/[slug]/impact-runs/[runId]/route.ts': { get: { summary: 'An impact run: state, projects done of total, result when done', access: admins, ok: ok200('The run.') } },
   'jurisdictions/[slug]/published/[version]/route.ts': { get: { summary: 'A published rule set (immutable)', access: 'signed-in', ok: ok200('The rule set.') } },
   'jurisdictions/[slug]/rule-sets/route.ts': {
     get: { summary: "A jurisdiction's rule set versions", access: admins, ok: ok200('Versions.') },
     post: { summary: 'Start a draft', access: admins, body: json(draftCreateSchema), ok: ok201('The draft.'), conflict: 'A draft already exists.' },
+  },
+  'mail/[id]/route.ts': { get: { summary: "One e-mail's delivery state (queued, sending, retrying, sent, failed)", access: 'signed-in', ok: ok200('The state, attempts made and the last error.') } },
+  'mail/[id]/send-again/route.ts': {
+    post: { summary: 'Queue an e-mail again after its last attempt failed', access: 'signed-in', ok: { status: 202, description: 'Queued again with a fresh set of attempts.' }, conflict: 'The e-mail was sent, or is still being tried.' },
   },
   'me/route.ts': { get: { summary: 'Who is calling', access: 'signed-in', ok: ok200('The person and role.') } },
   'organization/route.ts': {
@@ -184,6 +198,10 @@ export const apiRoutes: Record<string, RouteEntry> = {
   },
   'rule-sets/[id]/diff/route.ts': { get: { summary: 'Differences between two versions', access: admins, query: ruleSetDiffQuerySchema, ok: ok200('The difference.') } },
   'rule-sets/[id]/dry-run/route.ts': { post: { summary: "Run a draft over the jurisdiction's projects", access: admins, ok: ok200('Outcome changes.') } },
+  'rule-sets/[id]/dry-runs/route.ts': {
+    post: { summary: "Start a dry run of a draft over the jurisdiction's projects (a job)", access: admins, body: json(dryRunStartSchema), ok: accepted('The run, queued (or the one already working on this revision, joined: true); poll its Location.'), conflict: 'The draft is at another revision than the one sent.' },
+  },
+  'rule-sets/[id]/dry-runs/[runId]/route.ts': { get: { summary: 'A dry run: state, plans done of total, result when done', access: admins, ok: ok200('The run.') } },
   'rule-sets/[id]/publish/route.ts': { post: { summary: 'Publish a draft', access: admins, body: json(publishSchema), ok: ok200('The published version.'), conflict: 'Changed since read, or unchecked citations need confirm: true (needsConfirmation).' } },
   'rule-sets/[id]/retire/route.ts': { post: { summary: 'Retire a published version', access: admins, body: json(retireSchema), ok: ok200('Retired.'), conflict: 'A draft, already retired, or no successor.' } },
   'rule-sets/[id]/rules/route.ts': { post: { summary: 'Add a rule to a draft', access: admins, body: json(ruleSaveSchema), ok: ok201('The draft.'), conflict: 'Changed since read, or the key is taken.' } },
@@ -202,4 +220,18 @@ export const apiRoutes: Record<string, RouteEntry> = {
   'users/route.ts': { get: { summary: 'Everyone (administrators)', access: admins, ok: ok200('People.') } },
   'users/[id]/route.ts': { patch: { summary: "Change a person's role or access", access: installersAndAdmins, body: json(personUpdateSchema), ok: ok200('The person as stored.') } },
   'openapi.json/route.ts': { get: { summary: 'This description (OpenAPI 3.1)', access: 'public', ok: ok200('The OpenAPI document.') } },
+  // Webhooks: installers of the company read; owners change (others of the company get 403, other companies 404).
+  'webhooks/route.ts': {
+    get: { summary: "The company's webhook endpoints", access: installers, ok: ok200('Endpoints (never their secrets).') },
+    post: { summary: 'Add a webhook endpoint (owner; the secret is shown once)', access: installers, body: json(webhookCreateSchema), ok: ok201('The endpoint and its signing secret.'), conflict: 'The company has the most endpoints allowed.' },
+  },
+  'webhooks/[id]/route.ts': {
+    patch: { summary: 'Change a webhook endpoint (owner)', access: installers, body: json(webhookUpdateSchema), ok: ok200('The endpoint as stored.') },
+    delete: { summary: 'Remove a webhook endpoint, or deactivate it when it has deliveries (owner)', access: installers, ok: ok200('{ deleted, deactivated, endpoint }.') },
+  },
+  'webhooks/[id]/rotate-secret/route.ts': { post: { summary: "Replace a webhook endpoint's signing secret (owner; shown once)", access: installers, ok: ok200('The endpoint and its new secret.') } },
+  'webhooks/[id]/deliveries/route.ts': { get: { summary: "A webhook endpoint's latest deliveries", access: installers, query: webhookDeliveriesQuerySchema, ok: ok200('Deliveries with state, attempts and the last response status.') } },
+  'webhook-deliveries/[id]/send-again/route.ts': {
+    post: { summary: 'Queue a webhook delivery again after its last attempt failed (owner)', access: installers, ok: { status: 202, description: 'Queued again with a fresh set of attempts.' }, conflict: 'The delivery was delivered, is still being tried, or its endpoint is deactivated.' },
+  },
 };

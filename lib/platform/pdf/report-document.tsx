@@ -6,7 +6,7 @@ import type { Finding } from '@/lib/domain/engine';
 import { PdfDrawing } from '@/lib/platform/pdf/pdf-drawing';
 import { labelForPath } from '@/lib/domain/plan';
 import type { ReportData } from '@/lib/domain/reports/report-data';
-import { formatReportDateTime } from '@/lib/domain/reports/report-date';
+import { formatDate, formatDateTime } from '@/lib/domain/dates/format';
 import { formatLength, type UnitSystem } from '@/lib/domain/units';
 import { areaTitles as areaTitle, citationText, findingStatusLabels } from '@/lib/domain/vocabulary';
 import { amendmentCitationText, checkedOnFor, citationStatusText } from '@/lib/domain/rule-sets/citation-checks';
@@ -91,8 +91,6 @@ function Field({ label, value }: { label: string; value: string }) {
   );
 }
 
-// Every date in the report goes through formatReportDateTime, so a jurisdiction's time zone changes one function.
-const fmtDate = (d: Date | null, none = 'not recorded') => (d ? formatReportDateTime(d) : none);
 
 /** A length as the web's hinge table writes it: the plan's units, imperial plans with millimetres beside. */
 function lengthText(inches: number | null, units: UnitSystem): string {
@@ -218,6 +216,9 @@ function DrawingSections({ drawings, units }: { drawings: PlanDrawings; units: U
 }
 
 export function ReportDocument({ data, verifyQr }: { data: ReportData; verifyQr: Buffer }) {
+  // Every date in the report is on the jurisdiction's clock, with the zone's abbreviation.
+  const zone = data.jurisdiction.timeZone;
+  const fmtDate = (d: Date | null | undefined, none = 'not recorded') => (d ? formatDateTime(d, zone) : none);
   const order = Object.keys(areaTitle);
   const byArea = order
     .map((area) => ({ area, items: data.findings.filter((f) => f.area === area) }))
@@ -251,7 +252,7 @@ export function ReportDocument({ data, verifyQr }: { data: ReportData; verifyQr:
       <View style={{ width: '20%', paddingRight: 4 }}>
         <Text style={s.mono}>{citation(f.citation)}</Text>
         {amendmentCitationText(f) ? <Text style={s.faint}>Local amendment {amendmentCitationText(f)}</Text> : null}
-        <Text style={s.faint}>{citationStatusText(f.citation, checkedOnFor(f, data.citationChecks), formatReportDateTime)}</Text>
+        <Text style={s.faint}>{citationStatusText(f.citation, checkedOnFor(f, data.citationChecks), (at) => formatDate(at, zone))}</Text>
       </View>
       <Text style={{ width: '14%' }}>{f.display.measured ?? '—'}</Text>
       <Text style={{ width: '14%' }}>{f.display.limit ?? '—'}</Text>
@@ -285,7 +286,7 @@ export function ReportDocument({ data, verifyQr }: { data: ReportData; verifyQr:
           <Field label="Rule set" value={`Version ${data.ruleSet.version}, published ${fmtDate(data.ruleSet.publishedAt, 'not yet')}`} />
           <Field label="Plan revision" value={`${data.planRevision.number}, saved ${fmtDate(data.planRevision.savedAt)} by ${data.planRevision.savedBy ?? 'a former user'}`} />
           <Field label="Check" value={`${fmtDate(data.check.createdAt)}, run by ${data.check.runBy ?? 'a former user'}`} />
-          <Field label="Issued" value={fmtDate(data.generatedAt)} />
+          <Field label="Issued" value={`${fmtDate(data.generatedAt)} (times in ${zone})`} />
           <Field label="Installer company" value={data.organization.name} />
           <Field label="Contractor licence number" value={data.organization.licenseNumber ?? '________________________'} />
         </View>

@@ -1,5 +1,7 @@
 import 'server-only';
-import { sendMail } from '@/lib/platform/mail';
+import type { DB } from '@/db';
+import type { OutboxMail } from '@/lib/domain/mail/outbox';
+import { queueMail } from '@/lib/services/mail/outbox';
 import { publicBaseUrl } from '@/lib/services/reports/issue';
 
 export const CONFIRMATION_LIFETIME_SECONDS = 7 * 24 * 3600;
@@ -13,8 +15,13 @@ export function passwordResetUrl(token: string): string {
   return `${publicBaseUrl()}/reset-password/${token}`;
 }
 
-export async function sendWelcomeMail(to: { email: string; name: string }, company: string, token: string): Promise<void> {
-  await sendMail({
+type Recipient = { id: string; email: string; name: string };
+
+// Each queues its message in the caller's transaction; the caller hands it to dispatchMail after the commit.
+export async function queueWelcomeMail(db: DB, to: Recipient, company: string, token: string): Promise<OutboxMail> {
+  return queueMail(db, {
+    kind: 'welcome',
+    userId: to.id,
     to: to.email,
     subject: `Welcome to NookPass, ${company}`,
     text: [
@@ -30,8 +37,10 @@ export async function sendWelcomeMail(to: { email: string; name: string }, compa
   });
 }
 
-export async function sendConfirmationMail(to: { email: string; name: string }, token: string): Promise<void> {
-  await sendMail({
+export async function queueConfirmationMail(db: DB, to: Recipient, token: string): Promise<OutboxMail> {
+  return queueMail(db, {
+    kind: 'email-confirmation',
+    userId: to.id,
     to: to.email,
     subject: 'Confirm your e-mail address for NookPass',
     text: [
@@ -45,8 +54,10 @@ export async function sendConfirmationMail(to: { email: string; name: string }, 
   });
 }
 
-export async function sendPasswordResetMail(to: { email: string; name: string }, token: string): Promise<void> {
-  await sendMail({
+export async function queuePasswordResetMail(db: DB, to: Recipient, token: string): Promise<OutboxMail> {
+  return queueMail(db, {
+    kind: 'password-reset',
+    userId: to.id,
     to: to.email,
     subject: 'Reset your NookPass password',
     text: [

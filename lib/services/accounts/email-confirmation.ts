@@ -6,7 +6,9 @@ import { consumeEmailToken, expireOtherEmailTokens, findEmailToken, insertEmailT
 import { ConflictError, ForbiddenError, NotFoundError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
 import { hashOneTimeToken, looksLikeOneTimeToken, newOneTimeToken } from '@/lib/platform/auth/one-time-token';
-import { CONFIRMATION_LIFETIME_SECONDS, sendConfirmationMail } from '@/lib/services/accounts/account-mail';
+import { CONFIRMATION_LIFETIME_SECONDS, queueConfirmationMail } from '@/lib/services/accounts/account-mail';
+import { dispatchMail } from '@/lib/services/mail/outbox';
+import type { MailStatus } from '@/lib/domain/mail/outbox';
 import { countConfirmationRequest } from '@/lib/services/accounts/limits';
 
 export const UNCONFIRMED_SEND_MESSAGE =
@@ -44,19 +46,20 @@ export async function confirmEmail(db: DB, token: string): Promise<{ status: Tok
 }
 
 /** Sends a fresh confirmation link to the signed-in person (older links stop working). */
-export async function resendConfirmation(db: DB, user: AppUser, ctx: { address: string }): Promise<{ sentTo: string }> {
+export async function resendConfirmation(db: DB, user: AppUser, ctx: { address: string }): Promise<{ sentTo: string; mail: { id: string; status: MailStatus } }> {
   const account = await findAccountById(db, user.id);
   if (!account) throw new NotFoundError('Your account was not found.');
   if (account.emailConfirmedAt) throw new ConflictError('Your e-mail address is already confirmed.');
   // Counted only when a message would go out: an already confirmed address sends nothing.
   await countConfirmationRequest(account.user.email, ctx.address);
   const { token, hash } = newOneTimeToken();
-  await db.transaction().execute(async (trx) => {
+  const mail = await db.transaction().execute(async (trx) => {
     await expireOtherEmailTokens(trx, 'email_confirmations', user.id);
     await insertEmailToken(trx, 'email_confirmations', { userId: user.id, tokenHash: hash, lifetimeSeconds: CONFIRMATION_LIFETIME_SECONDS });
+    return queueConfirmationMail(trx, account.user, token);
   });
-  await sendConfirmationMail(account.user, token);
-  return { sentTo: account.user.email };
+  await dispatchMail([mail]);
+  return { sentTo: account.user.email, mail: { id: mail.id, status: mail.status } };
 }
 
 /** Reports reach inspectors only from a confirmed address; throws a 403 that says what to do otherwise. */

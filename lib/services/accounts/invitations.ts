@@ -13,6 +13,7 @@ import {
   type Invitation,
 } from '@/db/invitations';
 import { findJurisdictionBySlug } from '@/db/jurisdictions';
+import { listMailOfInvitations } from '@/db/mail-outbox';
 import { findOrganizationById } from '@/db/organizations';
 import { emailHasAccount, insertInvitedUser } from '@/db/people';
 import { findUserById } from '@/db/users';
@@ -25,12 +26,13 @@ import {
   type InvitationState,
 } from '@/lib/domain/accounts/people';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '@/lib/domain/errors';
+import { mailDeliveryProps, type MailDeliveryProps } from '@/lib/domain/mail/outbox';
 import type { AppUser } from '@/lib/domain/roles';
 import { passwordFieldError } from '@/lib/domain/accounts/password-policy';
 import { hashOneTimeToken, looksLikeOneTimeToken, newOneTimeToken } from '@/lib/platform/auth/one-time-token';
 import { hashAtCurrentCost } from '@/lib/platform/auth/password';
-import { sendMail } from '@/lib/platform/mail';
 import { countInvitation, countInvitationAcceptance } from '@/lib/services/accounts/invitation-limits';
+import { dispatchMail, queueMail } from '@/lib/services/mail/outbox';
 import { publicBaseUrl } from '@/lib/services/reports/issue';
 
 export const invitationUrl = (token: string) => `${publicBaseUrl()}/invitations/${token}`;
@@ -84,7 +86,7 @@ export async function sendInvitation(db: DB, actor: AppUser, input: InvitationIn
   await countInvitation(email, from.address);
 
   const { token, hash } = newOneTimeToken();
-  return db.transaction().execute(async (trx) => {
+  const { view, mail } = await db.transaction().execute(async (trx) => {
     const replaced = await revokePendingInvitationsTo(trx, email, organizationId);
     const created = await insertInvitation(trx, {
       email, role, organizationId, jurisdictionId, invitedBy: actor.id, tokenHash: hash, lifetimeDays: INVITATION_LIFETIME_DAYS,
@@ -97,8 +99,11 @@ export async function sendInvitation(db: DB, actor: AppUser, input: InvitationIn
       details: { email, role, ...(jurisdictionId ? { jurisdictionId } : {}), ...(replaced.length ? { replaced } : {}) },
       organizationId,
     });
-    // Sent inside the transaction: when the mail server refuses, no invitation is left that nobody received.
-    await sendMail({
+    // Queued with the invitation; a job delivers it, and its state shows beside the pending invitation.
+    const mail = await queueMail(trx, {
+      kind: 'invitation',
+      invitationId: created.id,
+      createdBy: actor.id,
       to: email,
       subject: `${actor.name} invites you to NookPass (${placeName})`,
       text: [
@@ -110,9 +115,15 @@ export async function sendInvitation(db: DB, actor: AppUser, input: InvitationIn
       ].join('\n'),
     });
     const invitation = await findInvitationById(trx, created.id);
-    return toView(invitation!);
+    return { view: toView(invitation!), mail };
   });
+  await dispatchMail([mail]);
+  return { ...view, mail: mailSummary(mail) };
 }
+
+/** What the people page shows of an invitation's e-mail. */
+export type InvitationMail = MailDeliveryProps;
+const mailSummary = mailDeliveryProps;
 
 export type InvitationView = {
   id: string;
@@ -124,6 +135,7 @@ export type InvitationView = {
   invitedByEmail: string | null;
   createdAt: Date;
   expiresAt: Date;
+  mail?: InvitationMail | null;
 };
 
 function toView(i: Invitation): InvitationView {
@@ -142,7 +154,12 @@ function toView(i: Invitation): InvitationView {
 
 /** Invitations not yet accepted or revoked, sent from where the actor manages people. */
 export async function listPendingInvitations(db: DB, actor: AppUser): Promise<InvitationView[]> {
-  return (await listOpenInvitations(db, scopeOf(actor))).map(toView);
+  const open = await listOpenInvitations(db, scopeOf(actor));
+  const mails = new Map((await listMailOfInvitations(db, open.map((i) => i.id))).map((m) => [m.invitationId, m]));
+  return open.map((i) => {
+    const mail = mails.get(i.id);
+    return { ...toView(i), mail: mail ? mailSummary(mail) : null };
+  });
 }
 
 /** Withdraws a pending invitation sent from the actor's company (owners) or by the administrators. */

@@ -8,11 +8,12 @@ import { passwordFieldError } from '@/lib/domain/accounts/password-policy';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
 import { hashPassword, verifyPassword } from '@/lib/platform/auth/password';
+import { forgetCachedCopies } from '@/lib/platform/cache/invalidation';
 import { hashOneTimeToken, looksLikeOneTimeToken, newOneTimeToken } from '@/lib/platform/auth/one-time-token';
-import { PASSWORD_RESET_LIFETIME_SECONDS, sendPasswordResetMail } from '@/lib/services/accounts/account-mail';
+import { PASSWORD_RESET_LIFETIME_SECONDS, queuePasswordResetMail } from '@/lib/services/accounts/account-mail';
+import { dispatchMail } from '@/lib/services/mail/outbox';
 import { countPasswordResetRequest } from '@/lib/services/accounts/limits';
 import type { TokenLinkState } from '@/lib/services/accounts/email-confirmation';
-import { log } from '@/lib/platform/log';
 
 /** The one answer to every reset request, whether or not the address has an account. */
 export const RESET_REQUESTED_BODY = {
@@ -26,8 +27,8 @@ export const RESET_LINK_MESSAGES: Record<Exclude<TokenLinkState, 'valid'>, strin
 };
 
 /**
- * Counts the request, then, only when the address has an active account, stores a token and hands back
- * the e-mail to send. The caller sends it after answering, so the answer and its timing are the same for
+ * Counts the request, then, only when the address has an active account, stores a token with its queued
+ * e-mail. The caller hands the e-mail to the job queue after answering, so the answer and its timing are the same for
  * known and unknown addresses (OWASP Forgot Password Cheat Sheet: consistent response, consistent time).
  */
 export async function requestPasswordReset(db: DB, email: string, ctx: { address: string }): Promise<{ deliver: (() => Promise<void>) | null }> {
@@ -35,7 +36,7 @@ export async function requestPasswordReset(db: DB, email: string, ctx: { address
   const account = await findAccountByEmail(db, email);
   if (!account || account.deactivatedAt) return { deliver: null };
   const { token, hash } = newOneTimeToken();
-  await db.transaction().execute(async (trx) => {
+  const mail = await db.transaction().execute(async (trx) => {
     await insertEmailToken(trx, 'password_resets', { userId: account.user.id, tokenHash: hash, lifetimeSeconds: PASSWORD_RESET_LIFETIME_SECONDS });
     await writeAudit(trx, {
       actorUserId: null,
@@ -45,16 +46,9 @@ export async function requestPasswordReset(db: DB, email: string, ctx: { address
       organizationId: account.user.organizationId,
       details: { address: ctx.address },
     });
+    return queuePasswordResetMail(trx, account.user, token);
   });
-  return {
-    deliver: async () => {
-      try {
-        await sendPasswordResetMail(account.user, token);
-      } catch (err) {
-        log.error({ err }, 'password reset e-mail not sent');
-      }
-    },
-  };
+  return { deliver: () => dispatchMail([mail]) };
 }
 
 export async function passwordResetLinkState(db: DB, token: string): Promise<TokenLinkState> {
@@ -85,7 +79,7 @@ export async function resetPassword(db: DB, token: string, input: PasswordResetI
   if (weak) throw new ValidationError([weak]);
   const passwordHash = await hashPassword(input.password);
 
-  return db.transaction().execute(async (trx) => {
+  const ended = await db.transaction().execute(async (trx) => {
     // Spent here, not above: of two requests racing with one link, only one gets past this line.
     const state = await consumeEmailToken(trx, 'password_resets', tokenHash);
     if (state.status !== 'valid') refuseLink(state.status);
@@ -104,6 +98,8 @@ export async function resetPassword(db: DB, token: string, input: PasswordResetI
     });
     return { sessionsEnded, tokensRevoked, user: account.user };
   });
+  forgetCachedCopies();
+  return ended;
 }
 
 /**
@@ -122,7 +118,7 @@ export async function changePassword(db: DB, caller: { user: AppUser; sessionId:
     throw new ValidationError([{ path: 'password', message: 'Choose a password different from your current one.' }]);
   }
   const passwordHash = await hashPassword(input.password);
-  return db.transaction().execute(async (trx) => {
+  const ended = await db.transaction().execute(async (trx) => {
     await setPassword(trx, user.id, passwordHash);
     const sessionsEnded = await revokeSessionsOf(trx, user.id, sessionId);
     const tokensRevoked = input.keepApiTokens ? 0 : await revokeApiTokensOf(trx, user.id);
@@ -136,4 +132,6 @@ export async function changePassword(db: DB, caller: { user: AppUser; sessionId:
     });
     return { sessionsEnded, tokensRevoked };
   });
+  forgetCachedCopies();
+  return ended;
 }

@@ -18,6 +18,7 @@ import {
 import type { PersonUpdate } from '@/lib/domain/accounts/people';
 import { ConflictError, ForbiddenError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
+import { forgetCachedCopies } from '@/lib/platform/cache/invalidation';
 
 /** The company the actor owns; anyone else is refused. */
 export function ownedCompany(actor: AppUser): string {
@@ -45,7 +46,7 @@ export async function listAllPeople(db: DB, actor: AppUser, filter: Omit<PeopleF
  */
 export async function updatePerson(db: DB, actor: AppUser, personId: string, change: PersonUpdate): Promise<Person> {
   const company = actor.role === 'admin' ? null : ownedCompany(actor);
-  return db.transaction().execute(async (trx) => {
+  const after = await db.transaction().execute(async (trx) => {
     const before = await findPerson(trx, personId);
     // Another company's people answer as if they did not exist.
     if (!before || (company !== null && before.organizationId !== company)) throw new NotFoundError('No such person in your company.');
@@ -106,4 +107,7 @@ export async function updatePerson(db: DB, actor: AppUser, personId: string, cha
     }
     return (await findPerson(trx, person.id))!;
   });
+  // A role, a jurisdiction or a deactivation changes what this person's sessions and tokens may do.
+  forgetCachedCopies();
+  return after;
 }

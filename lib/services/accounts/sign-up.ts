@@ -5,12 +5,13 @@ import { writeAudit } from '@/db/audit';
 import { insertEmailToken } from '@/db/email-tokens';
 import type { SignUpInput } from '@/lib/domain/accounts/forms';
 import { ValidationError, type FieldError } from '@/lib/domain/errors';
+import type { OutboxMail } from '@/lib/domain/mail/outbox';
 import type { AppUser } from '@/lib/domain/roles';
 import { hashPassword } from '@/lib/platform/auth/password';
 import { newOneTimeToken } from '@/lib/platform/auth/one-time-token';
-import { CONFIRMATION_LIFETIME_SECONDS, sendWelcomeMail } from '@/lib/services/accounts/account-mail';
+import { CONFIRMATION_LIFETIME_SECONDS, queueWelcomeMail } from '@/lib/services/accounts/account-mail';
+import { dispatchMail } from '@/lib/services/mail/outbox';
 import { countSignUp } from '@/lib/services/accounts/limits';
-import { log } from '@/lib/platform/log';
 
 const EMAIL_TAKEN = 'This e-mail address already has a NookPass account: sign in, or reset the password from the sign-in page.';
 const COMPANY_TAKEN = 'A company with this name is already on NookPass. If you work there, ask its owner to invite you; otherwise add what sets yours apart (a town, a trade).';
@@ -20,12 +21,12 @@ function isUniqueViolation(err: unknown, constraint: string): boolean {
   return e?.code === '23505' && e.constraint === constraint;
 }
 
-export type SignUpResult = { user: AppUser; organizationId: string; welcomeMailSent: boolean };
+export type SignUpResult = { user: AppUser; organizationId: string; welcomeMail: Pick<OutboxMail, 'id' | 'status'> };
 
 /**
  * A new installer company and its first person, its owner, in one transaction (with the confirmation
- * token and the audit row), then the welcome e-mail. A mail server that is down does not undo the sign-up:
- * the confirmation can be sent again from the app.
+ * token, the audit row and the queued welcome e-mail); a job delivers the e-mail, so a mail server that is
+ * down never holds up or undoes the sign-up.
  */
 export async function signUpCompany(db: DB, input: SignUpInput, ctx: { address: string }): Promise<SignUpResult> {
   await countSignUp(input.email, ctx.address);
@@ -37,8 +38,9 @@ export async function signUpCompany(db: DB, input: SignUpInput, ctx: { address: 
   const passwordHash = await hashPassword(input.password);
   const { token, hash } = newOneTimeToken();
   let created: { user: AppUser; organizationId: string };
+  let welcome: OutboxMail;
   try {
-    created = await db.transaction().execute(async (trx) => {
+    ({ welcome, ...created } = await db.transaction().execute(async (trx) => {
       const made = await insertCompanyWithOwner(trx, { company: input.company, name: input.name, email: input.email, passwordHash });
       await insertEmailToken(trx, 'email_confirmations', { userId: made.user.id, tokenHash: hash, lifetimeSeconds: CONFIRMATION_LIFETIME_SECONDS });
       await writeAudit(trx, {
@@ -49,8 +51,8 @@ export async function signUpCompany(db: DB, input: SignUpInput, ctx: { address: 
         organizationId: made.organizationId,
         details: { company: input.company, email: made.user.email, address: ctx.address },
       });
-      return made;
-    });
+      return { ...made, welcome: await queueWelcomeMail(trx, made.user, input.company, token) };
+    }));
   } catch (err) {
     // Two sign-ups racing for the same address or company name: the second is told as if it came later.
     if (isUniqueViolation(err, 'users_email_unique')) throw new ValidationError([{ path: 'email', message: EMAIL_TAKEN }]);
@@ -58,12 +60,6 @@ export async function signUpCompany(db: DB, input: SignUpInput, ctx: { address: 
     throw err;
   }
 
-  let welcomeMailSent = true;
-  try {
-    await sendWelcomeMail(created.user, input.company, token);
-  } catch (err) {
-    welcomeMailSent = false;
-    log.error({ err }, 'welcome e-mail not sent');
-  }
-  return { ...created, welcomeMailSent };
+  await dispatchMail([welcome]);
+  return { ...created, welcomeMail: { id: welcome.id, status: welcome.status } };
 }

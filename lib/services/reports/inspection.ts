@@ -28,6 +28,7 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   const project = snap
     ? { id: current.id, name: snap.project.name, siteAddress: snap.project.siteAddress, permitNumber: snap.project.permitNumber, organizationName: snap.company.name, licenseNumber: snap.company.licenseNumber, jurisdictionName: snap.jurisdiction.name, isDemo: snap.project.isDemo }
     : current;
+  // Dates are shown on the clock of the project's jurisdiction (its zone today; the PDF kept the one it was issued in).
   const included = new Set(report.attachmentIds);
   const attachments = (await listAttachments(db, projectId)).filter((a) => included.has(a.id)).map(({ storageKey: _s, thumbnailKey: _t, ...a }) => a);
   const reviews = await listReviewsOfReport(db, report.id);
@@ -36,6 +37,7 @@ export async function loadInspection(db: DB, user: AppUser, reportId: string) {
   return {
     report: { id: report.id, code: report.code, sha256: report.sha256, createdAt: report.createdAt, pageCount: report.pageCount, asIssued: !!snap },
     project,
+    timeZone: current.timeZone,
     // What the next outcome is about: after an answer, the answering check.
     check: { id: underReview.id, findings: underReview.findings, summary: underReview.summary, createdAt: underReview.createdAt },
     reportedCheck: { id: check.id, summary: check.summary, createdAt: check.createdAt },

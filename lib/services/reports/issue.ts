@@ -1,7 +1,7 @@
 import 'server-only';
 import { randomBytes } from 'node:crypto';
 import type { DB } from '@/db';
-import { displayKey, listAttachments } from '@/db/attachments';
+import { listAttachments } from '@/db/attachments';
 import { findCheck, type StoredCheck } from '@/db/checks';
 import { getProject, type Project } from '@/db/projects';
 import { insertReport, type IssuedReport } from '@/db/reports';
@@ -13,7 +13,8 @@ import { findPlanRevisionSummaryById } from '@/db/plan-revisions';
 import type { AppUser } from '@/lib/domain/roles';
 import { NotFoundError } from '@/lib/domain/errors';
 import { parseStoredPlan } from '@/lib/domain/plan';
-import { findObject, putObject } from '@/lib/platform/storage';
+import { putObject } from '@/lib/platform/storage';
+import { reportImageFor } from '@/lib/services/attachments/derivatives';
 import type { ReportData } from '@/lib/domain/reports/report-data';
 import { newReportCode } from '@/lib/domain/reports/code';
 import { buildReportSnapshot } from '@/lib/domain/reports/snapshot';
@@ -44,8 +45,8 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
   if (!parsed.ok) throw new NotFoundError('The plan stored with this check no longer parses.');
   const photos: ReportData['photos'] = [];
   for (const a of attachments.filter((x) => x.kind === 'photo')) {
-    const image = await findObject(displayKey(a.storageKey));
-    if (image) photos.push({ caption: a.caption, filename: a.filename, image, width: a.width ?? 4, height: a.height ?? 3, addedAt: a.createdAt });
+    const image = await reportImageFor(a);
+    photos.push({ caption: a.caption, filename: a.filename, image, width: a.width ?? 4, height: a.height ?? 3, addedAt: a.createdAt });
   }
   const data: ReportData = {
     code,
@@ -58,6 +59,7 @@ async function gather(db: DB, user: AppUser, check: StoredCheck, project: Projec
       region: jur.region,
       editions: jur.editions,
       amendmentNotes: jur.amendmentNotes,
+      timeZone: jur.timeZone,
     },
     ruleSet: { version: ruleSet.version, publishedAt: ruleSet.publishedAt, changelog: ruleSet.changelog },
     planRevision: { number: revision.number, savedBy: revision.createdBy.name, savedAt: revision.createdAt },

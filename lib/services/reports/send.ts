@@ -3,14 +3,16 @@ import type { DB } from '@/db';
 import { findCheck } from '@/db/checks';
 import { findJurisdictionById } from '@/db/jurisdictions';
 import { getProject } from '@/db/projects';
-import { companyHasSentTo, recordSend } from '@/db/reports';
+import { companyHasSentTo, insertSend } from '@/db/reports';
 import type { AppUser } from '@/lib/domain/roles';
-import { ConfirmationRequiredError, NotFoundError, ServiceUnavailableError, ValidationError } from '@/lib/domain/errors';
-import { sendMail } from '@/lib/platform/mail';
+import { ConfirmationRequiredError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
 import { countReportSend } from '@/lib/services/reports/limits';
+import { dispatchMail, queueMail } from '@/lib/services/mail/outbox';
 import { assertMaySendToInspectors } from '@/lib/services/accounts/email-confirmation';
 import type { SendInput } from '@/lib/domain/reports/send-schema';
+import { formatDateTime } from '@/lib/domain/dates/format';
+import { dispatchWebhookDeliveries, queueWebhookEvent } from '@/lib/services/webhooks/deliveries';
 
 const sameAddress = (a: string, b: string | null) => !!b && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -56,7 +58,7 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
   }
   await countReportSend(before.organizationId);
 
-  const { report, pdf, project, check: issuedCheck } = await issueReport(db, user, checkId);
+  const { report, project, check: issuedCheck } = await issueReport(db, user, checkId);
   // Recorded against the jurisdiction the report was issued for, by its inspector address at this moment.
   const issuedJur = project.jurisdiction.id === before.jurisdiction.id ? jur : await inspectorAddress(db, project.jurisdiction.id);
   const toInspector = sameAddress(to, issuedJur.inspectorEmail);
@@ -67,6 +69,7 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
     '',
     `Report ${report.code}: ${s.fail} fail, ${s.caution} caution, ${s.needsInfo} need information, ${s.pass} pass.`,
     `Rule set version ${issuedCheck.ruleSet.version}; plan revision ${issuedCheck.planRevision.number}.`,
+    `Checked ${formatDateTime(issuedCheck.createdAt, project.jurisdiction.timeZone)}; report issued ${formatDateTime(report.createdAt, project.jurisdiction.timeZone)}.`,
     input.note ? `\nNote from the installer:\n${input.note}\n` : '',
     `Confirm the attached PDF is the one NookPass issued: ${verifyUrl}`,
     `SHA-256 of the PDF: ${report.sha256}`,
@@ -74,20 +77,34 @@ export async function sendReport(db: DB, user: AppUser, checkId: string, input: 
     'The locally adopted code, the AHJ and licensed trades govern; this report does not replace the inspection.',
   ].join('\n');
   const record = { reportId: report.id, projectId: project.id, jurisdictionId: project.jurisdiction.id, to, toInspector, actorId: user.id, note: input.note ?? null };
-  try {
-    const { messageId } = await sendMail({
+  // The send and its e-mail are recorded together and the answer comes at once; a job delivers the e-mail
+  // (the report reaches the inspector's queue in NookPass whatever the mail relay does).
+  const { mail, webhooks } = await db.transaction().execute(async (trx) => {
+    const send = await insertSend(trx, { ...record, status: 'sent', error: null, messageId: null });
+    // The company's webhook endpoints hear of the send with it, delivered by a job like the e-mail.
+    const webhooks = await queueWebhookEvent(trx, project.organizationId, {
+      type: 'report.sent',
+      data: {
+        project: { id: project.id, name: project.name },
+        report: { code: report.code, verifyUrl },
+        jurisdiction: { slug: project.jurisdiction.slug, name: issuedJur.name },
+        toInspector,
+      },
+    });
+    const mail = await queueMail(trx, {
+      kind: 'report-send',
       to,
       replyTo: user.name ? { name: user.name, address: user.email } : user.email,
       subject: `Check report ${report.code} — ${project.name}`,
       text,
-      attachments: [{ filename: reportFilename(project, report.code), content: pdf, contentType: 'application/pdf' }],
+      attachments: [{ filename: reportFilename(project, report.code), objectKey: report.storageKey, contentType: 'application/pdf' }],
+      reportId: report.id,
+      reportSendId: send.id,
+      createdBy: user.id,
     });
-    await recordSend(db, { ...record, status: 'sent', error: null, messageId });
-    return { sent: true as const, to, toInspector, report: { code: report.code, sha256: report.sha256 } };
-  } catch (err) {
-    if (!(err instanceof ServiceUnavailableError) && !(err instanceof ValidationError)) throw err;
-    // The report stays issued and the failure is on record; sending again later works.
-    await recordSend(db, { ...record, status: 'failed', error: err.message, messageId: null });
-    throw err;
-  }
+    return { mail, webhooks };
+  });
+  await dispatchMail([mail]);
+  await dispatchWebhookDeliveries(webhooks);
+  return { sent: true as const, to, toInspector, report: { code: report.code, sha256: report.sha256 }, mail: { id: mail.id, status: mail.status } };
 }

@@ -11,18 +11,18 @@ import {
   listThreadSends,
   withReportLocked,
 } from '@/db/correction-thread';
-import { findReportByCode, findReportById, type IssuedReport } from '@/db/reports';
+import { findReportByCode, findReportById, findReportHeading, type IssuedReport } from '@/db/reports';
 import { compareFindings, type FindingChange } from '@/lib/domain/checks/compare';
 import { ConflictError, NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { isUuid } from '@/lib/domain/ids';
 import { threadEntries, threadState, type AnswerInput, type ThreadAnswer, type ThreadEntry, type ThreadState } from '@/lib/domain/reports/thread';
 import { diffPlans } from '@/lib/domain/revisions/change-summary';
 import type { AppUser } from '@/lib/domain/roles';
-import { sendMail } from '@/lib/platform/mail';
+import { dispatchMail, queueMail } from '@/lib/services/mail/outbox';
 import { assertCanReadReport } from '@/lib/services/reports/access';
 import { issueReport, publicBaseUrl, reportFilename } from '@/lib/services/reports/issue';
 import { countReportSend } from '@/lib/services/reports/limits';
-import { log } from '@/lib/platform/log';
+import { DEFAULT_TIME_ZONE, formatDateTime } from '@/lib/domain/dates/format';
 
 /** A plan value as entered, for "from → to" lines; numbers are in the plan's own units. */
 function showValue(v: unknown): string {
@@ -112,7 +112,7 @@ export async function answerCorrections(db: DB, user: AppUser, ref: string, inpu
   if (check.projectId !== projectId) throw new ValidationError([{ path: 'checkId', message: 'That check belongs to another project; answer with a check of this project.' }]);
   const [latest] = await listChecks(db, user, projectId);
   if (latest && latest.id !== check.id) {
-    throw new ValidationError([{ path: 'checkId', message: `Answer with the project’s latest check (run ${latest.createdAt.toISOString().slice(0, 16).replace('T', ' ')} UTC).` }]);
+    throw new ValidationError([{ path: 'checkId', message: `Answer with the project’s latest check (run ${formatDateTime(latest.createdAt, (await findReportHeading(db, projectId))?.timeZone ?? DEFAULT_TIME_ZONE)}).` }]);
   }
   if (+check.createdAt <= +before.underReview.createdAt) {
     throw new ValidationError([{ path: 'checkId', message: 'This is the check the inspector already reviewed: correct the plan, run a new check, then answer with it.' }]);
@@ -121,7 +121,7 @@ export async function answerCorrections(db: DB, user: AppUser, ref: string, inpu
   if (user.organizationId) await countReportSend(user.organizationId);
 
   const issued = await issueReport(db, user, check.id);
-  const answer = await withReportLocked(db, report.id, async (trx) => {
+  const { answer, mails } = await withReportLocked(db, report.id, async (trx) => {
     const outcomes = await listThreadOutcomes(trx, report.id);
     const answers = await listThreadAnswers(trx, report.id);
     const state = threadState(outcomes, answers);
@@ -129,33 +129,35 @@ export async function answerCorrections(db: DB, user: AppUser, ref: string, inpu
     if (state.kind !== 'awaiting-corrections' || state.current.id !== standing.id) {
       throw new ConflictError(`Report ${report.code} changed while you answered; reload it. The report ${issued.report.code} issued for your check is kept.`);
     }
-    return insertAnswer(trx, { reportId: report.id, reviewId: state.current.id, checkId: check.id, answerReportId: issued.report.id, note: input.note, installerId: user.id });
-  });
-
-  let mailed = 0;
-  for (const to of await listInspectorAddressesOfReport(db, report.id)) {
-    try {
-      await sendMail({
-        to,
-        subject: `Corrections answered: ${issued.project.name} (report ${report.code})`,
-        text: [
-          `${user.name} answered the corrections on report ${report.code} with a new check, report ${issued.report.code}.`,
-          '',
-          `Note from the installer:\n${input.note}`,
-          '',
-          `See what changed and record the outcome: ${publicBaseUrl()}/inspections/${report.id}`,
-          `Confirm the attached PDF is the one NookPass issued: ${publicBaseUrl()}/verify/${issued.report.code}`,
-          '',
-          'The locally adopted code, the AHJ and licensed trades govern; this report does not replace the inspection.',
-        ].join('\n'),
-        attachments: [{ filename: reportFilename(issued.project, issued.report.code), content: issued.pdf, contentType: 'application/pdf' }],
-      });
-      mailed++;
-    } catch (err) {
-      log.error({ err }, 'answer e-mail not sent');
+    const answer = await insertAnswer(trx, { reportId: report.id, reviewId: state.current.id, checkId: check.id, answerReportId: issued.report.id, note: input.note, installerId: user.id });
+    // The inspectors' e-mails are queued with the answer; a job delivers them.
+    const mails = [];
+    for (const to of await listInspectorAddressesOfReport(trx, report.id)) {
+      mails.push(
+        await queueMail(trx, {
+          kind: 'corrections-answer',
+          to,
+          subject: `Corrections answered: ${issued.project.name} (report ${report.code})`,
+          text: [
+            `${user.name} answered the corrections on report ${report.code} with a new check (run ${formatDateTime(check.createdAt, issued.project.jurisdiction.timeZone)}), report ${issued.report.code}.`,
+            '',
+            `Note from the installer:\n${input.note}`,
+            '',
+            `See what changed and record the outcome: ${publicBaseUrl()}/inspections/${report.id}`,
+            `Confirm the attached PDF is the one NookPass issued: ${publicBaseUrl()}/verify/${issued.report.code}`,
+            '',
+            'The locally adopted code, the AHJ and licensed trades govern; this report does not replace the inspection.',
+          ].join('\n'),
+          attachments: [{ filename: reportFilename(issued.project, issued.report.code), objectKey: issued.report.storageKey, contentType: 'application/pdf' }],
+          reportId: report.id,
+          createdBy: user.id,
+        }),
+      );
     }
-  }
-  return { answer: { id: answer.id, createdAt: answer.createdAt }, report: { code: issued.report.code, sha256: issued.report.sha256 }, mailed };
+    return { answer, mails };
+  });
+  await dispatchMail(mails);
+  return { answer: { id: answer.id, createdAt: answer.createdAt }, report: { code: issued.report.code, sha256: issued.report.sha256 }, mailed: mails.length };
 }
 
 /** Every thread of a project (one per report that reached the inspector), newest first, for its page. */

@@ -4,6 +4,7 @@ import { latestCitationMarks, recordCitationMark } from '@/db/citation-checks';
 import { publishDraft, type RuleSetWithRules } from '@/db/rule-sets';
 import { ConfirmationRequiredError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
+import { forgetCachedCopies } from '@/lib/platform/cache/invalidation';
 import { assertPublishable } from '@/lib/domain/rule-sets/publish-check';
 import { citationStatuses, uncheckedMemoryCitations, type CitationCheckInput, type CitationMark, type CitationStatus } from '@/lib/domain/rule-sets/citation-checks';
 
@@ -58,5 +59,7 @@ export async function publishRuleSet(db: DB, actor: AppUser, set: RuleSetWithRul
       return unchecked.length ? { uncheckedConfirmed: unchecked } : {};
     },
   });
+  // The next evaluation on this server uses the new version at once.
+  forgetCachedCopies();
   return result;
 }

@@ -12,6 +12,11 @@ import { requirePageUser } from '@/lib/platform/auth/session';
 import { NotFoundError } from '@/lib/domain/errors';
 import { loadInspection } from '@/lib/services/reports/inspection';
 import { findingCommentsOfCheck } from '@/lib/services/reports/finding-comments';
+import { formatDateTime } from '@/lib/domain/dates/format';
+import { listMailOfReadableReports } from '@/lib/services/mail/outbox';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import { mailDeliveryProps } from '@/lib/domain/mail/outbox';
+import { ThumbnailState } from '@/components/attachments/thumbnail-state';
 
 export const metadata: Metadata = { title: 'Inspection' };
 
@@ -25,13 +30,14 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
     if (err instanceof NotFoundError) notFound();
     throw err;
   }
-  const { report, project, check, attachments, thread, citationChecks } = data;
+  const { report, project, check, attachments, thread, citationChecks, timeZone } = data;
   const standing = thread.state.kind === 'awaiting-outcome' ? null : thread.state.current;
   // The installer's latest word: the note of the latest answer, or the one sent with the report.
   const lastNote = [...thread.entries].reverse().find((e) => (e.kind === 'answer' || e.kind === 'sent') && e.note);
   const installerNote = lastNote && (lastNote.kind === 'answer' ? { text: lastNote.note, by: lastNote.installerName } : lastNote.kind === 'sent' && lastNote.note ? { text: lastNote.note, by: lastNote.by } : null);
   const findingTitles = Object.fromEntries(check.findings.map((f) => [f.ruleKey, f.title]));
   const comments = await findingCommentsOfCheck(getDb(), check.id);
+  const outcomeMails = (await listMailOfReadableReports(getDb(), [report.id])).filter((m) => m.kind === 'inspection-outcome');
   return (
     <>
       <PageHeader kicker={`${project.jurisdictionName} · report ${report.code}`} title={project.name}>
@@ -49,13 +55,13 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
       )}
       {thread.answerId && (
         <p className="mb-2 text-sm font-semibold" data-testid="under-review">
-          Findings of the installer’s answering check of {check.createdAt.toLocaleString('en-US', { dateStyle: 'medium', timeStyle: 'short' })}; the report as first sent is {report.code}.
+          Findings of the installer’s answering check of {formatDateTime(check.createdAt, timeZone)}; the report as first sent is {report.code}.
         </p>
       )}
       <SummaryCounts summary={check.summary} />
       <div className="mt-4"><SafetyNotice compact /></div>
       <div className="mt-6 grid gap-6 lg:grid-cols-[2fr_1fr]">
-        <section aria-label="Findings"><FindingsList findings={check.findings} citationChecks={citationChecks} comments={comments} /></section>
+        <section aria-label="Findings"><FindingsList findings={check.findings} citationChecks={citationChecks} comments={comments} timeZone={timeZone} /></section>
         <aside className="space-y-6">
           {user.role === 'inspector' && (
             <OutcomePanel
@@ -64,16 +70,32 @@ export default async function InspectionPage({ params }: { params: Promise<{ rep
               standing={standing && { id: standing.id, outcome: standing.outcome, comment: standing.comment, findingComments: standing.findingComments, inspectorName: standing.inspectorName, createdAt: standing.createdAt.toISOString() }}
               installerNote={installerNote || null}
               onAnswer={!!thread.answerId}
+              timeZone={timeZone}
             />
           )}
-          <ThreadSection entries={thread.entries} findingTitles={findingTitles} headingId="thread-h" />
+          <ThreadSection entries={thread.entries} findingTitles={findingTitles} headingId="thread-h" timeZone={timeZone} />
+          {outcomeMails.length > 0 && (
+            <section className="card p-5 text-sm" aria-labelledby="outcome-mail-h">
+              <h2 id="outcome-mail-h" className="font-bold">Outcome e-mails to the installer</h2>
+              <ul className="mt-2 space-y-2" data-testid="outcome-mails">
+                {outcomeMails.map((m) => (
+                  <li key={m.id}>
+                    <span className="block text-ink-soft">{m.to} · {formatDateTime(m.createdAt, timeZone)}</span>
+                    <MailDelivery initial={mailDeliveryProps(m)} />
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
           {attachments.length > 0 && (
             <section className="card p-5 text-sm" aria-labelledby="att-h">
               <h2 id="att-h" className="font-bold">Photos and documents in the report</h2>
               <ul className="mt-2 grid grid-cols-2 gap-3">
                 {attachments.map((a) => (
                   <li key={a.id}>
-                    {a.kind === 'photo' ? (
+                    {a.kind === 'photo' && a.derivatives.status !== 'ready' ? (
+                      <ThumbnailState derivatives={a.derivatives} filename={a.filename} />
+                    ) : a.kind === 'photo' ? (
                       // eslint-disable-next-line @next/next/no-img-element
                       <img src={`/api/attachments/${a.id}?variant=thumb`} alt={a.caption || a.filename} className="rounded border border-rule" />
                     ) : (

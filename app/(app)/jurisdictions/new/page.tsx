@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import { getDb } from '@/db';
 import { listJurisdictionOverview } from '@/db/jurisdictions';
 import { JurisdictionForm } from '@/components/admin/jurisdiction-form';
+import { supportedTimeZones } from '@/lib/domain/dates/format';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
@@ -15,7 +16,7 @@ export default async function NewJurisdictionPage() {
   return (
     <>
       <PageHeader kicker="Administration" title="New jurisdiction" />
-      <JurisdictionForm startOptions={startOptions} />
+      <JurisdictionForm startOptions={startOptions} timeZones={supportedTimeZones()} />
     </>
   );
 }

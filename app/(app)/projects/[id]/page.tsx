@@ -11,8 +11,12 @@ import { ProjectThreads } from '@/components/reports/project-threads';
 import { ProjectHeader } from '@/components/projects/project-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { StatusBadge } from '@/components/ui/status-badge';
+import { MailDelivery } from '@/components/mail/mail-delivery';
+import { mailDeliveryProps } from '@/lib/domain/mail/outbox';
+import { listMailOfReadableReports } from '@/lib/services/mail/outbox';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
 import { loadProjectThreads } from '@/lib/services/reports/thread';
+import { formatDate, formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Project' };
 
@@ -26,6 +30,8 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
     listProjectSends(db, id),
     loadProjectThreads(db, user, id),
   ]);
+  const mails = await listMailOfReadableReports(db, [...new Set(sends.map((s) => s.report_id))]);
+  const mailOfSend = new Map(mails.filter((m) => m.reportSendId).map((m) => [m.reportSendId!, m]));
   const latest = checks[0];
   const newerRules = latest && published && latest.ruleSet.version < published.version;
   const canRun = user.role === 'installer' && revisions.length > 0 && !!published;
@@ -63,7 +69,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                 <tbody className="divide-y divide-rule">
                   {checks.map((c) => (
                     <tr key={c.id}>
-                      <td className="py-2"><Link className="font-semibold underline-offset-2 hover:underline" href={`/projects/${project.id}/checks/${c.id}`}>{c.createdAt.toLocaleString()}</Link></td>
+                      <td className="py-2"><Link className="font-semibold underline-offset-2 hover:underline" href={`/projects/${project.id}/checks/${c.id}`}>{formatDateTime(c.createdAt, project.jurisdiction.timeZone)}</Link></td>
                       <td>rev. {c.planRevision.number}</td>
                       <td>v{c.ruleSet.version}</td>
                       <td>{c.outcome === 'pass' ? <StatusBadge status="pass" label="Passes" /> : c.outcome === 'fail' ? <StatusBadge status="fail" label="Fails" /> : <StatusBadge status="needs-info" label="Incomplete" />}</td>
@@ -79,6 +85,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
               projectId={project.id}
               threads={threads}
               canAnswer={user.role === 'installer'}
+              timeZone={project.jurisdiction.timeZone}
               latestCheck={latest ? { id: latest.id, createdAt: latest.createdAt, counts: `${latest.summary.fail} fail · ${latest.summary.caution} caution · ${latest.summary.needsInfo} info · ${latest.summary.pass} pass` } : null}
             />
           )}
@@ -90,8 +97,13 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                 {sends.map((s) => (
                   <li key={s.id}>
                     {s.status === 'sent' ? <StatusBadge status="pass" label="Sent" /> : <StatusBadge status="fail" label="Failed" />}
-                    <span className="ml-2">report {s.code} to {s.to_email}{s.to_inspector === false ? ' (e-mail only, not in the inspector’s queue)' : ''} · {s.sent_by ?? 'former user'} · {new Date(s.created_at).toLocaleString()}</span>
+                    <span className="ml-2">report {s.code} to {s.to_email}{s.to_inspector === false ? ' (e-mail only, not in the inspector’s queue)' : ''} · {s.sent_by ?? 'former user'} · {formatDateTime(s.created_at, project.jurisdiction.timeZone)}</span>
                     {s.error && <span className="block text-status-fail">{s.error}</span>}
+                    {mailOfSend.has(s.id) && (
+                      <span className="block">
+                        <MailDelivery initial={mailDeliveryProps(mailOfSend.get(s.id)!)} />
+                      </span>
+                    )}
                   </li>
                 ))}
               </ul>
@@ -104,7 +116,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
           <section className="card p-5 text-sm" aria-labelledby="rules-h">
             <h2 id="rules-h" className="font-bold">Jurisdiction</h2>
             <p className="mt-1">{project.jurisdiction.name}</p>
-            <p className="mt-1 text-ink-soft">{published ? `Rule set version ${published.version}, published ${published.publishedAt?.toLocaleDateString()}` : 'No published rule set'}</p>
+            <p className="mt-1 text-ink-soft">{published ? `Rule set version ${published.version}, published ${published.publishedAt ? formatDate(published.publishedAt, project.jurisdiction.timeZone) : 'on an unrecorded date'}` : 'No published rule set'}</p>
             {user.role === 'installer' && <Link href={`/projects/${project.id}/edit`} className="mt-3 inline-block underline">Edit project details</Link>}
             {user.role === 'installer' && (
               <DuplicateProjectButton projectId={project.id} name={project.name} siteAddress={project.siteAddress} revisions={revisions.map((r) => r.number)} />
@@ -122,7 +134,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                 {revisions.map((r) => (
                   <li key={r.id}>
                     <Link href={`/projects/${project.id}/plan?revision=${r.number}`} className="font-semibold underline-offset-2 hover:underline">Revision {r.number}</Link>
-                    <span className="text-ink-faint"> · {r.createdBy.name ?? 'former user'} · {r.createdAt.toLocaleString()}</span>
+                    <span className="text-ink-faint"> · {r.createdBy.name ?? 'former user'} · {formatDateTime(r.createdAt, project.jurisdiction.timeZone)}</span>
                     <div className="text-ink-soft">{r.changeSummary}</div>
                   </li>
                 ))}

@@ -11,6 +11,7 @@ import { VersionStatus } from '@/components/admin/version-status';
 import { PageHeader } from '@/components/ui/page-header';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
+import { formatDate, formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Rule set versions' };
 
@@ -55,7 +56,7 @@ export default async function JurisdictionRulesPage({ params }: { params: Promis
                 <td className="px-4 py-2"><Link className="font-semibold underline" href={`/rules/${slug}/versions/${v.version}`}>v{v.version}</Link></td>
                 <td className="px-4 py-2"><VersionStatus status={v.status} /></td>
                 <td className="max-w-md px-4 py-2">{v.changelog || <span className="text-ink-faint">—</span>}</td>
-                <td className="px-4 py-2 text-xs">{v.publishedAt ? <>{v.publishedAt.toLocaleString()}<br />{v.publishedBy}</> : '—'}{v.retiredAt && <><br />retired {v.retiredAt.toLocaleDateString()}</>}</td>
+                <td className="px-4 py-2 text-xs">{v.publishedAt ? <>{formatDateTime(v.publishedAt, jurisdiction.timeZone)}<br />{v.publishedBy}</> : '—'}{v.retiredAt && <><br />retired {formatDate(v.retiredAt, jurisdiction.timeZone)}</>}</td>
                 <td className="px-4 py-2">{v.enabledCount} of {v.ruleCount}</td>
               </tr>
             ))}
@@ -86,7 +87,7 @@ export default async function JurisdictionRulesPage({ params }: { params: Promis
 
       <section className="card mt-6 p-5" aria-labelledby="audit-h">
         <h2 id="audit-h" className="font-bold">Audit trail</h2>
-        <AuditList items={audit} />
+        <AuditList items={audit} timeZone={jurisdiction.timeZone} />
       </section>
     </>
   );

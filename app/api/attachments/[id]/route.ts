@@ -1,10 +1,11 @@
 import { create as contentDisposition } from 'content-disposition';
 import { getDb } from '@/db';
-import { attachmentSentToJurisdiction, displayKey, findAttachment, markAttachmentDeleted, updateCaption, withoutMetadataKey, type Attachment } from '@/db/attachments';
-import { getProject } from '@/db/projects';
+import { displayKey, markAttachmentDeleted, updateCaption, withoutMetadataKey, type Attachment } from '@/db/attachments';
 import type { AppUser } from '@/lib/domain/roles';
 import { requireUser } from '@/lib/platform/auth/session';
-import { NotFoundError } from '@/lib/domain/errors';
+import { ConflictError, NotFoundError } from '@/lib/domain/errors';
+import { derivativesState } from '@/lib/domain/attachments/derivatives';
+import { loadAttachmentFor } from '@/lib/services/attachments/access';
 import { json, parseBody, route } from '@/lib/platform/http';
 import { deleteObject, findObject, putObject } from '@/lib/platform/storage';
 import { stripPhotoMetadata } from '@/lib/platform/uploads';
@@ -12,27 +13,18 @@ import { attachmentUpdateSchema } from '@/lib/domain/api/requests';
 
 type Ctx = { params: Promise<{ id: string }> };
 
-/** The attachment, if the caller may see it, and whether the caller belongs to the company that uploaded it. */
-async function load(user: AppUser, id: string, write: boolean): Promise<{ a: Attachment; ownCompany: boolean }> {
-  const db = getDb();
-  const a = await findAttachment(db, id);
-  if (!a) throw new NotFoundError('No such file.');
-  if (user.role === 'inspector') {
-    if (!write && user.jurisdictionId && (await attachmentSentToJurisdiction(db, a.id, user.jurisdictionId))) return { a, ownCompany: false };
-    throw new NotFoundError('No such file.');
-  }
-  const project = await getProject(db, user, a.projectId);
-  return { a, ownCompany: !!user.organizationId && user.organizationId === project.organizationId };
-}
+const load = (user: AppUser, id: string, write: boolean) => loadAttachmentFor(getDb(), user, id, write);
 
-/** The photo without metadata; one uploaded before such copies were kept gets it made now, and stored. */
+/** The photo without metadata; one uploaded before such copies were kept, or whose job has not run yet, gets it made now, and stored. */
 async function photoWithoutMetadata(a: Attachment): Promise<Buffer | null> {
   const key = withoutMetadataKey(a.storageKey);
   const stored = await findObject(key);
   if (stored) return stored;
   const original = await findObject(a.storageKey);
   if (!original) return null;
-  const stripped = await stripPhotoMetadata(original, a.contentType);
+  const stripped = await stripPhotoMetadata(original, a.contentType).catch(() => {
+    throw new ConflictError('The image could not be read; it may be damaged.');
+  });
   await putObject(key, stripped, a.contentType);
   return stripped;
 }
@@ -48,6 +40,10 @@ export const GET = route<Ctx>(async (request, { params }) => {
   let bytes: Buffer | null;
   let type = 'image/jpeg';
   let filename = a.filename;
+  if ((variant === 'thumb' || variant === 'display') && a.kind === 'photo' && a.derivatives.status !== 'ready') {
+    // Pages show the state instead of the image until the job has made it.
+    throw new ConflictError(`The ${variant === 'thumb' ? 'thumbnail' : 'report-size image'} is not made yet (${derivativesState(a.derivatives).label}).`);
+  }
   if (variant === 'thumb' && a.thumbnailKey) {
     bytes = await findObject(a.thumbnailKey);
     filename = asJpegName(a.filename);

@@ -17,6 +17,7 @@ import { drawPlan } from '@/lib/domain/drawing';
 import { defaultParameters, ruleSetParametersSchema, type RuleSetParameters } from '@/lib/domain/params';
 import { parseStoredPlan } from '@/lib/domain/plan';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Drawing' };
 
@@ -109,7 +110,7 @@ export default async function DrawingPage({ params, searchParams }: { params: Pr
           <h2 className="text-xl font-bold">Drawings of plan revision {revision.number}</h2>
           <p className="text-sm text-ink-soft" data-testid="drawing-meta">
             {check
-              ? `Marked from the check of ${check.createdAt.toLocaleString()} (${project.jurisdiction.name} rules v${check.ruleSet.version}).`
+              ? `Marked from the check of ${formatDateTime(check.createdAt, project.jurisdiction.timeZone)} (${project.jurisdiction.name} rules v${check.ruleSet.version}).`
               : checks.length > 0
                 ? `No check of revision ${revision.number} yet, so nothing is marked; the latest check is of revision ${checks[0].planRevision.number}.`
                 : 'No check has run yet, so nothing is marked.'}

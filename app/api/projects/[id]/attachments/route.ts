@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { getDb } from '@/db';
-import { displayKey, insertAttachment, listAttachments, withoutMetadataKey } from '@/db/attachments';
+import { insertAttachment, listAttachments, thumbnailKeyFor } from '@/db/attachments';
 import { getProject } from '@/db/projects';
 import { requireUser } from '@/lib/platform/auth/session';
 import { ValidationError } from '@/lib/domain/errors';
@@ -9,6 +9,7 @@ import { readMultipartUpload } from '@/lib/platform/multipart';
 import { deleteObject, putObject } from '@/lib/platform/storage';
 import { checkUpload, MAX_UPLOAD_BYTES } from '@/lib/platform/uploads';
 import { countUpload } from '@/lib/services/usage-limits';
+import { derivativesConfig, dispatchDerivatives } from '@/lib/services/attachments/derivatives';
 
 type Ctx = { params: Promise<{ id: string }> };
 
@@ -38,24 +39,12 @@ export const POST = route<Ctx>(async (request, { params }) => {
 
   const id = randomUUID();
   const key = `attachments/${project.id}/${id}`;
-  const thumbKey = checked.thumbnail ? `${key}.thumb.jpg` : null;
-  const written: string[] = [];
+  // Only the original is stored here; a job makes the photo's thumbnail, report-size image and copy without metadata.
+  await putObject(key, checked.bytes, checked.contentType);
+  const isPhoto = checked.kind === 'photo';
+  let saved;
   try {
-    await putObject(key, checked.bytes, checked.contentType);
-    written.push(key);
-    if (checked.thumbnail && thumbKey) {
-      await putObject(thumbKey, checked.thumbnail, 'image/jpeg');
-      written.push(thumbKey);
-    }
-    if (checked.display) {
-      await putObject(displayKey(key), checked.display, 'image/jpeg');
-      written.push(displayKey(key));
-    }
-    if (checked.withoutMetadata) {
-      await putObject(withoutMetadataKey(key), checked.withoutMetadata, checked.contentType);
-      written.push(withoutMetadataKey(key));
-    }
-    const saved = await insertAttachment(
+    saved = await insertAttachment(
       db,
       {
         id,
@@ -66,19 +55,21 @@ export const POST = route<Ctx>(async (request, { params }) => {
         byteSize: checked.bytes.length,
         sha256: checked.sha256,
         storageKey: key,
-        thumbnailKey: thumbKey,
+        thumbnailKey: isPhoto ? thumbnailKeyFor(key) : null,
         width: checked.width,
         height: checked.height,
         caption,
         createdBy: user.id,
+        derivatives: { status: isPhoto ? 'pending' : 'ready', maxAttempts: derivativesConfig().maxAttempts },
       },
       user.id,
     );
-    const { storageKey: _s, thumbnailKey: _t, ...out } = saved;
-    return json(out, 201);
   } catch (err) {
-    // Nothing half-saved: objects written before a failure are removed again.
-    await Promise.allSettled(written.map((k) => deleteObject(k)));
+    // Nothing half-saved: the original is removed again when its row could not be written.
+    await deleteObject(key).catch(() => undefined);
     throw err;
   }
+  await dispatchDerivatives(db, saved);
+  const { storageKey: _s, thumbnailKey: _t, ...out } = saved;
+  return json(out, 201);
 });

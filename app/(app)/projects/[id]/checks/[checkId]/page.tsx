@@ -16,6 +16,7 @@ import { statusLabel } from '@/components/ui/status-badge';
 import { compareFindings } from '@/lib/domain/checks/compare';
 import { loadProjectPage } from '@/lib/services/projects/project-page';
 import { findingCommentsOfCheck } from '@/lib/services/reports/finding-comments';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Check' };
 
@@ -42,7 +43,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
             Check of plan revision {check.planRevision.number}
           </h2>
           <p className="text-sm text-ink-soft" data-testid="check-meta">
-            {check.createdAt.toLocaleString()} · {project.jurisdiction.name} rule set version {check.ruleSet.version} · run by {check.createdBy.name ?? 'former user'}
+            {formatDateTime(check.createdAt, project.jurisdiction.timeZone)} · {project.jurisdiction.name} rule set version {check.ruleSet.version} · run by {check.createdBy.name ?? 'former user'}
           </p>
         </div>
         <div className="no-print flex gap-2">
@@ -67,7 +68,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
 
       <section className="mt-6" aria-labelledby="findings-h" data-testid="check-findings">
         <h2 id="findings-h" className="sr-only">Findings</h2>
-        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} comments={comments} />
+        <FindingsList findings={check.findings} changedKeys={changes.map((c) => c.ruleKey)} comments={comments} timeZone={project.jurisdiction.timeZone} />
       </section>
 
       {/* The findings come first: at the job site the installer opens the check to see what fails. */}
@@ -77,7 +78,7 @@ export default async function CheckPage({ params }: { params: Promise<{ id: stri
 
       {prev && (
         <section className="card mt-6 p-5" aria-labelledby="since-h" data-testid="changes-since">
-          <h2 id="since-h" className="font-bold">Since the previous check ({prev.createdAt.toLocaleString()}, revision {prev.planRevision.number}, rules v{prev.ruleSet.version})</h2>
+          <h2 id="since-h" className="font-bold">Since the previous check ({formatDateTime(prev.createdAt, project.jurisdiction.timeZone)}, revision {prev.planRevision.number}, rules v{prev.ruleSet.version})</h2>
           {changes.length === 0 ? (
             <p className="mt-2 text-sm text-ink-soft">No finding changed status.</p>
           ) : (

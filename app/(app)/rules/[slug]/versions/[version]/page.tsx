@@ -10,12 +10,15 @@ import { ParametersForm } from '@/components/admin/parameters-form';
 import { RuleTable } from '@/components/admin/rule-editor';
 import { CitationChecks } from '@/components/admin/citation-checks';
 import { listCitationStatuses } from '@/lib/services/rule-sets/citations';
+import { findLatestDryRun } from '@/lib/services/rule-sets/runs';
+import { runStatusOf } from '@/lib/domain/rule-sets/runs';
 import { VersionStatus } from '@/components/admin/version-status';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyNotice } from '@/components/ui/safety-notice';
 import { citationMismatches } from '@/lib/domain/rule-sets/citations';
 import { pageRoles } from '@/lib/domain/roles';
 import { requirePageUser } from '@/lib/platform/auth/session';
+import { formatDateTime } from '@/lib/domain/dates/format';
 
 export const metadata: Metadata = { title: 'Rule set version' };
 
@@ -30,6 +33,11 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
   if (!set) notFound();
   const published = await findPublishedVersion(db, jurisdiction.id);
   const mismatches = citationMismatches(set.rules, jurisdiction.editions);
+  const dryRun = set.status === 'draft' ? await findLatestDryRun(db, set.id) : null;
+  const latestDryRun = dryRun && {
+    run: runStatusOf(dryRun),
+    result: dryRun.result,
+  };
 
   return (
     <>
@@ -40,8 +48,8 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
       </PageHeader>
       <div className="mb-4 flex flex-wrap items-center gap-3 text-sm">
         <VersionStatus status={set.status} />
-        {set.publishedAt && <span>Published {set.publishedAt.toLocaleString()} by {set.publishedBy ?? 'former user'}</span>}
-        {set.retiredAt && <span>· retired {set.retiredAt.toLocaleString()}</span>}
+        {set.publishedAt && <span>Published {formatDateTime(set.publishedAt, jurisdiction.timeZone)} by {set.publishedBy ?? 'former user'}</span>}
+        {set.retiredAt && <span>· retired {formatDateTime(set.retiredAt, jurisdiction.timeZone)}</span>}
         {set.status !== 'draft' && set.changelog && <span data-testid="version-changelog">· “{set.changelog}”</span>}
       </div>
       <div className="mb-6"><SafetyNotice compact /></div>
@@ -55,7 +63,7 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
         </div>
       )}
       {set.status === 'draft' ? (
-        <DraftWorkspace initial={set} slug={slug} />
+        <DraftWorkspace initial={set} slug={slug} timeZone={jurisdiction.timeZone} latestDryRun={latestDryRun} />
       ) : (
         <div className="space-y-6">
           <p className="text-sm text-ink-soft">This version is {set.status}: the database refuses any change to it. To change the rules, start a new draft from the versions page.</p>
@@ -69,7 +77,7 @@ export default async function VersionPage({ params }: { params: Promise<{ slug: 
           </section>
           <section className="card p-5" aria-labelledby="cite-h">
             <h2 id="cite-h" className="text-lg font-bold">Citations checked against the adopted text</h2>
-            <div className="mt-3"><CitationChecks list={await listCitationStatuses(db, set)} url={`/api/rule-sets/${set.id}/citations`} readOnly /></div>
+            <div className="mt-3"><CitationChecks list={await listCitationStatuses(db, set)} url={`/api/rule-sets/${set.id}/citations`} readOnly timeZone={jurisdiction.timeZone} /></div>
           </section>
         </div>
       )}
