@@ -6,6 +6,7 @@ PORT_BENCH="${NOOKPASS_BENCH_PORT:-3150}"
 DB_NAME="nookpass_bench_$(date +%s)_$$"
 ensure_node_modules
 ensure_postgres_installed
+ensure_chromium
 port_busy "$PORT_BENCH" && die "Port $PORT_BENCH is in use; set NOOKPASS_BENCH_PORT."
 WAS_RUNNING=0; if pg_running; then WAS_RUNNING=1; fi
 start_cluster

@@ -183,13 +183,13 @@ ensure_auth_secret() {
   fi
 }
 
-# Builds only when a source file is newer than the last build. The report worker is bundled after
-# `next build` (which empties .next), and on its own when only it is missing.
+# Builds only when a source file is newer than the last build. The worker threads' bundles (reports,
+# evaluations) are made after `next build` (which empties .next), and on their own when one is missing.
 build_if_needed() {
   local stamp=".next/BUILD_ID"
   if [ -f "$stamp" ] && [ -z "$(find app components lib rules db proxy.ts next.config.mjs tailwind.config.ts postcss.config.mjs package-lock.json public scripts/build-report-worker.mjs -newer "$stamp" -print -quit 2>/dev/null)" ]; then
     say "Build is up to date (reusing .next)."
-    [ -f .next/report-worker/render-worker.mjs ] || node scripts/build-report-worker.mjs
+    { [ -f .next/report-worker/render-worker.mjs ] && [ -f .next/evaluation-worker/evaluate-worker.mjs ]; } || node scripts/build-report-worker.mjs
     return 0
   fi
   say "Building the app (next build)…"

@@ -24,6 +24,11 @@ export function json(body: unknown, init?: number | ResponseInit): Response {
   return Response.json(body, { ...opts, headers: { 'cache-control': 'no-store', ...(opts?.headers ?? {}) } });
 }
 
+/** An answer already serialized as JSON (the evaluation API's, made on an evaluation thread). */
+export function jsonText(body: string, status = 200): Response {
+  return new Response(body, { status, headers: { 'content-type': 'application/json', 'cache-control': 'no-store' } });
+}
+
 export function zodErrors(error: z.ZodError): FieldError[] {
   return error.issues.map((issue) => ({
     path: issue.path.map(String).join('.') || '(body)',

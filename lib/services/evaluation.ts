@@ -1,9 +1,11 @@
 import 'server-only';
 import type { DB } from '@/db';
 import type { RuleSetWithRules } from '@/db/rule-sets';
-import { evaluate, withoutAdminNotes, type Evaluation } from '@/lib/domain/engine';
+import type { FindingsWanted } from '@/lib/domain/api/evaluation-answer';
+import { evaluate, type Evaluation } from '@/lib/domain/engine';
 import { NotFoundError, ValidationError } from '@/lib/domain/errors';
 import { parsePlan, type Plan } from '@/lib/domain/plan';
+import { answerOffThread } from '@/lib/platform/evaluation/evaluation-pool';
 import { jurisdictionWithPublished, loadImmutableRuleSet, loadPublishedRuleSet } from '@/lib/services/checks/rule-set-cache';
 
 /*
@@ -33,15 +35,22 @@ export function publishedRuleSetOf(db: DB, jurisdictionId: string): Promise<Rule
   return loadPublishedRuleSet(db, jurisdictionId);
 }
 
-/** Stateless evaluation for the API: parse → load the jurisdiction's published rule set → evaluate. Nothing is stored. */
-export async function evaluateForJurisdiction(db: DB, input: { jurisdiction: string; plan: unknown }): Promise<Evaluation> {
-  const plan = parsePlanOrThrow(input.plan);
+/**
+ * The evaluation API's answer, as JSON text: the jurisdiction's published version (from memory after the first
+ * request) → parse and evaluate the plan on an evaluation thread → the answer. Nothing is stored.
+ */
+export async function evaluationAnswerForJurisdiction(db: DB, input: { jurisdiction: string; plan: unknown; findings: FindingsWanted }): Promise<string> {
   const jurisdiction = await jurisdictionWithPublished(db, input.jurisdiction);
   if (!jurisdiction) throw new NotFoundError(`No jurisdiction '${input.jurisdiction}'. GET /api/jurisdictions lists them.`);
   const ruleSet = jurisdiction.publishedRuleSetId ? await loadImmutableRuleSet(db, jurisdiction.publishedRuleSetId) : null;
   if (!ruleSet) throw new NotFoundError(`${jurisdiction.name} has no published rule set yet.`);
-  // The evaluation API answers installers: notes for rule-set admins stay on the admin screens.
-  return withoutAdminNotes(await evaluateUnder(ruleSet, plan));
+  const answer = await answerOffThread(
+    { id: ruleSet.id, jurisdiction: ruleSet.jurisdictionSlug, version: ruleSet.version, parameters: ruleSet.parameters, rules: ruleSet.rules },
+    input.plan,
+    input.findings,
+  );
+  if (!answer.ok) throw new ValidationError(answer.errors);
+  return answer.body;
 }
 
 /**

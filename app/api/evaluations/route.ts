@@ -1,7 +1,7 @@
 import { getDb } from '@/db';
 import { requireCaller } from '@/lib/platform/auth/session';
-import { json, parseBody, route } from '@/lib/platform/http';
-import { evaluateForJurisdiction } from '@/lib/services/evaluation';
+import { jsonText, parseBody, route } from '@/lib/platform/http';
+import { evaluationAnswerForJurisdiction } from '@/lib/services/evaluation';
 import { countEvaluation } from '@/lib/services/usage-limits';
 import { evaluationRequestSchema } from '@/lib/domain/api/requests';
 
@@ -11,7 +11,5 @@ import { evaluationRequestSchema } from '@/lib/domain/api/requests';
 export const POST = route(async (request) => {
   await countEvaluation(await requireCaller(request));
   const body = await parseBody(request, evaluationRequestSchema);
-  const result = await evaluateForJurisdiction(getDb(), body);
-  const findings = body.findings === 'failing' ? result.findings.filter((f) => f.status === 'fail') : result.findings;
-  return json({ ruleSet: result.ruleSet, summary: result.summary, findings });
+  return jsonText(await evaluationAnswerForJurisdiction(getDb(), body));
 });
