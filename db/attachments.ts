@@ -131,6 +131,39 @@ export async function markDerivativesAttemptFailed(db: DB, id: string, error: st
   return (row?.derivatives_status as 'retrying' | 'failed' | undefined) ?? null;
 }
 
+/**
+ * Photos whose images should be in the works but show no sign of it: waiting (pending or retrying) untouched for
+ * `graceSeconds`, or claimed by a worker longer ago than `staleClaimSeconds` (it died, and its job is gone). Oldest first.
+ */
+export async function listStalledDerivatives(db: DB, graceSeconds: number, staleClaimSeconds: number, limit: number): Promise<{ id: string; attempts: number; maxAttempts: number; status: string }[]> {
+  const rows = await db
+    .selectFrom('attachments')
+    .select(['id', 'derivatives_attempts', 'derivatives_max_attempts', 'derivatives_status'])
+    .where('deleted_at', 'is', null)
+    .where((eb) =>
+      eb.or([
+        eb.and([eb('derivatives_status', 'in', ['pending', 'retrying']), eb('derivatives_updated_at', '<', sql<Date>`now() - make_interval(secs => ${graceSeconds})`)]),
+        eb.and([eb('derivatives_status', '=', 'making'), eb('derivatives_claimed_at', '<', sql<Date>`now() - make_interval(secs => ${staleClaimSeconds})`)]),
+      ]),
+    )
+    .orderBy('derivatives_updated_at')
+    .limit(limit)
+    .execute();
+  return rows.map((r) => ({ id: r.id, attempts: r.derivatives_attempts, maxAttempts: r.derivatives_max_attempts, status: r.derivatives_status }));
+}
+
+/** Ends a claim whose worker died after the last attempt: failed, so the person may make it again. False if it moved meanwhile. */
+export async function failStalledDerivatives(db: DB, id: string, staleClaimSeconds: number, error: string): Promise<boolean> {
+  const updated = await db
+    .updateTable('attachments')
+    .set({ derivatives_status: 'failed', derivatives_error: error, derivatives_claimed_at: null, derivatives_updated_at: sql<Date>`now()` })
+    .where('id', '=', id)
+    .where('derivatives_status', '=', 'making')
+    .where('derivatives_claimed_at', '<', sql<Date>`now() - make_interval(secs => ${staleClaimSeconds})`)
+    .executeTakeFirst();
+  return Number(updated.numUpdatedRows) > 0;
+}
+
 /** The job could not be queued: the person is told at once and may ask again. */
 export async function markDerivativesUnqueued(db: DB, id: string, error: string): Promise<void> {
   await db

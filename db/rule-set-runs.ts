@@ -1,6 +1,6 @@
-import { sql, type Selectable } from 'kysely';
+import { sql, type ExpressionBuilder, type Selectable } from 'kysely';
 import type { DB } from '@/db/index';
-import type { RuleSetRunsTable } from '@/db/types';
+import type { Database, RuleSetRunsTable } from '@/db/types';
 import { isUuid } from '@/lib/domain/ids';
 import type { RuleSetRun, RuleSetRunKind } from '@/lib/domain/rule-sets/runs';
 
@@ -140,6 +140,31 @@ export async function finishRuleSetRun(db: DB, id: string, token: string, result
     .where('id', '=', id)
     .where('state', '=', 'running')
     .where('claim_token', '=', token)
+    .executeTakeFirst();
+  return Number(updated.numUpdatedRows) > 0;
+}
+
+/** How long a run may wait for a worker, and go without progress while running, before it counts as stalled. */
+export type StallLimits = { queuedSeconds: number; runningSeconds: number };
+
+const stalledWhere = (limits: StallLimits) => (eb: ExpressionBuilder<Database, 'rule_set_runs'>) =>
+  eb.or([
+    eb.and([eb('state', '=', 'queued'), eb(sql<Date>`coalesce(claimed_at, created_at)`, '<', sql<Date>`now() - make_interval(secs => ${limits.queuedSeconds})`)]),
+    eb.and([eb('state', '=', 'running'), eb('claimed_at', '<', sql<Date>`now() - make_interval(secs => ${limits.runningSeconds})`)]),
+  ]);
+
+/** Runs that should be in the works but show no sign of it (their worker died and its job is gone), oldest first. */
+export async function listStalledRuleSetRuns(db: DB, limits: StallLimits, limit: number): Promise<{ id: string; attempts: number; state: string }[]> {
+  return db.selectFrom('rule_set_runs').select(['id', 'attempts', 'state']).where(stalledWhere(limits)).orderBy('created_at').limit(limit).execute();
+}
+
+/** Ends a stalled run after its last attempt; false if a worker took it or it finished meanwhile. */
+export async function failStalledRuleSetRun(db: DB, id: string, limits: StallLimits, error: string): Promise<boolean> {
+  const updated = await db
+    .updateTable('rule_set_runs')
+    .set({ state: 'failed', error, finished_at: sql<Date>`now()`, claim_token: null })
+    .where('id', '=', id)
+    .where(stalledWhere(limits))
     .executeTakeFirst();
   return Number(updated.numUpdatedRows) > 0;
 }

@@ -6,6 +6,7 @@ import { ServiceUnavailableError } from '@/lib/domain/errors';
 import { answerOffThread, closeEvaluationPool } from '@/lib/platform/evaluation/evaluation-pool';
 import { buildRuleSet } from '@/rules';
 import { buildEvaluationWorker } from '@/scripts/build-report-worker.mjs';
+import { longestStallMs } from '@/tests/fixtures/event-loop';
 import { generatedPlan } from '@/tests/fixtures/generated-plans';
 import { hallClosetPassPlan, longExhaustFailPlan } from '@/tests/fixtures/plans';
 
@@ -68,27 +69,10 @@ describe('evaluations on worker threads', () => {
   });
 
   it('leave the calling thread free while 200 evaluations run', async () => {
-    const stall = async (work: () => Promise<unknown>) => {
-      let last = performance.now();
-      let longest = 0;
-      const tick = () => {
-        const now = performance.now();
-        longest = Math.max(longest, now - last - 5);
-        last = now;
-      };
-      const timer = setInterval(tick, 5);
-      try {
-        await work();
-      } finally {
-        tick();
-        clearInterval(timer);
-      }
-      return longest;
-    };
     const burst = () => Promise.all(Array.from({ length: 200 }, () => answerOffThread(v2018, longExhaustFailPlan, 'all')));
     const inProcess = () => Promise.all(Array.from({ length: 200 }, () => evaluationAnswer(v2018, longExhaustFailPlan, 'all')));
-    const offStall = await stall(burst);
-    const inStall = await stall(inProcess);
+    const offStall = await longestStallMs(burst, 5);
+    const inStall = await longestStallMs(inProcess, 5);
     // Run on this thread, the 200 evaluations hold the loop for one long stretch; on the threads, only hand-overs.
     expect(offStall).toBeLessThan(inStall / 3);
   }, 60_000);

@@ -10,6 +10,7 @@ import { closeReportRenderPool, renderReportOffThread } from '@/lib/platform/pdf
 import type { ReportData } from '@/lib/domain/reports/report-data';
 import { buildRuleSet } from '@/rules';
 import { buildReportWorker } from '@/scripts/build-report-worker.mjs';
+import { longestStallMs } from '@/tests/fixtures/event-loop';
 import { largestAllowedPlan } from '@/tests/fixtures/plans';
 
 /*
@@ -52,25 +53,6 @@ afterAll(async () => {
   await closeReportRenderPool();
   delete process.env.NOOKPASS_REPORT_WORKER;
 });
-
-/** The longest gap between ticks of a 10 ms timer on this thread while `work` ran: how long the loop was held. */
-async function longestStallMs(work: () => Promise<unknown>): Promise<number> {
-  let last = performance.now();
-  let longest = 0;
-  const tick = () => {
-    const now = performance.now();
-    longest = Math.max(longest, now - last - 10);
-    last = now;
-  };
-  const timer = setInterval(tick, 10);
-  try {
-    await work();
-  } finally {
-    tick(); // a loop held to the very end shows in this last gap
-    clearInterval(timer);
-  }
-  return longest;
-}
 
 describe('report rendering in the worker pool', () => {
   it('gives the same report as this thread, photos included, and leaves this thread free (stalls under 100 ms, a tenth of an in-thread render on a busy machine)', { timeout: 120_000 }, async () => {

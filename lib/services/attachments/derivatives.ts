@@ -3,6 +3,8 @@ import type { DB } from '@/db';
 import {
   claimAttachmentDerivatives,
   displayKey,
+  failStalledDerivatives,
+  listStalledDerivatives,
   markDerivativesAttemptFailed,
   markDerivativesReady,
   markDerivativesUnqueued,
@@ -36,6 +38,8 @@ export function derivativesConfig() {
     retryDelaySeconds: positiveIntSetting(process.env.NOOKPASS_DERIVATIVE_RETRY_DELAY_SECONDS, 10),
     /** A claim older than this belongs to a worker that died (a 40 MP photo takes a few seconds). */
     staleClaimSeconds: 120,
+    /** A photo waiting this long untouched has lost its job; the pass every minute queues it again. */
+    overdueGraceSeconds: positiveIntSetting(process.env.NOOKPASS_DERIVATIVE_OVERDUE_SECONDS, 600),
     pollingIntervalSeconds: Number(process.env.NOOKPASS_JOB_POLL_SECONDS ?? 1) || 1,
   };
 }
@@ -61,6 +65,33 @@ export async function dispatchDerivatives(db: DB, a: Pick<Attachment, 'id' | 'de
     log.error({ err, attachmentId: a.id }, 'photo stored but its thumbnails were not queued');
     await markDerivativesUnqueued(db, a.id, 'The thumbnail could not be queued; make it again.').catch(() => undefined);
   }
+}
+
+/** The pass that finds photos whose images stalled; pg-boss sends it once a minute for all servers together. */
+export const DERIVATIVES_SWEEP_QUEUE: JobQueue = { name: 'attachment-derivatives-sweep', retryLimit: 0, retryDelaySeconds: 30, expireInSeconds: 300 };
+
+export const STALLED_DERIVATIVES_MESSAGE = 'The thumbnail was not finished: the server making it stopped. Make it again.';
+
+/**
+ * A photo whose images show no sign of progress (its job lost with a server, or every attempt cut short by a
+ * server stopping) goes back in the queue; one whose attempts are spent is marked failed, so the person sees it
+ * and can make it again. A job sent twice is harmless: the worker's claim lets one of them make the images.
+ */
+export async function requeueStalledDerivatives(db: DB): Promise<{ queued: number; failed: number }> {
+  const cfg = derivativesConfig();
+  const stalled = await listStalledDerivatives(db, cfg.overdueGraceSeconds, cfg.staleClaimSeconds, 200);
+  let queued = 0;
+  let failed = 0;
+  for (const a of stalled) {
+    if (a.status === 'making' && a.attempts >= a.maxAttempts) {
+      if (await failStalledDerivatives(db, a.id, cfg.staleClaimSeconds, STALLED_DERIVATIVES_MESSAGE)) failed += 1;
+    } else {
+      await enqueue(DERIVATIVES_QUEUE, { attachmentId: a.id });
+      queued += 1;
+    }
+  }
+  if (stalled.length) log.info({ queued, failed }, 'stalled photo thumbnails queued again or ended');
+  return { queued, failed };
 }
 
 class ImageUnreadable extends Error {}

@@ -3,8 +3,8 @@ import { getDb } from '@/db';
 import { schedule, stopJobs, work } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
 import { STORAGE_SWEEP_QUEUE, sweepUnreferencedObjects } from '@/lib/services/storage-sweep';
-import { executeRuleSetRun, RULE_SET_RUN_QUEUE, ruleSetRunConfig } from '@/lib/services/rule-sets/runs';
-import { DERIVATIVES_QUEUE, derivativesConfig, makeAttachmentDerivatives } from '@/lib/services/attachments/derivatives';
+import { executeRuleSetRun, requeueStalledRuns, RULE_SET_RUN_QUEUE, RULE_SET_RUN_SWEEP_QUEUE, ruleSetRunConfig } from '@/lib/services/rule-sets/runs';
+import { DERIVATIVES_QUEUE, DERIVATIVES_SWEEP_QUEUE, derivativesConfig, makeAttachmentDerivatives, requeueStalledDerivatives } from '@/lib/services/attachments/derivatives';
 import { deliverOutboxMail, MAIL_QUEUE, MAIL_SWEEP_QUEUE, mailDeliveryConfig, requeueOverdueMail } from '@/lib/services/mail/outbox';
 import { deliverWebhook, requeueOverdueWebhooks, WEBHOOK_QUEUE, WEBHOOK_SWEEP_QUEUE } from '@/lib/services/webhooks/deliveries';
 
@@ -45,6 +45,11 @@ export function startWorkers(): Promise<void> {
     await work<{ attachmentId: string }>(DERIVATIVES_QUEUE, { concurrency: 1, pollingIntervalSeconds: derivativesConfig().pollingIntervalSeconds }, async (job) => {
       return { result: await makeAttachmentDerivatives(db, job.data.attachmentId, { lastTry: job.retryCount >= job.retryLimit }) };
     });
+    // Every minute, work that stalled (its server stopped mid-job, its job lost) goes back in the queue or is ended.
+    await work(DERIVATIVES_SWEEP_QUEUE, { pollingIntervalSeconds: 10 }, async () => requeueStalledDerivatives(db));
+    await schedule(DERIVATIVES_SWEEP_QUEUE, '* * * * *');
+    await work(RULE_SET_RUN_SWEEP_QUEUE, { pollingIntervalSeconds: 10 }, async () => requeueStalledRuns(db));
+    await schedule(RULE_SET_RUN_SWEEP_QUEUE, '* * * * *');
     log.info('job workers started');
   })().catch((err) => {
     g.nookpassWorkers = undefined;

@@ -4,12 +4,15 @@ import { findPublishedRuleSet, findRuleSetById } from '@/db/rule-sets';
 import {
   claimRuleSetRun,
   failRuleSetRun,
+  failStalledRuleSetRun,
   findActiveRuleSetRun,
   findLatestRuleSetRun,
   findRuleSetRun,
   finishRuleSetRun,
   insertRuleSetRun,
+  listStalledRuleSetRuns,
   recordRuleSetRunProgress,
+  type StallLimits,
 } from '@/db/rule-set-runs';
 import type { Jurisdiction } from '@/db/jurisdictions';
 import { ConflictError, NotFoundError } from '@/lib/domain/errors';
@@ -34,11 +37,42 @@ export function ruleSetRunConfig() {
     batchSize: positiveIntSetting(process.env.NOOKPASS_RUN_BATCH_SIZE, 25),
     /** A claim whose progress has not moved for this long belongs to a worker that died. */
     staleClaimSeconds: positiveIntSetting(process.env.NOOKPASS_RUN_STALE_SECONDS, 120),
+    /** A run queued this long with no worker taking it has lost its job (runs wait their turn, one per server). */
+    queuedGraceSeconds: positiveIntSetting(process.env.NOOKPASS_RUN_QUEUED_GRACE_SECONDS, 3600),
     pollingIntervalSeconds: Number(process.env.NOOKPASS_JOB_POLL_SECONDS ?? 1) || 1,
   };
 }
 
 export const RULE_SET_RUN_QUEUE: JobQueue = { name: 'rule-set-run', retryLimit: 2, retryDelaySeconds: 10, expireInSeconds: 3600 };
+
+/** The pass that finds runs whose worker died; pg-boss sends it once a minute for all servers together. */
+export const RULE_SET_RUN_SWEEP_QUEUE: JobQueue = { name: 'rule-set-run-sweep', retryLimit: 0, retryDelaySeconds: 30, expireInSeconds: 300 };
+
+export const STALLED_RUN_MESSAGE = 'The run stopped: the server working on it stopped answering. Start it again.';
+
+/**
+ * A run with no sign of life (running with no progress for the stale time, or queued an hour with nobody taking
+ * it) goes back in the queue, where the next worker claims it and starts counting afresh; one whose attempts are
+ * spent is marked failed, so the page stops showing it as working. Without this pass a run cut off by a server
+ * stopping would wait for its job to expire (an hour) before pg-boss tried it again.
+ */
+export async function requeueStalledRuns(db: DB): Promise<{ queued: number; failed: number }> {
+  const cfg = ruleSetRunConfig();
+  const limits: StallLimits = { queuedSeconds: cfg.queuedGraceSeconds, runningSeconds: cfg.staleClaimSeconds };
+  const stalled = await listStalledRuleSetRuns(db, limits, 50);
+  let queued = 0;
+  let failed = 0;
+  for (const run of stalled) {
+    if (run.attempts >= RULE_SET_RUN_QUEUE.retryLimit + 1) {
+      if (await failStalledRuleSetRun(db, run.id, limits, STALLED_RUN_MESSAGE)) failed += 1;
+    } else {
+      await enqueue(RULE_SET_RUN_QUEUE, { runId: run.id });
+      queued += 1;
+    }
+  }
+  if (stalled.length) log.info({ queued, failed }, 'stalled rule set runs queued again or ended');
+  return { queued, failed };
+}
 
 export type DryRun = RuleSetRun<DryRunResult>;
 export type ImpactRun = RuleSetRun<ImpactResult>;
