@@ -32,7 +32,9 @@ export const log: pino.Logger = (globalForLog.nookpassLog ??= pino({
     const requestId = currentRequestId();
     return requestId ? { requestId } : {};
   },
-}));
+  // Written from a buffer as soon as the previous write is done, not by a blocking write per line on the request
+  // thread: under load, lines queued meanwhile go out in one write. pino flushes what is left when the process exits.
+}, pino.destination({ dest: 1, sync: false })));
 
 const INCOMING_ID = /^[A-Za-z0-9._:-]{8,64}$/;
 

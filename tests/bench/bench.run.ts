@@ -94,7 +94,7 @@ it('/api/evaluations vs a bare route handler under load', async () => {
   });
   // Warm-up: compiled routes, the evaluation threads' JIT and their copy of the published version.
   await load({ url: `${baseUrl}/api/ping`, ...common, duration: 2 });
-  await load({ ...evaluations('all'), duration: 3 });
+  await load({ ...evaluations('all'), duration: 10 });
   const bare = await load({ url: `${baseUrl}/api/ping`, ...common });
   const full = await load(evaluations('all'));
   const compact = await load(evaluations('failing'));
