@@ -1,5 +1,6 @@
 import { sql } from 'kysely';
 import type { DB } from '@/db/index';
+import { listOverdueOutboxRows } from '@/db/outbox-rows';
 import type { MailAttachmentRef, MailOutboxTable } from '@/db/types';
 import type { Selectable } from 'kysely';
 import { isUuid } from '@/lib/domain/ids';
@@ -142,24 +143,9 @@ export async function requeueFailedMail(db: DB, id: string): Promise<OutboxMail 
   return row ? toMail(row) : null;
 }
 
-/**
- * Messages whose job must have been lost: waiting well past their due time (a crash between the commit and
- * the enqueue, or a job dropped), or claimed by a sender that never finished.
- */
-export async function listOverdueMail(db: DB, graceSeconds: number, staleClaimSeconds: number, limit: number): Promise<string[]> {
-  const rows = await db
-    .selectFrom('mail_outbox')
-    .select('id')
-    .where((eb) =>
-      eb.or([
-        eb.and([eb('status', 'in', ['queued', 'retrying']), eb('next_attempt_at', '<', sql<Date>`now() - make_interval(secs => ${graceSeconds})`)]),
-        eb.and([eb('status', '=', 'sending'), eb('claimed_at', '<', sql<Date>`now() - make_interval(secs => ${staleClaimSeconds})`)]),
-      ]),
-    )
-    .orderBy('next_attempt_at')
-    .limit(limit)
-    .execute();
-  return rows.map((r) => r.id);
+/** Messages whose job must have been lost (see listOverdueOutboxRows). */
+export function listOverdueMail(db: DB, graceSeconds: number, staleClaimSeconds: number, limit: number): Promise<string[]> {
+  return listOverdueOutboxRows(db, 'mail_outbox', graceSeconds, staleClaimSeconds, limit);
 }
 
 /** Every message about a report (its sends, the outcomes on it, answers to corrections), oldest first. */

@@ -1,5 +1,6 @@
 import { sql, type Selectable } from 'kysely';
 import type { DB } from '@/db/index';
+import { listOverdueOutboxRows } from '@/db/outbox-rows';
 import type { WebhookDeliveriesTable, WebhookEndpointsTable } from '@/db/types';
 import { isUuid } from '@/lib/domain/ids';
 import type { WebhookDeliveryStatus, WebhookEventType } from '@/lib/domain/webhooks/events';
@@ -297,24 +298,9 @@ export async function requeueFailedWebhookDelivery(db: DB, id: string, maxAttemp
   return row ? findWebhookDelivery(db, row.id) : null;
 }
 
-/**
- * Deliveries whose job must have been lost: waiting well past their due time (a crash between the commit and
- * the enqueue), or claimed by a worker that never finished.
- */
-export async function listOverdueWebhookDeliveries(db: DB, graceSeconds: number, staleClaimSeconds: number, limit: number): Promise<string[]> {
-  const rows = await db
-    .selectFrom('webhook_deliveries')
-    .select('id')
-    .where((eb) =>
-      eb.or([
-        eb.and([eb('status', 'in', ['queued', 'retrying']), eb('next_attempt_at', '<', sql<Date>`now() - make_interval(secs => ${graceSeconds})`)]),
-        eb.and([eb('status', '=', 'sending'), eb('claimed_at', '<', sql<Date>`now() - make_interval(secs => ${staleClaimSeconds})`)]),
-      ]),
-    )
-    .orderBy('next_attempt_at')
-    .limit(limit)
-    .execute();
-  return rows.map((r) => r.id);
+/** Deliveries whose job must have been lost (see listOverdueOutboxRows). */
+export function listOverdueWebhookDeliveries(db: DB, graceSeconds: number, staleClaimSeconds: number, limit: number): Promise<string[]> {
+  return listOverdueOutboxRows(db, 'webhook_deliveries', graceSeconds, staleClaimSeconds, limit);
 }
 
 /** The project facts an event names: its company (whose endpoints hear it), name and jurisdiction. */
