@@ -15,6 +15,13 @@ export type LimitPolicy = {
   durationSeconds: number;
   blockSeconds?: number;
   message: string;
+  /**
+   * For a limit met many times a second (the evaluation API): an app server may count up to this many points in
+   * the shared store at once and hand them out from memory, so most requests need no round trip to PostgreSQL.
+   * Points are counted before they are used, so the limit is never exceeded across servers; near the limit the
+   * blocks shrink to single points. Not for limits with `blockSeconds` (a refusal there must stay exact).
+   */
+  countAhead?: number;
 };
 
 export type LimitState = { consumed: number; remaining: number; retryAfterSeconds: number };
@@ -30,8 +37,17 @@ function state(policy: LimitPolicy, res: RateLimiterRes | null): LimitState {
  * Counters live in PostgreSQL (rate-limiter-flexible's store), so every app server counts against the same
  * limit. Keys are hashed: they may be e-mail addresses, which the counter table has no need to hold.
  */
+/** Points an app server has counted in the shared store and not yet handed out, for one policy and key. */
+type Reserve = { left: number; endsAt: number; sharedRemaining: number; pending: Promise<void> | null };
+
+// A block is at most this share of what the shared counter had left when last asked, so the blocks of several
+// app servers shrink together as a key nears its limit.
+const BLOCK_SHARE_OF_REMAINING = 1 / 8;
+const RESERVES_BEFORE_PRUNING = 10_000;
+
 export class SharedLimiter {
   private readonly limiters = new Map<string, RateLimiterPostgres>();
+  private readonly reserves = new Map<string, Reserve>();
 
   constructor(private readonly pool: pg.Pool) {}
 
@@ -60,12 +76,79 @@ export class SharedLimiter {
 
   /** Counts one request; over the limit it throws TooManyRequestsError (429 with Retry-After). */
   async consume(policy: LimitPolicy, key: string, points = 1): Promise<LimitState> {
+    if (policy.countAhead && policy.countAhead > 1 && points === 1) return this.consumeFromReserve(policy, key);
     try {
       return state(policy, await this.limiter(policy).consume(SharedLimiter.key(key), points));
     } catch (err) {
       if (err instanceof RateLimiterRes) throw new TooManyRequestsError(policy.message, state(policy, err).retryAfterSeconds);
       throw err;
     }
+  }
+
+  /**
+   * One point from this server's reserve for the key; when the reserve is empty (or its window ended) one
+   * request counts a block in the shared store while concurrent requests for the key wait for it.
+   */
+  private async consumeFromReserve(policy: LimitPolicy, key: string): Promise<LimitState> {
+    const id = `${policy.name}:${key}`;
+    let reserve = this.reserves.get(id);
+    if (!reserve) {
+      if (this.reserves.size >= RESERVES_BEFORE_PRUNING) this.forgetEndedReserves();
+      reserve = { left: 0, endsAt: 0, sharedRemaining: -1, pending: null };
+      this.reserves.set(id, reserve);
+    }
+    for (;;) {
+      // Points left over when the window ends were counted in that window only; they are dropped with it.
+      if (reserve.endsAt <= Date.now()) reserve.left = 0;
+      if (reserve.left > 0) {
+        reserve.left -= 1;
+        const remaining = reserve.sharedRemaining + reserve.left;
+        return { consumed: policy.points - remaining, remaining, retryAfterSeconds: 0 };
+      }
+      if (reserve.pending) {
+        await reserve.pending.catch(() => undefined);
+        continue;
+      }
+      const counting = this.countBlock(policy, SharedLimiter.key(key), reserve).finally(() => {
+        reserve.pending = null;
+      });
+      reserve.pending = counting;
+      await counting;
+    }
+  }
+
+  /** Counts a block of points for the key in the shared store and keeps what may be used of it. */
+  private async countBlock(policy: LimitPolicy, hashedKey: string, reserve: Reserve): Promise<void> {
+    const limiter = this.limiter(policy);
+    // Nothing known yet (a new key or a new app server): one point, whose answer tells what is left.
+    const block = reserve.sharedRemaining < 0 ? 1 : Math.max(1, Math.min(policy.countAhead ?? 1, Math.floor(reserve.sharedRemaining * BLOCK_SHARE_OF_REMAINING)));
+    try {
+      const res = await limiter.consume(hashedKey, block);
+      reserve.left = block;
+      reserve.sharedRemaining = res.remainingPoints;
+      reserve.endsAt = Date.now() + res.msBeforeNext;
+    } catch (err) {
+      if (!(err instanceof RateLimiterRes)) throw err;
+      // Another server took points meanwhile: keep the part of the block still under the limit, give back the rest.
+      const over = err.consumedPoints - policy.points;
+      const usable = block - over;
+      reserve.sharedRemaining = 0;
+      reserve.endsAt = Date.now() + err.msBeforeNext;
+      if (usable >= 1) {
+        await limiter.reward(hashedKey, over);
+        reserve.left = usable;
+        return;
+      }
+      // Refused: the count keeps one point for this request, as a refused single request's does.
+      if (block > 1) await limiter.reward(hashedKey, block - 1);
+      reserve.left = 0;
+      throw new TooManyRequestsError(policy.message, state(policy, err).retryAfterSeconds);
+    }
+  }
+
+  /** Forgets reserves whose window ended (they hold nothing). */
+  forgetEndedReserves(now = Date.now()): void {
+    for (const [id, reserve] of this.reserves) if (reserve.endsAt <= now && !reserve.pending) this.reserves.delete(id);
   }
 
   /** Counts without refusing (a failed attempt, say); the answer tells whether the key is now over. */

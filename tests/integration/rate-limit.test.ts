@@ -77,6 +77,95 @@ describe('the shared rate limiter', () => {
   });
 });
 
+// For a limit met many times a second, a server counts points in blocks and answers from memory (countAhead).
+describe('counting ahead', () => {
+  const ahead = (name: string, points: number, countAhead: number, durationSeconds = 60): LimitPolicy => ({ ...policy(name, points, durationSeconds), countAhead });
+  /** A pool that counts the queries sent through it: the round trips a server makes. */
+  const countingPool = (pool: pg.Pool) => {
+    const counter = { queries: 0 };
+    const proxy = new Proxy(pool, {
+      get(target, prop, receiver) {
+        if (prop === 'query') return (...args: unknown[]) => { counter.queries += 1; return (target.query as (...a: unknown[]) => unknown)(...args); };
+        const value = Reflect.get(target, prop, receiver);
+        return typeof value === 'function' ? value.bind(target) : value;
+      },
+    });
+    return { pool: proxy, counter };
+  };
+
+  it('answers most requests from memory, and the shared count covers every answered one', async () => {
+    const { pool, counter } = countingPool(poolA);
+    const l = new SharedLimiter(pool);
+    const p = ahead('it-ahead-many', 10_000, 50);
+    for (let i = 0; i < 500; i += 1) await l.consume(p, 'integration');
+    // The first point (to learn what is left), then blocks of 50: 11 round trips, not 500.
+    expect(counter.queries).toBeLessThanOrEqual(12);
+    const shared = await new SharedLimiter(poolB).peek(p, 'integration');
+    expect(shared.consumed).toBeGreaterThanOrEqual(500);
+    expect(shared.consumed).toBeLessThanOrEqual(500 + 50);
+  });
+
+  it('asks once for concurrent requests: 200 at once on one server make a handful of round trips', async () => {
+    const { pool, counter } = countingPool(poolA);
+    const l = new SharedLimiter(pool);
+    const p = ahead('it-ahead-burst', 10_000, 50);
+    await l.consume(p, 'burst');
+    const results = await Promise.allSettled(Array.from({ length: 200 }, () => l.consume(p, 'burst')));
+    expect(results.every((r) => r.status === 'fulfilled')).toBe(true);
+    expect(counter.queries).toBeLessThanOrEqual(6);
+  });
+
+  it('never answers more than the limit across two servers: of 400 parallel requests against 250, at most 250 pass', async () => {
+    const servers = [new SharedLimiter(poolA), new SharedLimiter(poolB)];
+    const p = ahead('it-ahead-parallel', 250, 25);
+    // Each server has counted before, so it knows what is left and asks in blocks.
+    await servers[0].consume(p, 'shared');
+    await servers[1].consume(p, 'shared');
+    const results = await Promise.allSettled(Array.from({ length: 400 }, (_, i) => servers[i % 2].consume(p, 'shared')));
+    const passed = results.filter((r) => r.status === 'fulfilled').length + 2;
+    expect(passed).toBeLessThanOrEqual(250);
+    // Blocks shrink near the limit, so little is left unused in a server's memory when the limit is reached.
+    expect(passed).toBeGreaterThanOrEqual(250 - 2 * 25);
+    const refused = results.find((r) => r.status === 'rejected') as PromiseRejectedResult;
+    expect(refused.reason).toBeInstanceOf(TooManyRequestsError);
+    expect((refused.reason as TooManyRequestsError).retryAfterSeconds).toBeGreaterThan(0);
+  });
+
+  it('near the limit counts one at a time: after another server counted all but one, one passes and the next is refused', async () => {
+    const p = ahead('it-ahead-edge', 1200, 12);
+    await new SharedLimiter(poolB).penalize(p, 'token', 1199);
+    const l = new SharedLimiter(poolA);
+    await expect(l.consume(p, 'token')).resolves.toMatchObject({ remaining: 0 });
+    await expect(l.consume(p, 'token')).rejects.toBeInstanceOf(TooManyRequestsError);
+    // A refusal counts one point, as it does without counting ahead.
+    expect((await l.peek(p, 'token')).consumed).toBe(1201);
+  });
+
+  it('keeps the part of a block under the limit when another server took points meanwhile, and gives the rest back', async () => {
+    const p = ahead('it-ahead-partial', 1000, 50);
+    const a = new SharedLimiter(poolA);
+    const b = new SharedLimiter(poolB);
+    await a.consume(p, 'k'); // a learns 999 are left
+    await b.penalize(p, 'k', 980); // meanwhile b counts 980: 19 left
+    await a.consume(p, 'k'); // a asks for 50, is over by 31, keeps 19 and gives 31 back
+    expect((await b.peek(p, 'k')).consumed).toBe(1000);
+    for (let i = 0; i < 18; i += 1) await a.consume(p, 'k');
+    await expect(a.consume(p, 'k')).rejects.toBeInstanceOf(TooManyRequestsError);
+    await expect(b.consume(p, 'k')).rejects.toBeInstanceOf(TooManyRequestsError);
+  });
+
+  it('drops what a server holds when the window ends, and counts the new window afresh', async () => {
+    const p = ahead('it-ahead-window', 1000, 50, 1);
+    const l = new SharedLimiter(poolA);
+    await l.consume(p, 'w');
+    await l.consume(p, 'w'); // a block of 50, 49 held
+    await new Promise((resolve) => setTimeout(resolve, 1_200));
+    await l.consume(p, 'w');
+    // The new window holds only the new request's block: nothing carried over from the old one.
+    expect((await new SharedLimiter(poolB).peek(p, 'w')).consumed).toBeLessThanOrEqual(50);
+  });
+});
+
 describe('the client address', () => {
   it('is the right-most X-Forwarded-For entry: the one the nearest proxy appended', () => {
     const r = new Request('http://x/', { headers: { 'x-forwarded-for': '203.0.113.9, 198.51.100.7' } });

@@ -18,6 +18,9 @@ describe('evaluation limits', () => {
     expect(EVALUATIONS_PER_TOKEN).toMatchObject({ points: 1200, durationSeconds: 60 });
     expect(EVALUATIONS_PER_USER).toMatchObject({ points: 2400, durationSeconds: 60 });
     expect(EVALUATIONS_PER_TOKEN.message).toContain('1,200 evaluations');
+    // Counted ahead in blocks of 1 % of the limit.
+    expect(EVALUATIONS_PER_TOKEN.countAhead).toBe(12);
+    expect(EVALUATIONS_PER_USER.countAhead).toBe(24);
   });
 
   it('take a raised figure from the environment and say it in the refusal', async () => {
@@ -27,6 +30,7 @@ describe('evaluation limits', () => {
     expect(EVALUATIONS_PER_TOKEN.points).toBe(5000);
     expect(EVALUATIONS_PER_TOKEN.message).toContain('5,000 evaluations');
     expect(EVALUATIONS_PER_USER.points).toBe(9000);
+    expect(EVALUATIONS_PER_USER.countAhead).toBe(50); // 1 % would be 90: blocks stop at 50
   });
 
   it.each(['0', '-5', '1.5', 'lots'])('refuse %j at start, naming the variable, rather than read it as no limit', async (raw) => {
