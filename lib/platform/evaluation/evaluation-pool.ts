@@ -21,6 +21,12 @@ import type { EvaluationReply, EvaluationTask } from '@/lib/platform/evaluation/
 /** Evaluations waiting for a thread beyond this are refused at once (503) rather than queued without end. */
 const MAX_QUEUED = 1_000;
 const WORKER_HEAP_MB = 256;
+/**
+ * Plans a thread holds at once. One at a time, a thread that finished sits idle until the (busy) request thread
+ * gets round to sending the next plan; with several sent ahead it goes straight on to the next (+≈20 % answers a
+ * second at 20 connections, npm run bench). A thread still evaluates one plan after another.
+ */
+const TASKS_PER_THREAD = 8;
 
 // Beside the build, loaded by path at run time; the path opts out of Turbopack's file tracing.
 const BUILD_DIR = process.env.NOOKPASS_DIST_DIR || '.next';
@@ -49,7 +55,7 @@ function evaluationPool(): Piscina | null {
     log.error({ filename }, "evaluation worker missing: evaluating on the request thread; build it with 'node scripts/build-report-worker.mjs' (npm run build does)");
     pool = null;
   } else {
-    pool = filename ? new Piscina({ filename, minThreads: threads, maxThreads: threads, idleTimeout: 60_000, maxQueue: MAX_QUEUED, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } }) : null;
+    pool = filename ? new Piscina({ filename, minThreads: threads, maxThreads: threads, concurrentTasksPerWorker: TASKS_PER_THREAD, idleTimeout: 60_000, maxQueue: MAX_QUEUED, resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB } }) : null;
   }
   return pool;
 }
