@@ -25,7 +25,7 @@ export function json(body: unknown, init?: number | ResponseInit): Response {
 }
 
 /** An answer already serialized as JSON (the evaluation API's, made on an evaluation thread). */
-export function jsonText(body: string, status = 200): Response {
+export function jsonText(body: string | Uint8Array<ArrayBuffer>, status = 200): Response {
   return new Response(body, { status, headers: { 'content-type': 'application/json', 'cache-control': 'no-store' } });
 }
 

@@ -36,10 +36,10 @@ export function publishedRuleSetOf(db: DB, jurisdictionId: string): Promise<Rule
 }
 
 /**
- * The evaluation API's answer, as JSON text: the jurisdiction's published version (from memory after the first
+ * The evaluation API's answer, as UTF-8 JSON: the jurisdiction's published version (from memory after the first
  * request) → parse and evaluate the plan on an evaluation thread → the answer. Nothing is stored.
  */
-export async function evaluationAnswerForJurisdiction(db: DB, input: { jurisdiction: string; plan: unknown; findings: FindingsWanted }): Promise<string> {
+export async function evaluationAnswerForJurisdiction(db: DB, input: { jurisdiction: string; plan: unknown; findings: FindingsWanted }): Promise<Uint8Array<ArrayBuffer>> {
   const jurisdiction = await jurisdictionWithPublished(db, input.jurisdiction);
   if (!jurisdiction) throw new NotFoundError(`No jurisdiction '${input.jurisdiction}'. GET /api/jurisdictions lists them.`);
   const ruleSet = jurisdiction.publishedRuleSetId ? await loadImmutableRuleSet(db, jurisdiction.publishedRuleSetId) : null;

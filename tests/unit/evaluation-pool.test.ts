@@ -34,6 +34,8 @@ afterAll(async () => {
   delete process.env.NOOKPASS_EVALUATION_THREADS;
 });
 
+// The threads answer in UTF-8 bytes, ready to send; read back as text to compare.
+const asText = (answer: Awaited<ReturnType<typeof answerOffThread>>) => (answer.ok ? { ok: true, body: new TextDecoder().decode(answer.body) } : answer);
 const findingOf = (body: string, key: string) => (JSON.parse(body).findings as { ruleKey: string; status: string; citation: { section: string } }[]).find((f) => f.ruleKey === key);
 
 describe('evaluations on worker threads', () => {
@@ -41,13 +43,13 @@ describe('evaluations on worker threads', () => {
     for (const ruleSet of [v2018, v2012, v2018]) {
       for (const plan of [hallClosetPassPlan, longExhaustFailPlan]) {
         for (const wanted of ['all', 'failing'] as const) {
-          const off = await answerOffThread(ruleSet, plan, wanted);
+          const off = asText(await answerOffThread(ruleSet, plan, wanted));
           expect(off).toEqual(await evaluationAnswer(ruleSet, plan, wanted));
         }
       }
     }
-    const long2018 = await answerOffThread(v2018, longExhaustFailPlan, 'all');
-    const long2012 = await answerOffThread(v2012, longExhaustFailPlan, 'all');
+    const long2018 = asText(await answerOffThread(v2018, longExhaustFailPlan, 'all'));
+    const long2012 = asText(await answerOffThread(v2012, longExhaustFailPlan, 'all'));
     if (!long2018.ok || !long2012.ok) throw new Error('the fixture plan should parse');
     // IRC 2018 M1502.4.5.1 and IRC 2012 M1502.4.4.1: the same 35 ft limit under two section numbers.
     expect(findingOf(long2018.body, 'exhaust.developed-length')).toMatchObject({ status: 'fail', citation: { section: 'M1502.4.5.1' } });
@@ -58,7 +60,7 @@ describe('evaluations on worker threads', () => {
   it('answer like the request thread for generated plans too', async () => {
     const plans = fc.sample(generatedPlan, { numRuns: 40, seed: 20261204 });
     const off = await Promise.all(plans.map((p) => answerOffThread(v2018, p, 'all')));
-    for (let i = 0; i < plans.length; i++) expect(off[i]).toEqual(await evaluationAnswer(v2018, plans[i], 'all'));
+    for (let i = 0; i < plans.length; i++) expect(asText(off[i])).toEqual(await evaluationAnswer(v2018, plans[i], 'all'));
   });
 
   it('refuse a plan that does not parse with its fields named under plan.', async () => {

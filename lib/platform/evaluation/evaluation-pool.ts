@@ -3,11 +3,11 @@ import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { Piscina } from 'piscina';
-import { evaluationAnswer, type EvaluationAnswer, type FindingsWanted } from '@/lib/domain/api/evaluation-answer';
+import type { FindingsWanted } from '@/lib/domain/api/evaluation-answer';
 import type { RuleSetForEvaluation } from '@/lib/domain/engine';
 import { ServiceUnavailableError } from '@/lib/domain/errors';
 import { log } from '@/lib/platform/log';
-import type { EvaluationReply, EvaluationTask } from '@/lib/platform/evaluation/evaluate-worker';
+import { encodedAnswer, type EncodedAnswer, type EvaluationReply, type EvaluationTask } from '@/lib/platform/evaluation/evaluate-worker';
 
 /**
  * The evaluation API runs the engine on evaluation threads: parsing, evaluating and serializing a plan is most of
@@ -71,10 +71,10 @@ async function runTask(p: Piscina, task: EvaluationTask): Promise<EvaluationRepl
   }
 }
 
-/** The evaluation API's answer for a plan under a published version (`id` set), computed off the request thread. */
-export async function answerOffThread(ruleSet: RuleSetForEvaluation & { id: string }, plan: unknown, findings: FindingsWanted): Promise<EvaluationAnswer> {
+/** The evaluation API's answer (UTF-8 JSON) for a plan under a published version (`id` set), computed off the request thread. */
+export async function answerOffThread(ruleSet: RuleSetForEvaluation & { id: string }, plan: unknown, findings: FindingsWanted): Promise<EncodedAnswer> {
   const p = evaluationPool();
-  if (!p) return evaluationAnswer(ruleSet, plan, findings);
+  if (!p) return encodedAnswer(ruleSet, plan, findings);
   const reply = await runTask(p, { ruleSetId: ruleSet.id, plan, findings });
   if (!('needsRuleSet' in reply)) return reply;
   const second = await runTask(p, { ruleSetId: ruleSet.id, ruleSet, plan, findings });
