@@ -19,7 +19,7 @@ export type LimitPolicy = {
    * For a limit met many times a second (the evaluation API): an app server may count up to this many points in
    * the shared store at once and hand them out from memory, so most requests need no round trip to PostgreSQL.
    * Points are counted before they are used, so the limit is never exceeded across servers; near the limit the
-   * blocks shrink to single points. Not for limits with `blockSeconds` (a refusal there must stay exact).
+   * blocks shrink to single points. Ignored for a limit with `blockSeconds` (its refusal must stay exact).
    */
   countAhead?: number;
 };
@@ -33,18 +33,18 @@ function state(policy: LimitPolicy, res: RateLimiterRes | null): LimitState {
   return { consumed: res.consumedPoints, remaining: res.remainingPoints, retryAfterSeconds: Math.max(1, Math.ceil(res.msBeforeNext / 1000)) };
 }
 
-/**
- * Counters live in PostgreSQL (rate-limiter-flexible's store), so every app server counts against the same
- * limit. Keys are hashed: they may be e-mail addresses, which the counter table has no need to hold.
- */
 /** Points an app server has counted in the shared store and not yet handed out, for one policy and key. */
 type Reserve = { left: number; endsAt: number; sharedRemaining: number; pending: Promise<void> | null };
 
 // A block is at most this share of what the shared counter had left when last asked, so the blocks of several
-// app servers shrink together as a key nears its limit.
+// app servers shrink together as a key nears its limit (an operating setting: common practice, no published source).
 const BLOCK_SHARE_OF_REMAINING = 1 / 8;
 const RESERVES_BEFORE_PRUNING = 10_000;
 
+/**
+ * Counters live in PostgreSQL (rate-limiter-flexible's store), so every app server counts against the same
+ * limit. Keys are hashed: they may be e-mail addresses, which the counter table has no need to hold.
+ */
 export class SharedLimiter {
   private readonly limiters = new Map<string, RateLimiterPostgres>();
   private readonly reserves = new Map<string, Reserve>();
@@ -76,7 +76,7 @@ export class SharedLimiter {
 
   /** Counts one request; over the limit it throws TooManyRequestsError (429 with Retry-After). */
   async consume(policy: LimitPolicy, key: string, points = 1): Promise<LimitState> {
-    if (policy.countAhead && policy.countAhead > 1 && points === 1) return this.consumeFromReserve(policy, key);
+    if (policy.countAhead && policy.countAhead > 1 && !policy.blockSeconds && points === 1) return this.consumeFromReserve(policy, key);
     try {
       return state(policy, await this.limiter(policy).consume(SharedLimiter.key(key), points));
     } catch (err) {
@@ -147,7 +147,7 @@ export class SharedLimiter {
   }
 
   /** Forgets reserves whose window ended (they hold nothing). */
-  forgetEndedReserves(now = Date.now()): void {
+  private forgetEndedReserves(now = Date.now()): void {
     for (const [id, reserve] of this.reserves) if (reserve.endsAt <= now && !reserve.pending) this.reserves.delete(id);
   }
 

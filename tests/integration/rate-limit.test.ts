@@ -105,6 +105,14 @@ describe('counting ahead', () => {
     expect(shared.consumed).toBeLessThanOrEqual(500 + 50);
   });
 
+  it('counts one at a time a limit that blocks once over (blockSeconds), whatever countAhead says', async () => {
+    const { pool, counter } = countingPool(poolA);
+    const l = new SharedLimiter(pool);
+    const p: LimitPolicy = { ...policy('it-ahead-blocking', 1000, 60, 120), countAhead: 50 };
+    for (let i = 0; i < 20; i += 1) await l.consume(p, 'k');
+    expect(counter.queries).toBe(20);
+  });
+
   it('asks once for concurrent requests: 200 at once on one server make a handful of round trips', async () => {
     const { pool, counter } = countingPool(poolA);
     const l = new SharedLimiter(pool);
