@@ -18,6 +18,7 @@ import { ConflictError } from '@/lib/domain/errors';
 import type { AppUser } from '@/lib/domain/roles';
 import { enqueue, type JobQueue, positiveIntSetting } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
+import { requeueOrEnd } from '@/lib/services/jobs/stalled-work';
 import { findObject, putObject } from '@/lib/platform/storage';
 import { makePhotoDerivatives, makeReportImage } from '@/lib/platform/uploads';
 import { loadAttachmentFor } from '@/lib/services/attachments/access';
@@ -75,23 +76,17 @@ export const STALLED_DERIVATIVES_MESSAGE = 'The thumbnail was not finished: the 
 /**
  * A photo whose images show no sign of progress (its job lost with a server, or every attempt cut short by a
  * server stopping) goes back in the queue; one whose attempts are spent is marked failed, so the person sees it
- * and can make it again. A job sent twice is harmless: the worker's claim lets one of them make the images.
+ * and can make it again.
  */
 export async function requeueStalledDerivatives(db: DB): Promise<{ queued: number; failed: number }> {
   const cfg = derivativesConfig();
-  const stalled = await listStalledDerivatives(db, cfg.overdueGraceSeconds, cfg.staleClaimSeconds, 200);
-  let queued = 0;
-  let failed = 0;
-  for (const a of stalled) {
-    if (a.status === 'making' && a.attempts >= a.maxAttempts) {
-      if (await failStalledDerivatives(db, a.id, cfg.staleClaimSeconds, STALLED_DERIVATIVES_MESSAGE)) failed += 1;
-    } else {
-      await enqueue(DERIVATIVES_QUEUE, { attachmentId: a.id });
-      queued += 1;
-    }
-  }
-  if (stalled.length) log.info({ queued, failed }, 'stalled photo thumbnails queued again or ended');
-  return { queued, failed };
+  return requeueOrEnd(await listStalledDerivatives(db, cfg.overdueGraceSeconds, cfg.staleClaimSeconds, 200), {
+    spent: (a) => a.status === 'making' && a.attempts >= a.maxAttempts,
+    end: (a) => failStalledDerivatives(db, a.id, cfg.staleClaimSeconds, STALLED_DERIVATIVES_MESSAGE),
+    queue: DERIVATIVES_QUEUE,
+    job: (a) => ({ attachmentId: a.id }),
+    what: 'stalled photo thumbnails',
+  });
 }
 
 class ImageUnreadable extends Error {}

@@ -20,6 +20,7 @@ import type { AppUser } from '@/lib/domain/roles';
 import type { RuleSetRun } from '@/lib/domain/rule-sets/runs';
 import { enqueue, type JobQueue, positiveIntSetting } from '@/lib/platform/jobs/boss';
 import { log } from '@/lib/platform/log';
+import { requeueOrEnd } from '@/lib/services/jobs/stalled-work';
 import { auditDryRun, computeImpact, evaluateDryRun, type DryRunResult, type ImpactResult } from '@/lib/services/rule-sets/comparisons';
 
 /*
@@ -59,19 +60,13 @@ export const STALLED_RUN_MESSAGE = 'The run stopped: the server working on it st
 export async function requeueStalledRuns(db: DB): Promise<{ queued: number; failed: number }> {
   const cfg = ruleSetRunConfig();
   const limits: StallLimits = { queuedSeconds: cfg.queuedGraceSeconds, runningSeconds: cfg.staleClaimSeconds };
-  const stalled = await listStalledRuleSetRuns(db, limits, 50);
-  let queued = 0;
-  let failed = 0;
-  for (const run of stalled) {
-    if (run.attempts >= RULE_SET_RUN_QUEUE.retryLimit + 1) {
-      if (await failStalledRuleSetRun(db, run.id, limits, STALLED_RUN_MESSAGE)) failed += 1;
-    } else {
-      await enqueue(RULE_SET_RUN_QUEUE, { runId: run.id });
-      queued += 1;
-    }
-  }
-  if (stalled.length) log.info({ queued, failed }, 'stalled rule set runs queued again or ended');
-  return { queued, failed };
+  return requeueOrEnd(await listStalledRuleSetRuns(db, limits, 50), {
+    spent: (run) => run.attempts >= RULE_SET_RUN_QUEUE.retryLimit + 1,
+    end: (run) => failStalledRuleSetRun(db, run.id, limits, STALLED_RUN_MESSAGE),
+    queue: RULE_SET_RUN_QUEUE,
+    job: (run) => ({ runId: run.id }),
+    what: 'stalled rule set runs',
+  });
 }
 
 export type DryRun = RuleSetRun<DryRunResult>;
